@@ -1,0 +1,2 @@
+// loopsheet never downloads a browser: it uses one that is installed (see src/render/browser.ts).
+module.exports = { skipDownload: true };

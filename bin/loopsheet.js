@@ -1,0 +1,9 @@
+#!/usr/bin/env node
+// The `loopsheet` command. The source is TypeScript, run through tsx's loader so a clone
+// works without a compile step; the loader is resolved from this file, not from the
+// user's working directory.
+import { register } from 'tsx/esm/api';
+
+register();
+const { main } = await import('../src/cli/main.ts');
+process.exitCode = await main(process.argv.slice(2));

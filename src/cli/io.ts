@@ -1,0 +1,12 @@
+/** Exit codes, a public contract for CI scripts. */
+export const EXIT = { ok: 0, input: 1, usage: 2, internal: 3 } as const;
+
+/** Where a command writes: results to `out` (stdout), messages to `err` (stderr). */
+export interface Io {
+  out: (text: string) => void;
+  err: (text: string) => void;
+  isTty: boolean;
+}
+
+/** A mistake in how the command was called (exit 2), as opposed to bad input data (exit 1). */
+export class UsageError extends Error {}

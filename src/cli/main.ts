@@ -1,0 +1,139 @@
+import { parseArgs, type ParseArgsConfig } from 'node:util';
+import { runCheck } from './check.ts';
+import { runBuild } from './build.ts';
+import { runInit } from './init.ts';
+import { runSchema } from './schema.ts';
+import { EXIT, UsageError, type Io } from './io.ts';
+
+interface Command {
+  summary: string;
+  usage: string;
+  options: NonNullable<ParseArgsConfig['options']>;
+  positionals: { min: number; max: number };
+  run: (values: Record<string, string | boolean | undefined>, positionals: string[], io: Io) => Promise<number>;
+}
+
+const COMMANDS: Record<string, Command> = {
+  check: {
+    summary: 'validate a data folder and list every problem',
+    usage: `loopsheet check [--data DIR] [--json]
+
+Validates every input file and prints each problem with file, line, column, the value and
+what was expected. Exit 0 when there are no errors (warnings allowed), 1 with errors.
+
+  --data DIR   the data folder (default ./data)
+  --json       print the problems as a JSON array on stdout`,
+    options: { data: { type: 'string' }, json: { type: 'boolean' } },
+    positionals: { min: 0, max: 0 },
+    run: (values, _positionals, io) => runCheck({ data: str(values.data) ?? 'data', json: values.json === true }, io),
+  },
+  build: {
+    summary: 'validate, compute and render the declarations',
+    usage: `loopsheet build [--data DIR] [--out DIR] [--no-pdf]
+
+Validates the data folder and renders the site into --out. Nothing is written when
+validation fails, and a failed build leaves the previous output untouched.
+
+  --data DIR   the data folder (default ./data)
+  --out DIR    the output folder (default ./out)
+  --no-pdf     skip the PDF files
+  --pdf        require PDFs: fail when no browser is found`,
+    options: { data: { type: 'string' }, out: { type: 'string' }, 'no-pdf': { type: 'boolean' }, pdf: { type: 'boolean' } },
+    positionals: { min: 0, max: 0 },
+    run: (values, _positionals, io) =>
+      runBuild({ data: str(values.data) ?? 'data', out: str(values.out) ?? 'out', pdf: values['no-pdf'] === true ? 'off' : values.pdf === true ? 'required' : 'auto' }, io),
+  },
+  init: {
+    summary: 'scaffold a new data folder',
+    usage: `loopsheet init DIR [--force]
+
+Writes every input file with its header row and a commented example row, a starting
+declaration.json and a README explaining each column with its unit.
+
+  --force      write into a folder that already has files (existing input files are kept)`,
+    options: { force: { type: 'boolean' } },
+    positionals: { min: 1, max: 1 },
+    run: (values, positionals, io) => runInit({ dir: positionals[0]!, force: values.force === true }, io),
+  },
+  schema: {
+    summary: 'write the JSON Schema and the column reference',
+    usage: `loopsheet schema [--out DIR]
+
+Writes declaration.schema.json, a JSON Schema per CSV row and columns.md (the column
+reference of every CSV), all generated from the zod schemas the checks use.
+
+  --out DIR    where to write (default ./schema)`,
+    options: { out: { type: 'string' } },
+    positionals: { min: 0, max: 0 },
+    run: (values, _positionals, io) => runSchema({ out: str(values.out) ?? 'schema' }, io),
+  },
+};
+
+const str = (value: string | boolean | undefined): string | undefined => (typeof value === 'string' ? value : undefined);
+
+function mainHelp(): string {
+  const width = Math.max(...Object.keys(COMMANDS).map((name) => name.length));
+  return `loopsheet — product impact declarations for metal products, from CSV
+
+usage: loopsheet COMMAND [options]
+
+${Object.entries(COMMANDS)
+  .map(([name, command]) => `  ${name.padEnd(width)}  ${command.summary}`)
+  .join('\n')}
+
+Run "loopsheet COMMAND --help" for a command's options.
+Exit codes: 0 ok, 1 input errors, 2 usage errors, 3 internal failure.`;
+}
+
+export const processIo: Io = {
+  out: (text) => void process.stdout.write(text.endsWith('\n') ? text : `${text}\n`),
+  err: (text) => void process.stderr.write(text.endsWith('\n') ? text : `${text}\n`),
+  isTty: Boolean(process.stderr.isTTY) && process.env.CI !== 'true',
+};
+
+export async function main(argv: string[], io: Io = processIo): Promise<number> {
+  const [name, ...rest] = argv;
+  if (name === undefined || name === '--help' || name === '-h' || name === 'help') {
+    if (name === 'help' && rest[0] && COMMANDS[rest[0]]) {
+      io.out(COMMANDS[rest[0]]!.usage);
+      return EXIT.ok;
+    }
+    (name === undefined ? io.err : io.out)(mainHelp());
+    return name === undefined ? EXIT.usage : EXIT.ok;
+  }
+  if (name === '--version' || name === '-v') {
+    io.out((await import('../reference/tool.ts')).TOOL_VERSION);
+    return EXIT.ok;
+  }
+  const command = COMMANDS[name];
+  if (!command) {
+    io.err(`loopsheet: unknown command "${name}"\n\n${mainHelp()}`);
+    return EXIT.usage;
+  }
+  let parsed;
+  try {
+    parsed = parseArgs({ args: rest, options: { ...command.options, help: { type: 'boolean', short: 'h' } }, allowPositionals: true, strict: true });
+  } catch (error) {
+    io.err(`loopsheet ${name}: ${(error as Error).message}\n\n${command.usage}`);
+    return EXIT.usage;
+  }
+  if (parsed.values.help) {
+    io.out(command.usage);
+    return EXIT.ok;
+  }
+  const { min, max } = command.positionals;
+  if (parsed.positionals.length < min || parsed.positionals.length > max) {
+    io.err(`loopsheet ${name}: expected ${min === max ? min : `${min}–${max}`} argument${max === 1 ? '' : 's'}, got ${parsed.positionals.length}\n\n${command.usage}`);
+    return EXIT.usage;
+  }
+  try {
+    return await command.run(parsed.values as Record<string, string | boolean | undefined>, parsed.positionals, io);
+  } catch (error) {
+    if (error instanceof UsageError) {
+      io.err(`loopsheet ${name}: ${error.message}`);
+      return EXIT.usage;
+    }
+    io.err(`loopsheet ${name}: internal failure: ${(error as Error).stack ?? String(error)}`);
+    return EXIT.internal;
+  }
+}

@@ -1,0 +1,64 @@
+import { findNodeAtLocation, getNodeValue, parseTree, printParseErrorCode, type Node, type ParseError } from 'jsonc-parser';
+import type { Problem } from '../problems.ts';
+import { readText } from './text.ts';
+
+/** A JSON document with the position of every value, so problems can name line and column. */
+export interface JsonFile {
+  file: string;
+  text: string;
+  bytes: Buffer;
+  value: unknown;
+  root: Node;
+}
+
+export type JsonLoad = { ok: true; json: JsonFile } | { ok: false; problems: Problem[] };
+
+export function lineAndColumn(text: string, offset: number): { line: number; column: number } {
+  let line = 1;
+  let lineStart = 0;
+  for (let i = text.indexOf('\n'); i !== -1 && i < offset; i = text.indexOf('\n', i + 1)) {
+    line++;
+    lineStart = i + 1;
+  }
+  return { line, column: offset - lineStart + 1 };
+}
+
+export async function loadJson(dir: string, file: string): Promise<JsonLoad> {
+  const read = await readText(dir, file);
+  if (!read.ok) return { ok: false, problems: [read.problem] };
+  return parseJsonText(file, read.text, read.bytes);
+}
+
+export function parseJsonText(file: string, text: string, bytes: Buffer = Buffer.from(text)): JsonLoad {
+  const errors: ParseError[] = [];
+  const root = parseTree(text, errors, { disallowComments: true, allowTrailingComma: false, allowEmptyContent: false });
+  if (errors.length > 0 || root === undefined) {
+    const problems = errors.map((error): Problem => {
+      const at = lineAndColumn(text, error.offset);
+      return {
+        severity: 'error', code: 'JSON_SYNTAX', file, line: at.line, columnIndex: at.column,
+        value: text.slice(error.offset, error.offset + Math.max(1, Math.min(error.length, 20))),
+        message: `JSON syntax: ${printParseErrorCode(error.error)}`,
+        expected: 'valid JSON (no comments, no trailing commas)',
+      };
+    });
+    if (problems.length === 0) problems.push({ severity: 'error', code: 'JSON_SYNTAX', file, line: 1, message: 'the file is empty', expected: 'a JSON object' });
+    return { ok: false, problems };
+  }
+  return { ok: true, json: { file, text, bytes, value: getNodeValue(root), root } };
+}
+
+/** Where a JSON path points: the value if present, else the nearest enclosing value. */
+export function locate(json: JsonFile, path: ReadonlyArray<string | number>): { line: number; column: number; node: Node | undefined } {
+  for (let depth = path.length; depth >= 0; depth--) {
+    const node = findNodeAtLocation(json.root, path.slice(0, depth) as (string | number)[]);
+    if (node) {
+      const at = lineAndColumn(json.text, node.offset);
+      return { ...at, node: depth === path.length ? node : undefined };
+    }
+  }
+  return { line: 1, column: 1, node: undefined };
+}
+
+export const jsonPath = (path: ReadonlyArray<PropertyKey>): string =>
+  path.reduce<string>((text, key) => (typeof key === 'number' ? `${text}[${key}]` : text ? `${text}.${String(key)}` : String(key)), '');

@@ -1,0 +1,370 @@
+import type { Problem, ProblemCode, Severity } from '../problems.ts';
+import { locate } from '../load/json.ts';
+import { findGas, GHG_FACTOR_IDS, GHG_PREFIX } from '../reference/ghg.ts';
+import { findIndicator } from '../reference/indicators.ts';
+import { nearestName } from '../reference/nearest.ts';
+import { convertible, dimensionOf, unitsOf, type Dimension } from '../reference/units.ts';
+import type { Row, Table } from '../schema/table.ts';
+import type { Project, Material, FactorRow } from './project.ts';
+
+/**
+ * Rules that need more than one row or file: duplicate ids, references across files,
+ * the BOM against the declared unit, end-of-life coverage, factors a use requires, unit
+ * compatibility and factor completeness. Each rule reports at the cell a user must edit.
+ */
+export function crossFileChecks(project: Project): Problem[] {
+  const problems: Problem[] = [];
+  const ctx = new CheckContext(project, problems);
+  duplicateKeys(ctx);
+  references(ctx);
+  productRules(ctx);
+  factorRequirements(ctx);
+  unitRules(ctx);
+  factorCompleteness(ctx);
+  provenanceWarnings(ctx);
+  declarationRules(ctx);
+  return problems;
+}
+
+type AnyTable = Table<unknown>;
+
+class CheckContext {
+  constructor(
+    readonly project: Project,
+    readonly problems: Problem[],
+  ) {}
+
+  at(table: AnyTable, line: number, raw: Record<string, string>, column: string, severity: Severity, code: ProblemCode, message: string, extra: Partial<Problem> = {}): void {
+    const value = raw[column];
+    const columnIndex = table.columns[column];
+    this.problems.push({
+      severity, code, file: table.file, line, column,
+      ...(columnIndex === undefined ? {} : { columnIndex }),
+      ...(value === undefined ? {} : { value }),
+      message, ...extra,
+    });
+  }
+
+  /** Ids written in a table's column, valid rows or not, so one bad cell elsewhere in a row does not make references to it dangle. */
+  ids(table: AnyTable, column: string): Set<string> {
+    return new Set(table.written.map((row) => (row.raw[column] ?? '').trim()).filter((id) => id !== ''));
+  }
+
+  factor(id: string | undefined): Row<FactorRow> | undefined {
+    return id === undefined ? undefined : this.factorIndex().get(id);
+  }
+
+  private factorsById: Map<string, Row<FactorRow>> | undefined;
+  factorIndex(): Map<string, Row<FactorRow>> {
+    this.factorsById ??= new Map(this.project.factors.rows.map((row) => [row.value.factor_id, row]));
+    return this.factorsById;
+  }
+
+  private materialsById: Map<string, Row<Material>> | undefined;
+  material(id: string): Row<Material> | undefined {
+    this.materialsById ??= new Map(this.project.materials.rows.map((row) => [row.value.material, row]));
+    return this.materialsById.get(id);
+  }
+}
+
+function duplicateKeys(ctx: CheckContext): void {
+  const p = ctx.project;
+  const rules: Array<{ table: AnyTable; key: string[]; severity: Severity; what: string }> = [
+    { table: p.products, key: ['product_id'], severity: 'error', what: 'product_id' },
+    { table: p.bom, key: ['product_id', 'line_id'], severity: 'error', what: 'line_id within its product' },
+    { table: p.materials, key: ['material'], severity: 'error', what: 'material' },
+    { table: p.eol, key: ['scenario', 'material'], severity: 'error', what: 'scenario and material' },
+    { table: p.factors, key: ['factor_id'], severity: 'error', what: 'factor_id' },
+    // Repeated activities and legs are legal but usually a double count.
+    { table: p.activities, key: ['product_id', 'module', 'activity'], severity: 'warning', what: 'product, module and activity' },
+    { table: p.transport, key: ['product_id', 'module', 'line_id', 'leg'], severity: 'warning', what: 'product, module, line and leg' },
+  ];
+  for (const rule of rules) {
+    const seen = new Map<string, number>();
+    for (const row of rule.table.written) {
+      const parts = rule.key.map((column) => (row.raw[column] ?? '').trim());
+      if (parts[0] === '' || (rule.key.length > 1 && parts[rule.key.length - 1] === '' && rule.table !== p.transport)) continue;
+      const key = parts.join('\u0000');
+      const first = seen.get(key);
+      if (first === undefined) {
+        seen.set(key, row.line);
+        continue;
+      }
+      const column = rule.key[rule.key.length - 1]!;
+      ctx.at(rule.table, row.line, row.raw, column, rule.severity, 'DUPLICATE_ID', `repeats the ${rule.what} of line ${first}`, { expected: `a ${rule.what} not used before`, hint: `first defined on line ${first}` });
+    }
+  }
+}
+
+function references(ctx: CheckContext): void {
+  const p = ctx.project;
+  const productIds = ctx.ids(p.products, 'product_id');
+  const materialIds = ctx.ids(p.materials, 'material');
+  const scenarios = ctx.ids(p.eol, 'scenario');
+  const factorIds = ctx.ids(p.factors, 'factor_id');
+
+  const check = (table: AnyTable, row: { line: number; raw: Record<string, string> }, column: string, value: string | undefined, known: Set<string>, target: string, extraKnown: readonly string[] = []) => {
+    if (value === undefined || known.has(value) || extraKnown.includes(value)) return;
+    const near = nearestName(value, [...known, ...extraKnown]);
+    ctx.at(table, row.line, row.raw, column, 'error', 'UNKNOWN_REFERENCE', `is not a ${target}`, {
+      expected: `an existing ${target}`,
+      ...(near ? { hint: `did you mean "${near}"?` } : {}),
+    });
+  };
+
+  for (const row of p.products.rows) check(p.products, row, 'eol_scenario', row.value.eol_scenario, scenarios, 'scenario in eol.csv');
+  for (const row of p.bom.rows) {
+    check(p.bom, row, 'product_id', row.value.product_id, productIds, 'product_id in products.csv');
+    check(p.bom, row, 'material', row.value.material, materialIds, 'material in materials.csv');
+  }
+  for (const row of p.materials.rows) {
+    for (const column of ['virgin', 'recycled', 'eol_recycling', 'substituted', 'landfill', 'incineration'] as const) {
+      check(p.materials, row, column, row.value[column], factorIds, 'factor_id in factors.csv');
+    }
+  }
+  for (const row of p.eol.rows) {
+    if (row.value.material !== '*') check(p.eol, row, 'material', row.value.material, materialIds, 'material in materials.csv (or *)');
+    check(p.eol, row, 'transport_factor', row.value.transport_factor, factorIds, 'factor_id in factors.csv');
+    check(p.eol, row, 'processing_factor', row.value.processing_factor, factorIds, 'factor_id in factors.csv');
+  }
+  for (const row of p.activities.rows) {
+    check(p.activities, row, 'product_id', row.value.product_id, productIds, 'product_id in products.csv');
+    const factor = row.value.factor;
+    if (factor.startsWith(GHG_PREFIX)) {
+      if (!findGas(factor)) {
+        const near = nearestName(factor, GHG_FACTOR_IDS);
+        ctx.at(p.activities, row.line, row.raw, 'factor', 'error', 'UNKNOWN_REFERENCE', 'is not a built-in greenhouse gas', {
+          expected: `one of ${GHG_FACTOR_IDS.join(', ')}`,
+          ...(near ? { hint: `did you mean "${near}"?` } : {}),
+        });
+      }
+    } else {
+      check(p.activities, row, 'factor', factor, factorIds, 'factor_id in factors.csv');
+    }
+  }
+  const linesByProduct = new Map<string, Set<string>>();
+  for (const row of p.bom.written) {
+    const product = (row.raw.product_id ?? '').trim();
+    const line = (row.raw.line_id ?? '').trim();
+    if (!linesByProduct.has(product)) linesByProduct.set(product, new Set());
+    if (line) linesByProduct.get(product)!.add(line);
+  }
+  for (const row of p.transport.rows) {
+    check(p.transport, row, 'product_id', row.value.product_id, productIds, 'product_id in products.csv');
+    check(p.transport, row, 'factor', row.value.factor, factorIds, 'factor_id in factors.csv');
+    if (row.value.line_id !== undefined && productIds.has(row.value.product_id)) {
+      check(p.transport, row, 'line_id', row.value.line_id, linesByProduct.get(row.value.product_id) ?? new Set(), `line_id of product ${row.value.product_id} in bom.csv`);
+    }
+  }
+}
+
+/** EN 15804+A2 declares per declared unit: the BOM must add up to it. */
+const UNIT_MASS_TOLERANCE = 0.01;
+
+function productRules(ctx: CheckContext): void {
+  const p = ctx.project;
+  const writtenLines = new Map<string, number>();
+  for (const row of p.bom.written) {
+    const product = (row.raw.product_id ?? '').trim();
+    writtenLines.set(product, (writtenLines.get(product) ?? 0) + 1);
+  }
+  const validLines = new Map<string, typeof p.bom.rows>();
+  for (const row of p.bom.rows) {
+    const list = validLines.get(row.value.product_id) ?? [];
+    list.push(row);
+    validLines.set(row.value.product_id, list);
+  }
+  const scenarioMaterials = new Map<string, Set<string>>();
+  for (const row of p.eol.written) {
+    const scenario = (row.raw.scenario ?? '').trim();
+    if (!scenarioMaterials.has(scenario)) scenarioMaterials.set(scenario, new Set());
+    scenarioMaterials.get(scenario)!.add((row.raw.material ?? '').trim());
+  }
+
+  for (const productRow of p.products.rows) {
+    const product = productRow.value;
+    const lines = validLines.get(product.product_id) ?? [];
+    const complete = lines.length === (writtenLines.get(product.product_id) ?? 0);
+    const productLines = lines.filter((line) => line.value.role === 'product');
+    if (complete && productLines.length === 0) {
+      ctx.at(p.products, productRow.line, productRow.raw, 'product_id', 'error', 'NO_BOM_LINES', 'has no product-role lines in bom.csv', { expected: 'at least one bom.csv line with role product' });
+      continue;
+    }
+    if (complete) {
+      const sum = productLines.reduce((total, line) => total + line.value.mass_kg, 0);
+      const deviation = Math.abs(sum - product.unit_mass_kg) / product.unit_mass_kg;
+      if (deviation > UNIT_MASS_TOLERANCE) {
+        ctx.at(p.products, productRow.line, productRow.raw, 'unit_mass_kg', 'error', 'UNIT_MASS_MISMATCH',
+          `differs from the sum of its product-role BOM masses, ${formatKg(sum)} kg (bom.csv lines ${productLines.map((l) => l.line).join(', ')}), by ${(deviation * 100).toFixed(1)} %`,
+          { expected: `within 1 % of ${formatKg(sum)} kg` });
+      }
+    }
+    const covered = scenarioMaterials.get(product.eol_scenario);
+    if (covered && !covered.has('*')) {
+      const missing = [...new Set(productLines.map((line) => line.value.material))].filter((material) => !covered.has(material));
+      for (const material of missing) {
+        ctx.at(p.products, productRow.line, productRow.raw, 'eol_scenario', 'error', 'EOL_SCENARIO_GAP', `has no eol.csv row for material ${material} and no * row`, { expected: `an eol.csv row with scenario ${product.eol_scenario} and material ${material} or *` });
+      }
+    }
+  }
+}
+
+const formatKg = (kg: number) => String(Math.round(kg * 1e6) / 1e6);
+
+/** A material used in a way that needs a factor its row leaves empty. */
+function factorRequirements(ctx: CheckContext): void {
+  const p = ctx.project;
+  const reported = new Set<string>();
+  const need = (materialId: string, column: keyof Material, because: string) => {
+    const material = ctx.material(materialId);
+    if (!material || material.value[column] !== undefined || (column === 'substituted')) return;
+    const key = `${materialId}\u0000${String(column)}`;
+    if (reported.has(key)) return;
+    reported.add(key);
+    ctx.at(p.materials, material.line, material.raw, String(column), 'error', 'FACTOR_REQUIRED', `is empty, but ${because}`, { expected: 'a factor_id in factors.csv' });
+  };
+  const scenarioRows = new Map<string, Map<string, (typeof p.eol.rows)[number]>>();
+  for (const row of p.eol.rows) {
+    if (!scenarioRows.has(row.value.scenario)) scenarioRows.set(row.value.scenario, new Map());
+    scenarioRows.get(row.value.scenario)!.set(row.value.material, row);
+  }
+  const productsById = new Map(p.products.rows.map((row) => [row.value.product_id, row.value]));
+  for (const line of p.bom.rows) {
+    const where = `bom.csv line ${line.line}`;
+    const b = line.value;
+    if (b.recycled_pre + b.recycled_post > 0) need(b.material, 'recycled', `${where} has recycled content`);
+    if (b.scrap_rate > 0 && b.scrap_fate === 'landfill') need(b.material, 'landfill', `${where} sends its process scrap to landfill`);
+    if (b.scrap_rate > 0 && b.scrap_fate === 'incineration') need(b.material, 'incineration', `${where} sends its process scrap to incineration`);
+    if (b.scrap_rate > 0 && b.scrap_fate === 'recycled') need(b.material, 'eol_recycling', `${where} sends process scrap to recycling (module D)`);
+    const product = productsById.get(b.product_id);
+    if (!product || b.role !== 'product') continue;
+    const scenario = scenarioRows.get(product.eol_scenario);
+    const eolRow = scenario?.get(b.material) ?? scenario?.get('*');
+    if (!eolRow) continue;
+    const route = `eol.csv line ${eolRow.line} sends it`;
+    if (eolRow.value.recycling > 0) need(b.material, 'eol_recycling', `${route} to recycling (module D)`);
+    if (eolRow.value.landfill > 0) need(b.material, 'landfill', `${route} to landfill`);
+    if (eolRow.value.incineration > 0) need(b.material, 'incineration', `${route} to incineration`);
+  }
+}
+
+function unitRules(ctx: CheckContext): void {
+  const p = ctx.project;
+  const perUnitOf = (table: AnyTable, row: { line: number; raw: Record<string, string> }, column: string, factorId: string | undefined, dimension: Dimension, what: string) => {
+    const factor = ctx.factor(factorId);
+    if (!factor) return;
+    if (dimensionOf(factor.value.unit) !== dimension) {
+      ctx.at(table, row.line, row.raw, column, 'error', 'UNIT_MISMATCH', `names factor ${factorId} (factors.csv line ${factor.line}), which is per ${factor.value.unit}; ${what} needs a factor per ${unitsOf(dimension).join(' or ')}`, {
+        expected: `a factor per ${unitsOf(dimension).join(' or ')}`,
+      });
+    }
+  };
+  for (const row of p.materials.rows) {
+    for (const column of ['virgin', 'recycled', 'eol_recycling', 'substituted', 'landfill', 'incineration'] as const) {
+      perUnitOf(p.materials, row, column, row.value[column], 'mass', 'a material');
+    }
+  }
+  for (const row of p.eol.rows) {
+    perUnitOf(p.eol, row, 'transport_factor', row.value.transport_factor, 'transport', 'C2 transport');
+    perUnitOf(p.eol, row, 'processing_factor', row.value.processing_factor, 'mass', 'waste processing');
+  }
+  for (const row of p.transport.rows) perUnitOf(p.transport, row, 'factor', row.value.factor, 'transport', 'a transport leg');
+  for (const row of p.activities.rows) {
+    const { factor: factorId, unit } = row.value;
+    if (factorId.startsWith(GHG_PREFIX)) {
+      if (findGas(factorId) && dimensionOf(unit) !== 'mass') {
+        ctx.at(p.activities, row.line, row.raw, 'unit', 'error', 'UNIT_MISMATCH', `is not a mass; ${factorId} is characterised per kg of gas emitted`, { expected: 'a mass unit: g, kg or t' });
+      }
+      continue;
+    }
+    const factor = ctx.factor(factorId);
+    if (factor && !convertible(unit, factor.value.unit)) {
+      ctx.at(p.activities, row.line, row.raw, 'unit', 'error', 'UNIT_MISMATCH', `cannot be converted to ${factor.value.unit}, the unit of factor ${factorId} (factors.csv line ${factor.line})`, {
+        expected: `a unit of ${dimensionOf(factor.value.unit) ?? factor.value.unit}: ${unitsOf(dimensionOf(factor.value.unit) ?? 'mass').join(', ')}`,
+      });
+    }
+  }
+}
+
+/** Factor ids the project uses, with the first place each is used. */
+function usedFactors(ctx: CheckContext): Map<string, string> {
+  const p = ctx.project;
+  const used = new Map<string, string>();
+  const use = (id: string | undefined, where: string) => {
+    if (id !== undefined && !used.has(id)) used.set(id, where);
+  };
+  const materialIds = new Set(p.bom.rows.map((row) => row.value.material));
+  for (const row of p.materials.rows) {
+    if (!materialIds.has(row.value.material)) continue;
+    for (const column of ['virgin', 'recycled', 'eol_recycling', 'substituted', 'landfill', 'incineration'] as const) use(row.value[column], `materials.csv line ${row.line}`);
+  }
+  for (const row of p.eol.rows) {
+    use(row.value.transport_factor, `eol.csv line ${row.line}`);
+    use(row.value.processing_factor, `eol.csv line ${row.line}`);
+  }
+  for (const row of p.activities.rows) use(row.value.factor, `activities.csv line ${row.line}`);
+  for (const row of p.transport.rows) use(row.value.factor, `transport.csv line ${row.line}`);
+  return used;
+}
+
+function factorCompleteness(ctx: CheckContext): void {
+  const p = ctx.project;
+  const present = new Set(p.factorIndicators);
+  const asked = p.indicators.filter((code) => findIndicator(code)?.basis === 'factors');
+  if (p.declaration.indicators) {
+    for (const code of asked) {
+      if (present.has(code)) continue;
+      const where = locate(p.declarationFile, ['indicators', p.declaration.indicators.indexOf(code)]);
+      p.declaration.indicators.indexOf(code);
+      ctx.problems.push({
+        severity: 'warning', code: 'INDICATOR_NO_DATA', file: p.declarationFile.file, line: where.line, column: 'indicators', columnIndex: where.column, value: code,
+        message: `is asked for, but factors.csv has no ${code} column; every ${code} figure will be incomplete`,
+        expected: `a ${code} column in factors.csv`,
+      });
+    }
+  }
+  const used = usedFactors(ctx);
+  for (const row of p.factors.rows) {
+    const where = used.get(row.value.factor_id);
+    if (!where) continue;
+    const values = row.value as Record<string, unknown>;
+    const missing = asked.filter((code) => present.has(code) && (values[code] === null || values[code] === undefined));
+    if (missing.length === 0) continue;
+    const first = missing[0]!;
+    ctx.at(p.factors, row.line, row.raw, first, 'warning', 'FACTOR_VALUE_MISSING',
+      `factor ${row.value.factor_id} (used by ${where}) has no value for ${missing.join(', ')}; figures using it will be marked incomplete`,
+      { value: row.raw[first] ?? '', expected: 'a number (an empty cell means "not available", never 0)' });
+  }
+}
+
+function provenanceWarnings(ctx: CheckContext): void {
+  const p = ctx.project;
+  for (const table of [p.bom, p.activities, p.transport] as AnyTable[]) {
+    for (const row of table.rows as Array<Row<{ source?: string }>>) {
+      if (row.value.source === undefined) {
+        ctx.at(table, row.line, row.raw, 'source', 'warning', 'SOURCE_MISSING', 'is empty: a verifier will ask where this figure comes from', { value: row.raw.source ?? '', expected: 'a document, meter or supplier declaration' });
+      }
+    }
+  }
+  for (const row of p.materials.rows) {
+    if ((row.value.family === 'wood' || row.value.family === 'paper') && row.value.biogenic_c_kg_per_kg === null) {
+      ctx.at(p.materials, row.line, row.raw, 'biogenic_c_kg_per_kg', 'warning', 'BIOGENIC_CARBON_MISSING', `is empty for a ${row.value.family} material; EN 15804+A2 declares the biogenic carbon content of product and packaging`, {
+        value: row.raw.biogenic_c_kg_per_kg ?? '', expected: 'kg C per kg (wood: 0.5 of dry mass, EN 16449)',
+      });
+    }
+  }
+}
+
+function declarationRules(ctx: CheckContext): void {
+  const { declaration, declarationFile } = ctx.project;
+  const issued = new Date(`${declaration.issued}T00:00:00Z`);
+  const limit = new Date(Date.UTC(issued.getUTCFullYear() + 5, issued.getUTCMonth(), issued.getUTCDate()));
+  if (new Date(`${declaration.valid_until}T00:00:00Z`) > limit) {
+    const where = locate(declarationFile, ['valid_until']);
+    ctx.problems.push({
+      severity: 'warning', code: 'VALIDITY_LONG', file: declarationFile.file, line: where.line, column: 'valid_until', columnIndex: where.column, value: declaration.valid_until,
+      message: `is more than five years after issued (${declaration.issued}); EN 15804 and ISO 14025 practice is five years`,
+      expected: `at most ${limit.toISOString().slice(0, 10)}`,
+    });
+  }
+}

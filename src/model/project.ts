@@ -1,0 +1,149 @@
+import path from 'node:path';
+import { loadCsv, type CsvFile } from '../load/csv.ts';
+import { loadJson, locate, jsonPath, type JsonFile } from '../load/json.ts';
+import { sortProblems, type Problem } from '../problems.ts';
+import { FACTOR_INDICATOR_CODES, findIndicator, inReportingOrder } from '../reference/indicators.ts';
+import { CSV_FILES, DECLARATION_FILE, productsCsv, bomCsv, materialsCsv, eolCsv, activitiesCsv, transportCsv, factorsCsv } from '../schema/index.ts';
+import { declarationSchema, DECLARATION_KEYS, type Declaration } from '../schema/declaration.ts';
+import type { RowOf } from '../schema/csv-file.ts';
+import { describeIssue } from '../schema/issues.ts';
+import { parseTable, indicatorHeaderName, type Table } from '../schema/table.ts';
+import { nearestName } from '../reference/nearest.ts';
+import { crossFileChecks } from './checks.ts';
+
+export type Product = RowOf<typeof productsCsv>;
+export type BomLine = RowOf<typeof bomCsv>;
+export type Material = RowOf<typeof materialsCsv>;
+export type EolRow = RowOf<typeof eolCsv>;
+export type Activity = RowOf<typeof activitiesCsv>;
+export type TransportLeg = RowOf<typeof transportCsv>;
+export type FactorRow = RowOf<typeof factorsCsv>;
+
+/** The validated project: every table with its rows' provenance, and the declaration. */
+export interface Project {
+  dir: string;
+  declaration: Declaration;
+  declarationFile: JsonFile;
+  /** Indicator codes the declaration reports, in EN 15804+A2 order. */
+  indicators: string[];
+  /** Indicator codes that factors.csv has a column for. */
+  factorIndicators: string[];
+  products: Table<Product>;
+  bom: Table<BomLine>;
+  materials: Table<Material>;
+  eol: Table<EolRow>;
+  activities: Table<Activity>;
+  transport: Table<TransportLeg>;
+  factors: Table<FactorRow>;
+}
+
+export interface ProjectLoad {
+  /** Present when the project has no errors (warnings allowed). */
+  project?: Project;
+  problems: Problem[];
+}
+
+const FLOW_COLUMN_REASON = 'is computed from the product’s mass flows (EN 15804+A2), not read from factors.csv; the column is ignored';
+
+/** Reads, parses and cross-checks a data folder; every problem of every file in one pass. */
+export async function loadProject(dirArgument: string): Promise<ProjectLoad> {
+  const dir = path.resolve(dirArgument);
+  const problems: Problem[] = [];
+
+  const [declarationLoad, ...csvLoads] = await Promise.all([loadJson(dir, DECLARATION_FILE), ...CSV_FILES.map((schema) => loadCsv(dir, schema.file))]);
+  const csv = new Map<string, CsvFile>();
+  csvLoads.forEach((load, index) => {
+    problems.push(...load.problems);
+    if (load.ok) csv.set(CSV_FILES[index]!.file, load.csv);
+  });
+
+  let declaration: Declaration | undefined;
+  let declarationFile: JsonFile | undefined;
+  if (declarationLoad.ok) {
+    declarationFile = declarationLoad.json;
+    const parsed = parseDeclaration(declarationLoad.json);
+    problems.push(...parsed.problems);
+    declaration = parsed.declaration;
+  } else {
+    problems.push(...declarationLoad.problems);
+  }
+
+  const tableOf = <S extends (typeof CSV_FILES)[number]>(schema: S, options = {}) => {
+    const file = csv.get(schema.file);
+    if (!file) return undefined;
+    const { table, problems: found } = parseTable(file, schema, options);
+    problems.push(...found);
+    return table;
+  };
+  const products = tableOf(productsCsv);
+  const bom = tableOf(bomCsv);
+  const materials = tableOf(materialsCsv);
+  const eol = tableOf(eolCsv);
+  const activities = tableOf(activitiesCsv);
+  const transport = tableOf(transportCsv);
+  const factors = tableOf(factorsCsv, {
+    canonicalName: indicatorHeaderName,
+    ignored: (name: string) => (findIndicator(name)?.basis === 'flows' ? `${name} ${FLOW_COLUMN_REASON}` : undefined),
+  });
+
+  const factorIndicators = factors ? inReportingOrder(Object.keys(factors.columns).filter((name) => FACTOR_INDICATOR_CODES.includes(name))) : [];
+  const indicators = declaration?.indicators ? inReportingOrder(declaration.indicators) : factorIndicators;
+
+  if (declaration && products && bom && materials && eol && activities && transport && factors && declarationFile) {
+    const project: Project = { dir, declaration, declarationFile, indicators, factorIndicators, products, bom, materials, eol, activities, transport, factors };
+    problems.push(...crossFileChecks(project));
+    const sorted = sortProblems(problems);
+    return sorted.some((p) => p.severity === 'error') ? { problems: sorted } : { project, problems: sorted };
+  }
+  return { problems: sortProblems(problems) };
+}
+
+function parseDeclaration(json: JsonFile): { declaration?: Declaration; problems: Problem[] } {
+  const problems: Problem[] = [...unknownKeys(json)];
+  const result = declarationSchema.safeParse(json.value);
+  if (result.success) return { declaration: result.data, problems };
+  for (const issue of result.error.issues) {
+    const described = describeIssue(issue);
+    const where = locate(json, issue.path as (string | number)[]);
+    const value = where.node ? json.text.slice(where.node.offset, where.node.offset + where.node.length) : undefined;
+    problems.push({
+      severity: 'error',
+      code: described.code,
+      file: json.file,
+      line: where.line,
+      column: jsonPath(issue.path) || '(document)',
+      columnIndex: where.column,
+      ...(value === undefined ? {} : { value }),
+      message: described.message,
+      ...(described.expected ? { expected: described.expected } : {}),
+      ...(described.hint ? { hint: described.hint } : {}),
+    });
+  }
+  return { problems };
+}
+
+function unknownKeys(json: JsonFile): Problem[] {
+  const problems: Problem[] = [];
+  const visit = (value: unknown, at: (string | number)[], schemaKey: string) => {
+    const known = DECLARATION_KEYS[schemaKey];
+    if (!known || value === null || typeof value !== 'object' || Array.isArray(value)) return;
+    for (const key of Object.keys(value)) {
+      const keyPath = [...at, key];
+      if (!known.includes(key)) {
+        const where = locate(json, keyPath);
+        const near = nearestName(key, known);
+        problems.push({
+          severity: 'warning', code: 'KEY_UNKNOWN', file: json.file, line: where.line, column: jsonPath(keyPath), columnIndex: where.column, value: key,
+          message: 'is not a key loopsheet knows and is ignored',
+          ...(near ? { hint: `did you mean "${near}"?` } : {}),
+        });
+        continue;
+      }
+      const child = (value as Record<string, unknown>)[key];
+      if (Array.isArray(child)) child.forEach((item, index) => visit(item, [...keyPath, index], `${key}[]`));
+      else visit(child, keyPath, schemaKey === '' ? key : `${schemaKey}.${key}`);
+    }
+  };
+  visit(json.value, [], '');
+  return problems;
+}

@@ -1,0 +1,92 @@
+/**
+ * The one error type. Every problem with the input is data: a stable code, where it is
+ * (file, physical line, column), the value as written and what was expected. Codes are a
+ * public contract (tests and users' CI match on them): add codes, never rename one.
+ */
+export type Severity = 'error' | 'warning';
+
+export const PROBLEM_CODES = {
+  FILE_MISSING: 'a required input file is not in the data folder',
+  FILE_UNREADABLE: 'the file could not be read or is not UTF-8 text',
+  CSV_SYNTAX: 'the CSV cannot be parsed (for example an unclosed quote)',
+  JSON_SYNTAX: 'declaration.json is not valid JSON',
+  NO_ROWS: 'a file that must have rows has none',
+  COLUMN_MISSING: 'a required column is not in the header',
+  COLUMN_DUPLICATE: 'two header cells name the same column',
+  COLUMN_UNKNOWN: 'a header cell that loopsheet does not know (ignored); the nearest known name is suggested',
+  COLUMN_IGNORED: 'a known column that is not read from this file (for example a flow indicator in factors.csv)',
+  FIELD_COUNT: 'a row has more fields than the header',
+  KEY_UNKNOWN: 'a key in declaration.json that loopsheet does not know (ignored)',
+  VALUE_REQUIRED: 'a required cell or key is empty',
+  NOT_A_NUMBER: 'a cell that must hold a number does not',
+  THOUSANDS_SEPARATOR: 'a number is written with a thousands separator (or ambiguously)',
+  NEGATIVE_VALUE: 'a quantity that cannot be negative is negative',
+  OUT_OF_RANGE: 'a number or share is outside its allowed range',
+  BAD_CHOICE: 'a cell holds a value that is not one of the allowed choices',
+  BAD_ID: 'an identifier has characters that are not allowed',
+  BAD_DATE: 'a date is not an ISO date (YYYY-MM-DD)',
+  BAD_UNIT: 'a unit that loopsheet does not know',
+  UNIT_MISMATCH: 'a unit that cannot be converted to the unit the value is used in',
+  DUPLICATE_ID: 'the same identifier is defined twice',
+  UNKNOWN_REFERENCE: 'a reference to an id that does not exist; the nearest existing id is suggested',
+  RECYCLED_CONTENT_SUM: 'recycled_pre + recycled_post exceeds 1',
+  EOL_SHARES_SUM: 'end-of-life shares do not sum to 1 (tolerance 1e-6)',
+  EOL_SCENARIO_GAP: 'a product material has no end-of-life row (neither its own nor `*`)',
+  UNIT_MASS_MISMATCH: 'product-role BOM masses differ from unit_mass_kg by more than 1 %',
+  NO_BOM_LINES: 'a product has no product-role BOM lines',
+  FACTOR_REQUIRED: 'a material is used in a way that needs a factor its row does not name',
+  FACTOR_VALUE_MISSING: 'a factor row used by the project has no value for an indicator the declaration reports',
+  INDICATOR_NO_DATA: 'an indicator the declaration asks for has no column in factors.csv',
+  INDICATOR_UNKNOWN: 'an indicator code that is not in the EN 15804+A2 registry',
+  DATE_ORDER: 'valid_until is not after issued',
+  VALIDITY_LONG: 'the validity period is longer than five years (EN 15804 / ISO 14025 practice)',
+  VERIFICATION_INCOMPLETE: 'a verified declaration lacks its verifier or date',
+  SOURCE_MISSING: 'a row has no source (where the figure comes from)',
+  BIOGENIC_CARBON_MISSING: 'a wood or paper material has no biogenic carbon content',
+} as const satisfies Record<string, string>;
+
+export type ProblemCode = keyof typeof PROBLEM_CODES;
+
+export interface Problem {
+  severity: Severity;
+  code: ProblemCode;
+  /** File name relative to the data folder, e.g. `bom.csv`. */
+  file: string;
+  /** Physical line in the file, 1-based (the header is line 1 when nothing precedes it). */
+  line?: number;
+  /** Column name as loopsheet knows it (or the JSON path in declaration.json). */
+  column?: string;
+  /** 1-based position of the column in the header (or the character column in JSON). */
+  columnIndex?: number;
+  /** The value exactly as written. */
+  value?: string;
+  /** What was expected, in words ("a number in kg"). */
+  expected?: string;
+  /** A human sentence: what is wrong. */
+  message: string;
+  /** A suggestion, such as the nearest known name. */
+  hint?: string;
+}
+
+/** `bom.csv:14: mass_kg "12,5kg": expected a number in kg` */
+export function formatProblem(problem: Problem): string {
+  const where = problem.line === undefined ? problem.file : `${problem.file}:${problem.line}`;
+  const column = problem.column === undefined ? '' : ` ${problem.column}`;
+  const value = problem.value === undefined ? '' : ` ${JSON.stringify(problem.value)}`;
+  const hint = problem.hint ? ` (${problem.hint})` : '';
+  return `${problem.severity} ${where}:${column}${value}: ${problem.message}${hint} [${problem.code}]`;
+}
+
+/** Stable order: by file, then line, then column position, then code. */
+export function sortProblems(problems: Problem[]): Problem[] {
+  return [...problems].sort(
+    (a, b) =>
+      a.file.localeCompare(b.file) ||
+      (a.line ?? 0) - (b.line ?? 0) ||
+      (a.columnIndex ?? 0) - (b.columnIndex ?? 0) ||
+      a.code.localeCompare(b.code) ||
+      a.message.localeCompare(b.message),
+  );
+}
+
+export const hasErrors = (problems: readonly Problem[]): boolean => problems.some((p) => p.severity === 'error');

@@ -1,0 +1,260 @@
+import { z } from 'zod';
+import type { ProblemCode } from '../problems.ts';
+import { nearestName } from '../reference/nearest.ts';
+import { canonicalUnit, KNOWN_UNITS, unitsOf, dimensionOf, type Dimension } from '../reference/units.ts';
+import { readNumber, readShare, type Dialect } from './numbers.ts';
+
+/**
+ * Cell schemas: each turns the text of one CSV cell (or undefined when the column is
+ * absent) into a typed value, or adds an issue whose `params` carry the stable problem
+ * code and what was expected. The metadata (`meta`) is what `loopsheet schema` and the
+ * column reference are generated from.
+ */
+export interface CellMeta {
+  description: string;
+  kind: 'text' | 'id' | 'reference' | 'number' | 'share' | 'choice' | 'date' | 'unit';
+  required: boolean;
+  unit?: string;
+  default?: string | number;
+  choices?: readonly string[];
+  references?: string;
+  [key: string]: unknown;
+}
+
+export interface IssueParams {
+  problem: ProblemCode;
+  expected: string;
+  hint?: string;
+}
+
+type Ctx = z.RefinementCtx;
+
+export function report(ctx: Ctx, problem: ProblemCode, message: string, expected: string, hint?: string): typeof z.NEVER {
+  const params: IssueParams = { problem, expected, ...(hint ? { hint } : {}) };
+  ctx.addIssue({ code: 'custom', message, params });
+  return z.NEVER;
+}
+
+/** The same, for a row-level rule, on the column the rule is reported against. */
+export function reportAt(ctx: Ctx, column: string, problem: ProblemCode, message: string, expected: string): void {
+  const params: IssueParams = { problem, expected };
+  ctx.addIssue({ code: 'custom', message, params, path: [column] });
+}
+
+const isBlank = (raw: string | undefined): raw is undefined => raw === undefined || raw.trim() === '';
+
+const cell = () => z.string().optional();
+
+function withMeta<T extends z.ZodType>(schema: T, meta: CellMeta): T {
+  return schema.meta(meta) as T;
+}
+
+export function text(description: string, options: { required?: boolean } = {}) {
+  const required = options.required ?? false;
+  return withMeta(
+    cell().transform((raw, ctx) => {
+      if (isBlank(raw)) return required ? report(ctx, 'VALUE_REQUIRED', 'is empty', 'text') : undefined;
+      return raw.trim();
+    }),
+    { description, kind: 'text', required },
+  );
+}
+
+export function requiredText(description: string) {
+  return withMeta(
+    cell().transform((raw, ctx): string => {
+      if (isBlank(raw)) return report(ctx, 'VALUE_REQUIRED', 'is empty', 'text');
+      return raw.trim();
+    }),
+    { description, kind: 'text', required: true },
+  );
+}
+
+const ID = /^[A-Za-z0-9][A-Za-z0-9._:+\-/]*$/;
+/** Product ids name output folders, so they stay to characters safe in any path. */
+const PATH_SAFE_ID = /^[A-Za-z0-9][A-Za-z0-9._-]*$/;
+
+function idCell(description: string, kind: 'id' | 'reference', pattern: RegExp, expected: string, references?: string) {
+  return withMeta(
+    cell().transform((raw, ctx): string => {
+      if (isBlank(raw)) return report(ctx, 'VALUE_REQUIRED', 'is empty', expected);
+      const value = raw.trim();
+      if (!pattern.test(value)) return report(ctx, 'BAD_ID', 'is not a valid identifier', expected);
+      return value;
+    }),
+    { description, kind, required: true, ...(references ? { references } : {}) },
+  );
+}
+
+export const id = (description: string) =>
+  idCell(description, 'id', ID, 'an identifier: letters, digits and . _ - : + / , starting with a letter or digit');
+export const productId = (description: string) =>
+  idCell(description, 'id', PATH_SAFE_ID, 'an identifier of letters, digits, ".", "_" and "-", starting with a letter or digit (it names a folder in the output)');
+/** A reference that may also be `*`, "every other" (eol.csv material). */
+export const referenceOrWildcard = (description: string, references: string) =>
+  idCell(description, 'reference', /^(?:\*|[A-Za-z0-9][A-Za-z0-9._:+\-/]*)$/, `the id of a row in ${references}, or *`, references);
+export const reference = (description: string, references: string) =>
+  idCell(description, 'reference', ID, `the id of a row in ${references}`, references);
+
+export function optionalReference(description: string, references: string) {
+  return withMeta(
+    cell().transform((raw, ctx): string | undefined => {
+      if (isBlank(raw)) return undefined;
+      const value = raw.trim();
+      if (!ID.test(value)) return report(ctx, 'BAD_ID', 'is not a valid identifier', `the id of a row in ${references}`);
+      return value;
+    }),
+    { description, kind: 'reference', required: false, references },
+  );
+}
+
+interface QuantityOptions {
+  required?: boolean;
+  default?: number;
+  /** Zero is not a meaningful value (a declared unit's mass). */
+  positive?: boolean;
+  /** Values may be negative (credits); off by default. */
+  signed?: boolean;
+}
+
+function quantityIssue(value: number, options: QuantityOptions, expected: string, ctx: Ctx): boolean {
+  if (!options.signed && value < 0) {
+    report(ctx, 'NEGATIVE_VALUE', 'is negative', expected);
+    return false;
+  }
+  if (options.positive && value <= 0) {
+    report(ctx, 'OUT_OF_RANGE', 'must be greater than zero', expected);
+    return false;
+  }
+  return true;
+}
+
+/** A number in a stated unit. Empty is "not given": undefined, or the default. */
+export function quantity(dialect: Dialect, description: string, unit: string, options: QuantityOptions = {}) {
+  const required = options.required ?? options.default === undefined;
+  const expected = `a${options.positive ? ' positive' : options.signed ? '' : ' non-negative'} number in ${unit}`;
+  return withMeta(
+    cell().transform((raw, ctx): number => {
+      if (isBlank(raw)) {
+        if (options.default !== undefined) return options.default;
+        return report(ctx, 'VALUE_REQUIRED', 'is empty', expected);
+      }
+      const read = readNumber(raw, dialect);
+      if (!read.ok) return report(ctx, read.code, `expected ${expected}: ${read.reason}`, expected);
+      if (!quantityIssue(read.value, options, expected, ctx)) return z.NEVER;
+      return read.value;
+    }),
+    { description, kind: 'number', required, unit, ...(options.default === undefined ? {} : { default: options.default }) },
+  );
+}
+
+/** A number that may be absent: an empty cell means "not available", never 0. */
+export function optionalQuantity(dialect: Dialect, description: string, unit: string, options: QuantityOptions = {}) {
+  const expected = `a${options.signed ? '' : ' non-negative'} number in ${unit}, or empty for "not available"`;
+  return withMeta(
+    cell().transform((raw, ctx): number | null => {
+      if (isBlank(raw)) return null;
+      const read = readNumber(raw, dialect);
+      if (!read.ok) return report(ctx, read.code, `expected ${expected}: ${read.reason}`, expected);
+      if (!quantityIssue(read.value, options, expected, ctx)) return z.NEVER;
+      return read.value;
+    }),
+    { description, kind: 'number', required: false, unit },
+  );
+}
+
+interface ShareOptions {
+  default?: number;
+  /** The share may not reach 1 (a scrap rate of 100 % leaves no product). */
+  belowOne?: boolean;
+}
+
+/** A share between 0 and 1, written as a fraction (0.35) or a percentage (35%). */
+export function share(dialect: Dialect, description: string, options: ShareOptions = {}) {
+  const expected = options.belowOne ? 'a share from 0 to below 1 (0.35 or 35%)' : 'a share from 0 to 1 (0.35 or 35%)';
+  const required = options.default === undefined;
+  return withMeta(
+    cell().transform((raw, ctx): number => {
+      if (isBlank(raw)) {
+        if (options.default !== undefined) return options.default;
+        return report(ctx, 'VALUE_REQUIRED', 'is empty', expected);
+      }
+      const read = readShare(raw, dialect);
+      if (!read.ok) return report(ctx, read.code, `expected ${expected}: ${read.reason}`, expected);
+      const value = read.value;
+      if (value < 0 || value > 1 || (options.belowOne && value >= 1)) {
+        return report(ctx, 'OUT_OF_RANGE', `is outside ${options.belowOne ? '0 ≤ x < 1' : '0–1'}`, expected);
+      }
+      return value;
+    }),
+    { description, kind: 'share', required, unit: 'share (0–1 or %)', ...(options.default === undefined ? {} : { default: options.default }) },
+  );
+}
+
+/** One of a fixed set of words, matched case-insensitively. */
+export function choice<const T extends readonly [string, ...string[]]>(description: string, choices: T, defaultValue?: T[number]) {
+  const expected = `one of ${choices.join(', ')}`;
+  return withMeta(
+    cell().transform((raw, ctx): T[number] => {
+      if (isBlank(raw)) {
+        if (defaultValue !== undefined) return defaultValue;
+        return report(ctx, 'VALUE_REQUIRED', 'is empty', expected);
+      }
+      const value = raw.trim().toLowerCase();
+      const found = choices.find((c) => c.toLowerCase() === value);
+      if (found === undefined) {
+        const near = nearestName(raw.trim(), choices);
+        return report(ctx, 'BAD_CHOICE', `is not ${expected}`, expected, near ? `did you mean "${near}"?` : undefined);
+      }
+      return found;
+    }),
+    { description, kind: 'choice', required: defaultValue === undefined, choices, ...(defaultValue === undefined ? {} : { default: defaultValue }) },
+  );
+}
+
+/** A unit from the unit registry, optionally of one dimension. Returns the canonical spelling. */
+export function unitCell(description: string, dimension?: Dimension) {
+  const allowed = dimension ? unitsOf(dimension) : [...KNOWN_UNITS];
+  const expected = `a unit: one of ${allowed.join(', ')}`;
+  return withMeta(
+    cell().transform((raw, ctx): string => {
+      if (isBlank(raw)) return report(ctx, 'VALUE_REQUIRED', 'is empty', expected);
+      const unit = canonicalUnit(raw);
+      if (unit === undefined) {
+        const near = nearestName(raw.trim(), allowed);
+        return report(ctx, 'BAD_UNIT', 'is not a known unit', expected, near ? `did you mean "${near}"?` : undefined);
+      }
+      if (dimension && dimensionOf(unit) !== dimension) {
+        return report(ctx, 'UNIT_MISMATCH', `is not a unit of ${dimension}`, expected);
+      }
+      return unit;
+    }),
+    { description, kind: 'unit', required: true, choices: allowed },
+  );
+}
+
+const ISO_DATE = /^(\d{4})-(\d{2})-(\d{2})$/;
+
+/** Checks an ISO calendar date, including the day of the month (2026-02-30 is refused). */
+export function isIsoDate(value: string): boolean {
+  const match = ISO_DATE.exec(value);
+  if (!match) return false;
+  const [year, month, day] = [Number(match[1]), Number(match[2]), Number(match[3])];
+  const date = new Date(Date.UTC(year, month - 1, day));
+  return date.getUTCFullYear() === year && date.getUTCMonth() === month - 1 && date.getUTCDate() === day;
+}
+
+/** A share that may be absent (undefined): the method then uses its documented default. */
+export function optionalShare(dialect: Dialect, description: string) {
+  const expected = 'a share from 0 to 1 (0.2 or 20%), or empty for the default';
+  return withMeta(
+    cell().transform((raw, ctx): number | undefined => {
+      if (isBlank(raw)) return undefined;
+      const read = readShare(raw, dialect);
+      if (!read.ok) return report(ctx, read.code, `expected ${expected}: ${read.reason}`, expected);
+      if (read.value < 0 || read.value > 1) return report(ctx, 'OUT_OF_RANGE', 'is outside 0–1', expected);
+      return read.value;
+    }),
+    { description, kind: 'share', required: false, unit: 'share (0–1 or %)' },
+  );
+}

@@ -1,0 +1,58 @@
+import { z } from 'zod';
+import type { Dialect } from './numbers.ts';
+import type { CellMeta } from './cells.ts';
+
+/**
+ * One input CSV: its name, what it is for, and the zod schema of one row. The row
+ * schema's keys are the canonical column names (the public contract); its cells carry
+ * the metadata the docs are generated from.
+ */
+export interface CsvFileSchema<Shape extends z.ZodRawShape = z.ZodRawShape> {
+  file: string;
+  purpose: string;
+  /** Built per dialect, because a semicolon file may write decimal commas. */
+  row: (dialect: Dialect) => z.ZodObject<Shape>;
+  /** A filled-in example row for `init` (written as a comment) and the docs. */
+  example: Record<string, string>;
+  /** Columns whose values together identify a row (duplicate check). */
+  key: readonly string[];
+  /** True when the project is incomplete without at least one row. */
+  needsRows: boolean;
+}
+
+export function defineCsv<Shape extends z.ZodRawShape>(definition: {
+  file: string;
+  purpose: string;
+  row: (dialect: Dialect) => z.ZodObject<Shape>;
+  example: Record<string, string>;
+  key: readonly string[];
+  needsRows?: boolean;
+}): CsvFileSchema<Shape> {
+  const cache = new Map<boolean, z.ZodObject<Shape>>();
+  return {
+    ...definition,
+    needsRows: definition.needsRows ?? false,
+    row: (dialect) => {
+      let schema = cache.get(dialect.decimalComma);
+      if (!schema) {
+        schema = definition.row(dialect);
+        cache.set(dialect.decimalComma, schema);
+      }
+      return schema;
+    },
+  };
+}
+
+export const DEFAULT_DIALECT: Dialect = { decimalComma: false };
+
+export interface ColumnInfo extends CellMeta {
+  name: string;
+}
+
+/** The columns of a file with their metadata, in contract order. */
+export function columnsOf(schema: CsvFileSchema): ColumnInfo[] {
+  const shape = schema.row(DEFAULT_DIALECT).shape;
+  return Object.entries(shape).map(([name, field]) => ({ name, ...((z.globalRegistry.get(field as z.ZodType) ?? {}) as CellMeta) }));
+}
+
+export type RowOf<S> = S extends CsvFileSchema<infer Shape> ? z.output<z.ZodObject<Shape>> : never;

@@ -1,0 +1,112 @@
+import { z } from 'zod';
+import { findIndicator, INDICATOR_CODES } from '../reference/indicators.ts';
+import { nearestName } from '../reference/nearest.ts';
+import { isIsoDate, report, reportAt } from './cells.ts';
+
+export const METHODS = ['cutoff', 'cff', 'eol-recycling', 'fifty-fifty'] as const;
+export type Method = (typeof METHODS)[number];
+
+const nonEmpty = (description: string) => z.string().trim().min(1).meta({ description });
+
+const isoDate = (description: string) =>
+  z
+    .string()
+    .refine(isIsoDate, { params: { problem: 'BAD_DATE', expected: 'an ISO date, YYYY-MM-DD' }, message: 'is not an ISO date (YYYY-MM-DD)' })
+    .meta({ description, format: 'date' });
+
+const indicatorCode = z
+  .string()
+  .transform((code, ctx) => {
+    const indicator = findIndicator(code);
+    if (!indicator) {
+      const near = nearestName(code, INDICATOR_CODES);
+      return report(ctx, 'INDICATOR_UNKNOWN', 'is not an EN 15804+A2 indicator code', 'an EN 15804+A2 indicator code such as GWP-total', near ? `did you mean "${near}"?` : undefined);
+    }
+    return indicator.code;
+  })
+  .meta({ description: 'An EN 15804+A2 indicator code (GWP-total, AP, PENRT, …).', enum: [...INDICATOR_CODES] });
+
+/**
+ * declaration.json: who declares, under which standard and PCR, for which period, and
+ * what is reported. The JSON Schema of this object is published by `loopsheet schema`.
+ */
+export const declarationSchema = z
+  .object({
+    owner: z
+      .object({
+        name: nonEmpty('Name of the manufacturer that owns the declaration.'),
+        address: z.string().optional().meta({ description: 'Postal address.' }),
+        contact: z.string().optional().meta({ description: 'Contact for questions on the declaration.' }),
+      })
+      .meta({ description: 'The declaration owner.' }),
+    standard: z.literal('EN 15804+A2').meta({ description: 'The core product category rules followed. Only "EN 15804+A2" for now.' }),
+    pcr: nonEmpty('The product category rules applied, e.g. a complementary PCR for metal products, with version.'),
+    reference_year: z.int().min(1990).max(2100).meta({ description: 'Year the inventory data represent.' }),
+    issued: isoDate('Date of issue.'),
+    valid_until: isoDate('End of validity (normally five years after issue).'),
+    verification: z
+      .object({
+        status: z.enum(['draft', 'verified']).meta({ description: 'draft until an independent verifier has verified the declaration under ISO 14025.' }),
+        verifier: z.string().optional().meta({ description: 'Name of the independent verifier (required once verified).' }),
+        date: isoDate('Date of verification (required once verified).').optional(),
+      })
+      .meta({ description: 'Verification status.' }),
+    background_data: z
+      .array(
+        z.object({
+          name: nonEmpty('Name of the background database or data source.'),
+          version: nonEmpty('Its version.'),
+          licence: z.string().optional().meta({ description: 'Licence under which it is used.' }),
+        }),
+      )
+      .min(1)
+      .meta({ description: 'Background data sources behind factors.csv.' }),
+    indicators: z
+      .array(indicatorCode)
+      .optional()
+      .meta({ description: 'Indicator codes to report; default: every code present in factors.csv, in EN 15804+A2 order.' }),
+    methods: z
+      .array(z.enum(METHODS))
+      .optional()
+      .meta({ description: 'Recycling-credit methods to report besides cut-off (always computed); default: all.' }),
+    gwp_set: z.enum(['AR6', 'AR5']).default('AR6').meta({ description: 'GWP-100 set for direct greenhouse-gas emissions (ghg:… factors).' }),
+    illustrative: z
+      .boolean()
+      .default(false)
+      .meta({ description: 'True when the data are invented (demo, training); every page then says the values are illustrative.' }),
+  })
+  .superRefine((declaration, ctx) => {
+    if (isIsoDate(declaration.issued) && isIsoDate(declaration.valid_until) && declaration.valid_until <= declaration.issued) {
+      reportAt(ctx, 'valid_until', 'DATE_ORDER', `${declaration.valid_until} is not after issued ${declaration.issued}`, 'a date after issued');
+    }
+    if (declaration.verification.status === 'verified') {
+      if (!declaration.verification.verifier?.trim()) {
+        ctx.addIssue({ code: 'custom', path: ['verification', 'verifier'], message: 'a verified declaration names its verifier', params: { problem: 'VERIFICATION_INCOMPLETE', expected: 'the verifier’s name' } });
+      }
+      if (!declaration.verification.date) {
+        ctx.addIssue({ code: 'custom', path: ['verification', 'date'], message: 'a verified declaration gives the date of verification', params: { problem: 'VERIFICATION_INCOMPLETE', expected: 'an ISO date, YYYY-MM-DD' } });
+      }
+    }
+  });
+
+export type Declaration = z.output<typeof declarationSchema>;
+
+/** The keys the schema knows, per object path, for "unknown key" warnings. */
+export const DECLARATION_KEYS: Record<string, readonly string[]> = {
+  '': ['$schema', ...Object.keys(declarationSchema.shape)],
+  owner: ['name', 'address', 'contact'],
+  verification: ['status', 'verifier', 'date'],
+  'background_data[]': ['name', 'version', 'licence'],
+};
+
+export const declarationExample = {
+  owner: { name: 'Your company', address: 'Street, town, country', contact: 'lca@example.invalid' },
+  standard: 'EN 15804+A2',
+  pcr: 'Name and version of the complementary PCR you follow',
+  reference_year: 2025,
+  issued: '2026-01-15',
+  valid_until: '2031-01-14',
+  verification: { status: 'draft' },
+  background_data: [{ name: 'Your background database', version: '1.0' }],
+  gwp_set: 'AR6',
+};

@@ -1,0 +1,46 @@
+import { z } from 'zod';
+import { id, optionalQuantity, requiredText, text, unitCell } from './cells.ts';
+import { defineCsv } from './csv-file.ts';
+import { FACTOR_INDICATOR_CODES } from '../reference/indicators.ts';
+import type { Dialect } from './numbers.ts';
+
+/** The fixed columns; one optional column per EN 15804+A2 indicator code follows. */
+function baseShape() {
+  return {
+    factor_id: id('Identifier of the factor row.'),
+    name: requiredText('What the factor is.'),
+    unit: unitCell('What one row is per: kg, t, kWh, MJ, tkm, m3, piece (and g, GJ, L and the like).'),
+    dataset: requiredText('The background dataset the values come from, with its version.'),
+    source: text('Where the row was taken from (database, EPD, supplier).'),
+  };
+}
+
+function indicatorShape(dialect: Dialect) {
+  return Object.fromEntries(
+    FACTOR_INDICATOR_CODES.map((code) => [
+      code,
+      optionalQuantity(dialect, `${code} per row unit; an empty cell means "not available" and is never read as 0.`, `indicator unit per row unit`, { signed: true }),
+    ]),
+  ) as Record<string, ReturnType<typeof optionalQuantity>>;
+}
+
+export const FACTOR_BASE_COLUMNS = Object.keys(baseShape());
+
+export const factorsCsv = defineCsv({
+  file: 'factors.csv',
+  purpose: 'Impact factors per unit of a flow, one column per EN 15804+A2 indicator code.',
+  key: ['factor_id'],
+  needsRows: true,
+  row: (d) => z.object({ ...baseShape(), ...indicatorShape(d) }),
+  example: {
+    factor_id: 'grid-electricity',
+    name: 'Electricity, medium voltage, national grid',
+    unit: 'kWh',
+    dataset: 'Name of your background database and version',
+    source: 'Database record id',
+    'GWP-total': '0.42',
+    'GWP-fossil': '0.41',
+    'GWP-biogenic': '0.005',
+    'GWP-luluc': '0.005',
+  },
+});

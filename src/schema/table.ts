@@ -1,0 +1,135 @@
+import type { CsvFile } from '../load/csv.ts';
+import type { Problem } from '../problems.ts';
+import { nearestName } from '../reference/nearest.ts';
+import { findIndicator } from '../reference/indicators.ts';
+import { columnsOf, type CsvFileSchema, type RowOf } from './csv-file.ts';
+import { describeIssue } from './issues.ts';
+
+/** One validated row and where it came from. */
+export interface Row<T> {
+  /** First and last physical line of the record (1-based). */
+  line: number;
+  lineEnd: number;
+  value: T;
+  /** The cells as written, by canonical column name. */
+  raw: Record<string, string>;
+}
+
+export interface Table<T> {
+  file: string;
+  delimiter: ',' | ';';
+  /** Canonical column name → 1-based position in the header, for the columns present. */
+  columns: Record<string, number>;
+  /** Rows that passed their schema. */
+  rows: Row<T>[];
+  /** Every data record's cells as written (valid or not), for reference checks. */
+  written: Array<{ line: number; raw: Record<string, string> }>;
+  csv: CsvFile;
+}
+
+export interface TableOptions {
+  /** Header names matched to a canonical name other than by case (indicator codes). */
+  canonicalName?: (header: string) => string | undefined;
+  /** Known columns that this file does not read, with the reason (warning). */
+  ignored?: (canonical: string) => string | undefined;
+}
+
+/**
+ * Applies a file's zod row schema to its records: matches header names to the contract's
+ * column names (case-insensitively, after trimming), reports missing, duplicate and
+ * unknown columns, and turns every cell issue into a located problem.
+ */
+export function parseTable<S extends CsvFileSchema>(csv: CsvFile, schema: S, options: TableOptions = {}): { table: Table<RowOf<S>>; problems: Problem[] } {
+  const problems: Problem[] = [];
+  const file = csv.file;
+  const known = columnsOf(schema);
+  const knownNames = known.map((column) => column.name);
+  const byLower = new Map(knownNames.map((name) => [name.toLowerCase(), name]));
+  const columns: Record<string, number> = {};
+  const headerLine = csv.header.line;
+
+  csv.header.names.forEach((header, index) => {
+    const position = index + 1;
+    if (header === '') return;
+    const canonical = byLower.get(header.toLowerCase()) ?? options.canonicalName?.(header);
+    if (canonical === undefined) {
+      const near = nearestName(header, knownNames);
+      problems.push({
+        severity: 'warning', code: 'COLUMN_UNKNOWN', file, line: headerLine, column: header, columnIndex: position, value: header,
+        message: 'is not a column of this file and is ignored',
+        ...(near ? { hint: `did you mean "${near}"?` } : {}),
+      });
+      return;
+    }
+    const ignoredBecause = options.ignored?.(canonical);
+    if (ignoredBecause) {
+      problems.push({ severity: 'warning', code: 'COLUMN_IGNORED', file, line: headerLine, column: header, columnIndex: position, value: header, message: ignoredBecause });
+      return;
+    }
+    if (columns[canonical] !== undefined) {
+      problems.push({ severity: 'error', code: 'COLUMN_DUPLICATE', file, line: headerLine, column: canonical, columnIndex: position, value: header, message: `names the same column as header cell ${columns[canonical]}`, expected: 'each column once' });
+      return;
+    }
+    columns[canonical] = position;
+  });
+
+  const missing = new Set<string>();
+  for (const column of known) {
+    if (column.required && columns[column.name] === undefined) {
+      missing.add(column.name);
+      problems.push({ severity: 'error', code: 'COLUMN_MISSING', file, line: headerLine, column: column.name, message: `required column ${column.name} is not in the header`, expected: column.description });
+    }
+  }
+
+  const rowSchema = schema.row({ decimalComma: csv.delimiter === ';' });
+  const rows: Row<RowOf<S>>[] = [];
+  const written: Table<RowOf<S>>['written'] = [];
+  const headerWidth = csv.header.names.length;
+  for (const record of csv.records) {
+    if (record.fields.length > headerWidth && record.fields.slice(headerWidth).some((field) => field.trim() !== '')) {
+      problems.push({
+        severity: 'error', code: 'FIELD_COUNT', file, line: record.line, columnIndex: headerWidth + 1,
+        value: record.fields.slice(headerWidth).join(csv.delimiter),
+        message: `has ${record.fields.length} fields, the header ${headerWidth}`,
+        expected: `at most ${headerWidth} fields (a decimal comma in a comma-separated file needs quotes, or save with semicolons)`,
+      });
+      continue;
+    }
+    const raw: Record<string, string> = {};
+    for (const [name, position] of Object.entries(columns)) {
+      const field = record.fields[position - 1];
+      if (field !== undefined) raw[name] = field;
+    }
+    written.push({ line: record.line, raw });
+    const result = rowSchema.safeParse(raw);
+    if (result.success) {
+      rows.push({ line: record.line, lineEnd: record.lineEnd, value: result.data as RowOf<S>, raw });
+      continue;
+    }
+    for (const issue of result.error.issues) {
+      const column = String(issue.path[0] ?? '');
+      if (missing.has(column)) continue;
+      const described = describeIssue(issue);
+      const value = raw[column];
+      problems.push({
+        severity: 'error',
+        code: described.code,
+        file,
+        line: record.line,
+        column,
+        ...(columns[column] === undefined ? {} : { columnIndex: columns[column] }),
+        ...(value === undefined ? {} : { value }),
+        message: described.message,
+        ...(described.expected ? { expected: described.expected } : {}),
+        ...(described.hint ? { hint: described.hint } : {}),
+      });
+    }
+  }
+  if (schema.needsRows && csv.records.length === 0) {
+    problems.push({ severity: 'error', code: 'NO_ROWS', file, line: headerLine, message: `${file} has a header but no rows`, expected: 'at least one row' });
+  }
+  return { table: { file, delimiter: csv.delimiter, columns, rows, written, csv }, problems };
+}
+
+/** factors.csv headers: indicator codes match whatever their case. */
+export const indicatorHeaderName = (header: string): string | undefined => findIndicator(header)?.code;
