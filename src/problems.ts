@@ -71,10 +71,10 @@ export interface Problem {
 /** `bom.csv:14: mass_kg "12,5kg": expected a number in kg` */
 export function formatProblem(problem: Problem): string {
   const where = problem.line === undefined ? problem.file : `${problem.file}:${problem.line}`;
-  const column = problem.column === undefined ? '' : ` ${problem.column}`;
-  const value = problem.value === undefined ? '' : ` ${JSON.stringify(problem.value)}`;
+  const subject = [problem.column, problem.value === undefined ? undefined : JSON.stringify(problem.value)].filter((part) => part !== undefined && part !== '');
   const hint = problem.hint ? ` (${problem.hint})` : '';
-  return `${problem.severity} ${where}:${column}${value}: ${problem.message}${hint} [${problem.code}]`;
+  const head = subject.length > 0 ? `${where}: ${subject.join(' ')}:` : `${where}:`;
+  return `${problem.severity} ${head} ${problem.message}${hint} [${problem.code}]`;
 }
 
 /** Stable order: by file, then line, then column position, then code. */

@@ -1,1 +1,55 @@
-import type { Io } from './io.ts'; export async function runBuild(_o: unknown, _io: Io): Promise<number> { return 3; }
+import path from 'node:path';
+import { loadProject } from '../model/project.ts';
+import { hasErrors } from '../problems.ts';
+import { buildSiteView } from '../report/site-view.ts';
+import { findBrowser } from '../render/browser.ts';
+import { checkOutputDir, withStagedOutput } from '../render/output.ts';
+import { printPdfs } from '../render/pdf.ts';
+import { renderSite } from '../render/site.ts';
+import { EXIT, type Io } from './io.ts';
+import { printProblems } from './report-problems.ts';
+
+export interface BuildOptions {
+  data: string;
+  out: string;
+  /** auto: PDFs when a browser is found; required: fail without one; off: none. */
+  pdf: 'auto' | 'required' | 'off';
+}
+
+export async function runBuild(options: BuildOptions, io: Io): Promise<number> {
+  await checkOutputDir(options.out, options.data);
+  const { project, problems } = await loadProject(options.data);
+  if (problems.length > 0) printProblems(problems, options.data, io);
+  if (!project || hasErrors(problems)) {
+    io.err(`build stopped: nothing was written to ${options.out}`);
+    return EXIT.input;
+  }
+  const view = buildSiteView(project, problems);
+
+  const browser = options.pdf === 'off' ? undefined : await findBrowser();
+  if (options.pdf === 'required' && !browser) {
+    io.err('no browser found for the PDFs (looked at PUPPETEER_EXECUTABLE_PATH, chromium/chrome on the PATH, puppeteer’s cache); nothing was written');
+    return EXIT.input;
+  }
+  let missingPdfs: string[] = [];
+  await withStagedOutput(options.out, async (staging) => {
+    await renderSite(view, staging);
+    const jobs = view.products.map((product) => ({
+      html: path.join(staging, product.id, 'index.html'),
+      pdf: path.join(staging, product.pdf),
+      title: `${product.name} (${product.id})`,
+      status: view.declaration.draft ? 'DRAFT — not verified' : `verified ${view.declaration.verificationDate}`,
+    }));
+    if (browser) {
+      io.err(`PDF: using ${browser.executablePath} (found via ${browser.how})`);
+      await printPdfs(browser, staging, jobs);
+    } else if (options.pdf === 'auto') {
+      missingPdfs = view.products.map((product) => product.pdf);
+    }
+  });
+  if (missingPdfs.length > 0) {
+    io.err(`no browser found (PUPPETEER_EXECUTABLE_PATH, chromium/chrome on the PATH, puppeteer’s cache): HTML written, these PDFs were not:\n${missingPdfs.map((pdf) => `  ${pdf}`).join('\n')}`);
+  }
+  io.out(`built ${view.products.length} products into ${options.out}${options.pdf === 'off' ? ' (no PDFs: --no-pdf)' : ''}`);
+  return EXIT.ok;
+}

@@ -1,0 +1,85 @@
+import path from 'node:path';
+import { pathToFileURL } from 'node:url';
+import puppeteer, { type Browser, type Page } from 'puppeteer';
+import { CHROMIUM_ARGS, type FoundBrowser } from './browser.ts';
+
+export interface PdfJob {
+  /** The HTML page inside the build folder. */
+  html: string;
+  pdf: string;
+  /** For the page header. */
+  title: string;
+  status: string;
+}
+
+const PAGE_POOL = 2;
+const TIMEOUT_MS = 60_000;
+
+const escapeHtml = (text: string) => text.replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
+
+/**
+ * Prints pages to PDF with one browser and a small pool of pages. Every request outside
+ * the build folder is refused, so a PDF can never pull anything from the network.
+ */
+export async function printPdfs(browserInfo: FoundBrowser, buildDir: string, jobs: PdfJob[]): Promise<void> {
+  const browser: Browser = await puppeteer.launch({
+    executablePath: browserInfo.executablePath,
+    headless: true,
+    args: CHROMIUM_ARGS,
+    userDataDir: undefined,
+  });
+  const root = pathToFileURL(path.resolve(buildDir)).href + '/';
+  try {
+    const queue = [...jobs];
+    const worker = async () => {
+      const page = await openPage(browser, root);
+      try {
+        for (let job = queue.shift(); job; job = queue.shift()) await printOne(page, job, browser, root);
+      } finally {
+        await page.close();
+      }
+    };
+    await Promise.all(Array.from({ length: Math.min(PAGE_POOL, jobs.length) }, worker));
+  } finally {
+    await browser.close();
+  }
+}
+
+async function openPage(browser: Browser, root: string): Promise<Page> {
+  const page = await browser.newPage();
+  await page.setRequestInterception(true);
+  page.on('request', (request) => {
+    if (request.url().startsWith(root) || request.url().startsWith('data:')) void request.continue();
+    else void request.abort('blockedbyclient');
+  });
+  return page;
+}
+
+async function printOne(page: Page, job: PdfJob, browser: Browser, root: string): Promise<void> {
+  const attempt = async (target: Page) => {
+    await target.goto(pathToFileURL(job.html).href, { waitUntil: 'load', timeout: TIMEOUT_MS });
+    await target.pdf({
+      path: job.pdf,
+      format: 'A4',
+      printBackground: true,
+      displayHeaderFooter: true,
+      headerTemplate: `<div style="font-size:7pt;width:100%;padding:0 12mm;color:#4a5663;display:flex;justify-content:space-between"><span>${escapeHtml(job.title)}</span><span>${escapeHtml(job.status)}</span></div>`,
+      footerTemplate: '<div style="font-size:7pt;width:100%;padding:0 12mm;color:#4a5663;text-align:right">page <span class="pageNumber"></span> of <span class="totalPages"></span></div>',
+      margin: { top: '16mm', bottom: '16mm', left: '12mm', right: '12mm' },
+      timeout: TIMEOUT_MS,
+    });
+  };
+  try {
+    await attempt(page);
+  } catch {
+    // One retry on a fresh page: a renderer crash or time-out is usually transient.
+    const fresh = await openPage(browser, root);
+    try {
+      await attempt(fresh);
+    } catch (error) {
+      throw new Error(`PDF for ${path.basename(path.dirname(job.pdf))} failed twice: ${(error as Error).message}`);
+    } finally {
+      await fresh.close();
+    }
+  }
+}

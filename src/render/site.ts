@@ -1,0 +1,25 @@
+import Eleventy from '@11ty/eleventy';
+import type { SiteView } from '../report/site-view.ts';
+import { ELEVENTY_CONFIG, PACKAGE_ROOT, TEMPLATES_DIR } from './paths.ts';
+
+/** Renders the HTML pages with Eleventy: one template per page kind, paginated over products. */
+export async function renderSite(view: SiteView, outDir: string): Promise<void> {
+  const cwd = process.cwd();
+  // Eleventy resolves passthrough copies and ignore files against the working directory;
+  // run it from the package root so a user's own folder never leaks into the site.
+  process.chdir(PACKAGE_ROOT);
+  try {
+    const eleventy = new Eleventy(TEMPLATES_DIR, outDir, {
+      configPath: ELEVENTY_CONFIG,
+      quietMode: true,
+      config: (config: { addGlobalData: (name: string, value: unknown) => void }) => {
+        config.addGlobalData('site', view);
+      },
+    });
+    // The build reports its own progress; Eleventy's summary line would land on stdout.
+    eleventy.disableLogger();
+    await eleventy.write();
+  } finally {
+    process.chdir(cwd);
+  }
+}

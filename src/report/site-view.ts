@@ -1,0 +1,243 @@
+import type { Project, Product } from '../model/project.ts';
+import type { Row, Table } from '../schema/table.ts';
+import { formatProblem, type Problem } from '../problems.ts';
+import { findGas, GWP_SOURCES } from '../reference/ghg.ts';
+import { findIndicator } from '../reference/indicators.ts';
+import { TOOL_NAME, TOOL_VERSION } from '../reference/tool.ts';
+import { formatInput, formatShare } from './format.ts';
+
+/**
+ * View models for the site: everything a template prints, already formatted, so the
+ * templates only lay it out (no arithmetic in Nunjucks).
+ */
+export interface SourceRef {
+  /** `bom.csv:12` */
+  label: string;
+  file: string;
+  line: number;
+  /** The record exactly as it appears in the file. */
+  written: string;
+}
+
+export interface Cell {
+  text: string;
+  /** Right-aligned number column. */
+  numeric?: boolean;
+}
+
+export interface TableView {
+  title: string;
+  caption: string;
+  headers: Array<{ text: string; numeric?: boolean }>;
+  rows: Array<{ cells: Cell[]; source: SourceRef }>;
+  empty: string;
+}
+
+export interface ProductView {
+  id: string;
+  name: string;
+  declaredUnit: string;
+  unitMass: string;
+  description: string;
+  eolScenario: string;
+  source: SourceRef;
+  url: string;
+  pdf: string;
+  lineCount: number;
+  tables: TableView[];
+}
+
+export interface SiteView {
+  tool: { name: string; version: string };
+  declaration: {
+    owner: string;
+    address: string;
+    contact: string;
+    standard: string;
+    pcr: string;
+    referenceYear: string;
+    issued: string;
+    validUntil: string;
+    status: string;
+    draft: boolean;
+    verifier: string;
+    verificationDate: string;
+    gwpSet: string;
+    backgroundData: string[];
+    illustrative: boolean;
+  };
+  cautions: string[];
+  products: ProductView[];
+  warnings: string[];
+  indicators: Array<{ code: string; name: string; unit: string }>;
+}
+
+export const CAUTIONS = [
+  'This is a public environmental claim only once an independent verifier has verified it under ISO 14025 and the applicable programme rules.',
+  'Results depend on the background database, its version and the product category rules (PCR); declarations are comparable only under the same PCR, declared unit and modules (EN 15804+A2 §5.3).',
+  'Emission figures used for regulatory reporting must follow the monitoring rules of the jurisdiction and be checked by an accredited verifier; this tool supports, and does not replace, that practice.',
+];
+
+function sourceOf(table: Table<unknown>, row: { line: number; lineEnd: number }): SourceRef {
+  const lines = table.csv.text.split('\n');
+  return {
+    label: `${table.file}:${row.line}`,
+    file: table.file,
+    line: row.line,
+    written: lines.slice(row.line - 1, row.lineEnd).join('\n'),
+  };
+}
+
+const num = (value: number): Cell => ({ text: formatInput(value), numeric: true });
+const pct = (value: number): Cell => ({ text: formatShare(value), numeric: true });
+const txt = (value: string | undefined): Cell => ({ text: value ?? '' });
+
+export function buildSiteView(project: Project, problems: readonly Problem[]): SiteView {
+  const d = project.declaration;
+  return {
+    tool: { name: TOOL_NAME, version: TOOL_VERSION },
+    declaration: {
+      owner: d.owner.name,
+      address: d.owner.address ?? '',
+      contact: d.owner.contact ?? '',
+      standard: d.standard,
+      pcr: d.pcr,
+      referenceYear: String(d.reference_year),
+      issued: d.issued,
+      validUntil: d.valid_until,
+      status: d.verification.status,
+      draft: d.verification.status !== 'verified',
+      verifier: d.verification.verifier ?? '',
+      verificationDate: d.verification.date ?? '',
+      gwpSet: `${d.gwp_set} — ${GWP_SOURCES[d.gwp_set]}`,
+      backgroundData: d.background_data.map((b) => `${b.name}, version ${b.version}${b.licence ? ` (${b.licence})` : ''}`),
+      illustrative: d.illustrative,
+    },
+    cautions: CAUTIONS,
+    products: project.products.rows.map((row) => productView(project, row)),
+    warnings: problems.filter((p) => p.severity === 'warning').map(formatProblem),
+    indicators: project.indicators.map((code) => {
+      const indicator = findIndicator(code)!;
+      return { code, name: indicator.name, unit: indicator.unit };
+    }),
+  };
+}
+
+function productView(project: Project, productRow: Row<Product>): ProductView {
+  const product = productRow.value;
+  const lines = project.bom.rows.filter((row) => row.value.product_id === product.product_id);
+  const activities = project.activities.rows.filter((row) => row.value.product_id === product.product_id);
+  const legs = project.transport.rows.filter((row) => row.value.product_id === product.product_id);
+  const materialIds = new Set(lines.map((row) => row.value.material));
+  const materials = project.materials.rows.filter((row) => materialIds.has(row.value.material));
+  const eolRows = project.eol.rows.filter((row) => row.value.scenario === product.eol_scenario);
+
+  const factorIds = new Set<string>();
+  for (const m of materials) for (const id of [m.value.virgin, m.value.recycled, m.value.eol_recycling, m.value.substituted, m.value.landfill, m.value.incineration]) if (id) factorIds.add(id);
+  for (const a of activities) factorIds.add(a.value.factor);
+  for (const t of legs) factorIds.add(t.value.factor);
+  for (const e of eolRows) for (const id of [e.value.transport_factor, e.value.processing_factor]) if (id) factorIds.add(id);
+  const factors = project.factors.rows.filter((row) => factorIds.has(row.value.factor_id));
+  const gases = [...factorIds].map(findGas).filter((gas) => gas !== undefined);
+
+  const tables: TableView[] = [
+    {
+      title: 'Bill of materials',
+      caption: `Material lines in one declared unit (${product.declared_unit}); masses are net, shares are of the input.`,
+      headers: [{ text: 'Line' }, { text: 'Component' }, { text: 'Material' }, { text: 'Role' }, { text: 'Mass (kg)', numeric: true }, { text: 'Pre-consumer recycled', numeric: true }, { text: 'Post-consumer recycled', numeric: true }, { text: 'Scrap rate', numeric: true }, { text: 'Scrap to' }, { text: 'Source' }],
+      rows: lines.map((row) => ({
+        source: sourceOf(project.bom, row),
+        cells: [txt(row.value.line_id), txt(row.value.component), txt(row.value.material), txt(row.value.role), num(row.value.mass_kg), pct(row.value.recycled_pre), pct(row.value.recycled_post), pct(row.value.scrap_rate), txt(row.value.scrap_fate), txt(row.value.source)],
+      })),
+      empty: 'No BOM lines.',
+    },
+    {
+      title: 'Activities',
+      caption: 'Energy, ancillary materials and direct emissions per declared unit.',
+      headers: [{ text: 'Module' }, { text: 'Activity' }, { text: 'Factor' }, { text: 'Amount', numeric: true }, { text: 'Unit' }, { text: 'Source' }],
+      rows: activities.map((row) => ({
+        source: sourceOf(project.activities, row),
+        cells: [txt(row.value.module), txt(row.value.activity), txt(row.value.factor), num(row.value.amount), txt(row.value.unit), txt(row.value.source)],
+      })),
+      empty: 'No activities.',
+    },
+    {
+      title: 'Transport',
+      caption: 'Legs carrying one BOM line’s gross input, or the whole product’s gross input where no line is named.',
+      headers: [{ text: 'Module' }, { text: 'Line' }, { text: 'Leg' }, { text: 'Factor' }, { text: 'Distance (km)', numeric: true }, { text: 'Source' }],
+      rows: legs.map((row) => ({
+        source: sourceOf(project.transport, row),
+        cells: [txt(row.value.module), txt(row.value.line_id ?? 'whole product'), txt(row.value.leg), txt(row.value.factor), num(row.value.distance_km), txt(row.value.source)],
+      })),
+      empty: 'No transport legs.',
+    },
+    {
+      title: `End-of-life scenario “${product.eol_scenario}”`,
+      caption: 'Shares of the end-of-life mass by route; * applies to every material without its own row.',
+      headers: [{ text: 'Material' }, { text: 'Re-use', numeric: true }, { text: 'Recycling', numeric: true }, { text: 'Energy recovery', numeric: true }, { text: 'Incineration', numeric: true }, { text: 'Landfill', numeric: true }, { text: 'Recycling yield', numeric: true }, { text: 'Transport (km)', numeric: true }, { text: 'Source' }],
+      rows: eolRows.map((row) => ({
+        source: sourceOf(project.eol, row),
+        cells: [txt(row.value.material), pct(row.value.reuse), pct(row.value.recycling), pct(row.value.energy_recovery), pct(row.value.incineration), pct(row.value.landfill), pct(row.value.recycling_yield), num(row.value.transport_km), txt(row.value.source)],
+      })),
+      empty: 'No scenario rows.',
+    },
+    {
+      title: 'Materials',
+      caption: 'Factor ids for each stage of the material’s life and the parameters of the recycling-credit methods.',
+      headers: [{ text: 'Material' }, { text: 'Family' }, { text: 'Virgin' }, { text: 'Recycled' }, { text: 'EoL recycling' }, { text: 'Landfill' }, { text: 'Incineration' }, { text: 'Q in', numeric: true }, { text: 'Q out', numeric: true }, { text: 'Biogenic C (kg/kg)', numeric: true }],
+      rows: materials.map((row) => {
+        const m = row.value;
+        return {
+          source: sourceOf(project.materials, row),
+          cells: [txt(`${m.material} — ${m.name}`), txt(m.family), txt(m.virgin), txt(m.recycled ?? '—'), txt(m.eol_recycling ?? '—'), txt(m.landfill ?? '—'), txt(m.incineration ?? '—'), num(m.q_in), num(m.q_out), m.biogenic_c_kg_per_kg === null ? txt('not given') : num(m.biogenic_c_kg_per_kg)],
+        };
+      }),
+      empty: 'No materials.',
+    },
+    {
+      title: 'Factors used',
+      caption: `Factor rows this product reaches, with their dataset; values per row unit. An empty cell is “not available”, never zero.`,
+      headers: [{ text: 'Factor' }, { text: 'Unit' }, { text: 'Dataset' }, ...project.indicators.filter((code) => project.factorIndicators.includes(code)).map((code) => ({ text: code, numeric: true }))],
+      rows: factors.map((row) => ({
+        source: sourceOf(project.factors, row),
+        cells: [
+          txt(row.value.factor_id),
+          txt(row.value.unit),
+          txt(row.value.dataset),
+          ...project.indicators
+            .filter((code) => project.factorIndicators.includes(code))
+            .map((code) => {
+              const value = (row.value as Record<string, number | null>)[code];
+              return value === null || value === undefined ? txt('n/a') : num(value);
+            }),
+        ],
+      })),
+      empty: 'No factors.',
+    },
+  ];
+  if (gases.length > 0) {
+    tables.push({
+      title: 'Built-in greenhouse gases used',
+      caption: `GWP-100 values from ${GWP_SOURCES[project.declaration.gwp_set]}.`,
+      headers: [{ text: 'Gas' }, { text: 'Name' }, { text: `GWP-100 (${project.declaration.gwp_set})`, numeric: true }],
+      rows: gases.map((gas) => ({
+        source: { label: 'src/reference/ghg.ts', file: 'src/reference/ghg.ts', line: 0, written: GWP_SOURCES[project.declaration.gwp_set] },
+        cells: [txt(`ghg:${gas.id}`), txt(gas.name), num(gas[project.declaration.gwp_set])],
+      })),
+      empty: '',
+    });
+  }
+  return {
+    id: product.product_id,
+    name: product.name,
+    declaredUnit: product.declared_unit,
+    unitMass: formatInput(product.unit_mass_kg),
+    description: product.description ?? '',
+    eolScenario: product.eol_scenario,
+    source: sourceOf(project.products, productRow),
+    url: `${product.product_id}/index.html`,
+    pdf: `${product.product_id}/declaration.pdf`,
+    lineCount: lines.length,
+    tables,
+  };
+}
