@@ -1,8 +1,4 @@
 import { parseArgs, type ParseArgsConfig } from 'node:util';
-import { runCheck } from './check.ts';
-import { runBuild } from './build.ts';
-import { runInit } from './init.ts';
-import { runSchema } from './schema.ts';
 import { EXIT, UsageError, type Io } from './io.ts';
 
 interface Command {
@@ -13,6 +9,7 @@ interface Command {
   run: (values: Record<string, string | boolean | undefined>, positionals: string[], io: Io) => Promise<number>;
 }
 
+// Each command loads its modules only when it runs: `check` need not pay for Eleventy and puppeteer.
 const COMMANDS: Record<string, Command> = {
   check: {
     summary: 'validate a data folder and list every problem',
@@ -25,7 +22,7 @@ what was expected. Exit 0 when there are no errors (warnings allowed), 1 with er
   --json       print the problems as a JSON array on stdout`,
     options: { data: { type: 'string' }, json: { type: 'boolean' } },
     positionals: { min: 0, max: 0 },
-    run: (values, _positionals, io) => runCheck({ data: str(values.data) ?? 'data', json: values.json === true }, io),
+    run: async (values, _positionals, io) => (await import('./check.ts')).runCheck({ data: str(values.data) ?? 'data', json: values.json === true }, io),
   },
   build: {
     summary: 'validate, compute and render the declarations',
@@ -40,8 +37,8 @@ validation fails, and a failed build leaves the previous output untouched.
   --pdf        require PDFs: fail when no browser is found`,
     options: { data: { type: 'string' }, out: { type: 'string' }, 'no-pdf': { type: 'boolean' }, pdf: { type: 'boolean' } },
     positionals: { min: 0, max: 0 },
-    run: (values, _positionals, io) =>
-      runBuild({ data: str(values.data) ?? 'data', out: str(values.out) ?? 'out', pdf: values['no-pdf'] === true ? 'off' : values.pdf === true ? 'required' : 'auto' }, io),
+    run: async (values, _positionals, io) =>
+      (await import('./build.ts')).runBuild({ data: str(values.data) ?? 'data', out: str(values.out) ?? 'out', pdf: values['no-pdf'] === true ? 'off' : values.pdf === true ? 'required' : 'auto' }, io),
   },
   init: {
     summary: 'scaffold a new data folder',
@@ -53,7 +50,7 @@ declaration.json and a README explaining each column with its unit.
   --force      write into a folder that already has files (existing input files are kept)`,
     options: { force: { type: 'boolean' } },
     positionals: { min: 1, max: 1 },
-    run: (values, positionals, io) => runInit({ dir: positionals[0]!, force: values.force === true }, io),
+    run: async (values, positionals, io) => (await import('./init.ts')).runInit({ dir: positionals[0]!, force: values.force === true }, io),
   },
   schema: {
     summary: 'write the JSON Schema and the column reference',
@@ -65,7 +62,7 @@ reference of every CSV), all generated from the zod schemas the checks use.
   --out DIR    where to write (default ./schema)`,
     options: { out: { type: 'string' } },
     positionals: { min: 0, max: 0 },
-    run: (values, _positionals, io) => runSchema({ out: str(values.out) ?? 'schema' }, io),
+    run: async (values, _positionals, io) => (await import('./schema.ts')).runSchema({ out: str(values.out) ?? 'schema' }, io),
   },
 };
 

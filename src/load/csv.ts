@@ -67,7 +67,7 @@ export async function loadCsv(dir: string, file: string): Promise<CsvLoad> {
 
 export function parseCsvText(file: string, original: string, bytes: Buffer = Buffer.from(original)): CsvLoad {
   // One line ending throughout, so that csv-parse's line count is the physical line.
-  const text = original.replace(/\r\n?/g, '\n');
+  const text = original.replace(/^\ufeff/, '').replace(/\r\n?/g, '\n');
   const delimiter = detectDelimiter(text);
   const problems: Problem[] = [];
   let parsed: ParsedRecord[];

@@ -29,16 +29,38 @@ export async function loadJson(dir: string, file: string): Promise<JsonLoad> {
   return parseJsonText(file, read.text, read.bytes);
 }
 
+const JSON_ERRORS: Record<string, string> = {
+  InvalidSymbol: 'a character that JSON does not allow here',
+  InvalidNumberFormat: 'a badly written number',
+  PropertyNameExpected: 'a "key" was expected (is there a comma too many before this?)',
+  ValueExpected: 'a value was expected',
+  ColonExpected: 'a colon was expected after the key',
+  CommaExpected: 'a comma was expected between entries',
+  CloseBraceExpected: 'a closing } was expected',
+  CloseBracketExpected: 'a closing ] was expected',
+  EndOfFileExpected: 'text after the end of the JSON object',
+  InvalidCommentToken: 'comments are not allowed in JSON',
+  UnexpectedEndOfComment: 'comments are not allowed in JSON',
+  UnexpectedEndOfString: 'a string is not closed',
+  UnexpectedEndOfNumber: 'a number is cut off',
+  InvalidUnicode: 'a bad \\u escape',
+  InvalidEscapeCharacter: 'a bad escape in a string',
+  InvalidCharacter: 'a character that JSON does not allow in a string',
+};
+
 export function parseJsonText(file: string, text: string, bytes: Buffer = Buffer.from(text)): JsonLoad {
   const errors: ParseError[] = [];
   const root = parseTree(text, errors, { disallowComments: true, allowTrailingComma: false, allowEmptyContent: false });
   if (errors.length > 0 || root === undefined) {
-    const problems = errors.map((error): Problem => {
+    // One mistake often raises several parse errors at the same place; report the first.
+    const firstAt = new Map<number, ParseError>();
+    for (const error of errors) if (!firstAt.has(error.offset)) firstAt.set(error.offset, error);
+    const problems = [...firstAt.values()].map((error): Problem => {
       const at = lineAndColumn(text, error.offset);
       return {
         severity: 'error', code: 'JSON_SYNTAX', file, line: at.line, columnIndex: at.column,
         value: text.slice(error.offset, error.offset + Math.max(1, Math.min(error.length, 20))),
-        message: `JSON syntax: ${printParseErrorCode(error.error)}`,
+        message: `JSON syntax: ${JSON_ERRORS[printParseErrorCode(error.error)] ?? printParseErrorCode(error.error)}`,
         expected: 'valid JSON (no comments, no trailing commas)',
       };
     });

@@ -5,14 +5,17 @@ import { findIndicator } from '../reference/indicators.ts';
 import { nearestName } from '../reference/nearest.ts';
 import { convertible, dimensionOf, unitsOf, type Dimension } from '../reference/units.ts';
 import type { Row, Table } from '../schema/table.ts';
-import type { Project, Material, FactorRow } from './project.ts';
+import { indicatorValue, type Project, type Material, type FactorRow } from './types.ts';
 
 /**
  * Rules that need more than one row or file: duplicate ids, references across files,
  * the BOM against the declared unit, end-of-life coverage, factors a use requires, unit
  * compatibility and factor completeness. Each rule reports at the cell a user must edit.
  */
-export function crossFileChecks(project: Project): Problem[] {
+/** The tables, and the declaration when it parsed. */
+export type CheckInput = Omit<Project, 'declaration' | 'declarationFile'> & Partial<Pick<Project, 'declaration' | 'declarationFile'>>;
+
+export function crossFileChecks(project: CheckInput): Problem[] {
   const problems: Problem[] = [];
   const ctx = new CheckContext(project, problems);
   duplicateKeys(ctx);
@@ -30,7 +33,7 @@ type AnyTable = Table<unknown>;
 
 class CheckContext {
   constructor(
-    readonly project: Project,
+    readonly project: CheckInput,
     readonly problems: Problem[],
   ) {}
 
@@ -311,11 +314,11 @@ function factorCompleteness(ctx: CheckContext): void {
   const p = ctx.project;
   const present = new Set(p.factorIndicators);
   const asked = p.indicators.filter((code) => findIndicator(code)?.basis === 'factors');
-  if (p.declaration.indicators) {
+  const requested = p.declaration?.indicators;
+  if (requested && p.declarationFile) {
     for (const code of asked) {
       if (present.has(code)) continue;
-      const where = locate(p.declarationFile, ['indicators', p.declaration.indicators.indexOf(code)]);
-      p.declaration.indicators.indexOf(code);
+      const where = locate(p.declarationFile, ['indicators', requested.indexOf(code)]);
       ctx.problems.push({
         severity: 'warning', code: 'INDICATOR_NO_DATA', file: p.declarationFile.file, line: where.line, column: 'indicators', columnIndex: where.column, value: code,
         message: `is asked for, but factors.csv has no ${code} column; every ${code} figure will be incomplete`,
@@ -327,8 +330,7 @@ function factorCompleteness(ctx: CheckContext): void {
   for (const row of p.factors.rows) {
     const where = used.get(row.value.factor_id);
     if (!where) continue;
-    const values = row.value as Record<string, unknown>;
-    const missing = asked.filter((code) => present.has(code) && (values[code] === null || values[code] === undefined));
+    const missing = asked.filter((code) => present.has(code) && indicatorValue(row.value, code) === null);
     if (missing.length === 0) continue;
     const first = missing[0]!;
     ctx.at(p.factors, row.line, row.raw, first, 'warning', 'FACTOR_VALUE_MISSING',
@@ -357,6 +359,7 @@ function provenanceWarnings(ctx: CheckContext): void {
 
 function declarationRules(ctx: CheckContext): void {
   const { declaration, declarationFile } = ctx.project;
+  if (!declaration || !declarationFile) return;
   const issued = new Date(`${declaration.issued}T00:00:00Z`);
   const limit = new Date(Date.UTC(issued.getUTCFullYear() + 5, issued.getUTCMonth(), issued.getUTCDate()));
   if (new Date(`${declaration.valid_until}T00:00:00Z`) > limit) {

@@ -5,37 +5,13 @@ import { sortProblems, type Problem } from '../problems.ts';
 import { FACTOR_INDICATOR_CODES, findIndicator, inReportingOrder } from '../reference/indicators.ts';
 import { CSV_FILES, DECLARATION_FILE, productsCsv, bomCsv, materialsCsv, eolCsv, activitiesCsv, transportCsv, factorsCsv } from '../schema/index.ts';
 import { declarationSchema, DECLARATION_KEYS, type Declaration } from '../schema/declaration.ts';
-import type { RowOf } from '../schema/csv-file.ts';
 import { describeIssue } from '../schema/issues.ts';
 import { parseTable, indicatorHeaderName, type Table } from '../schema/table.ts';
 import { nearestName } from '../reference/nearest.ts';
 import { crossFileChecks } from './checks.ts';
 
-export type Product = RowOf<typeof productsCsv>;
-export type BomLine = RowOf<typeof bomCsv>;
-export type Material = RowOf<typeof materialsCsv>;
-export type EolRow = RowOf<typeof eolCsv>;
-export type Activity = RowOf<typeof activitiesCsv>;
-export type TransportLeg = RowOf<typeof transportCsv>;
-export type FactorRow = RowOf<typeof factorsCsv>;
-
-/** The validated project: every table with its rows' provenance, and the declaration. */
-export interface Project {
-  dir: string;
-  declaration: Declaration;
-  declarationFile: JsonFile;
-  /** Indicator codes the declaration reports, in EN 15804+A2 order. */
-  indicators: string[];
-  /** Indicator codes that factors.csv has a column for. */
-  factorIndicators: string[];
-  products: Table<Product>;
-  bom: Table<BomLine>;
-  materials: Table<Material>;
-  eol: Table<EolRow>;
-  activities: Table<Activity>;
-  transport: Table<TransportLeg>;
-  factors: Table<FactorRow>;
-}
+export * from './types.ts';
+import type { Project } from './types.ts';
 
 export interface ProjectLoad {
   /** Present when the project has no errors (warnings allowed). */
@@ -89,11 +65,15 @@ export async function loadProject(dirArgument: string): Promise<ProjectLoad> {
   const factorIndicators = factors ? inReportingOrder(Object.keys(factors.columns).filter((name) => FACTOR_INDICATOR_CODES.includes(name))) : [];
   const indicators = declaration?.indicators ? inReportingOrder(declaration.indicators) : factorIndicators;
 
-  if (declaration && products && bom && materials && eol && activities && transport && factors && declarationFile) {
-    const project: Project = { dir, declaration, declarationFile, indicators, factorIndicators, products, bom, materials, eol, activities, transport, factors };
-    problems.push(...crossFileChecks(project));
+  if (products && bom && materials && eol && activities && transport && factors) {
+    const tables = { dir, indicators, factorIndicators, products, bom, materials, eol, activities, transport, factors };
+    // Cross-file rules run even when declaration.json is broken, so one run shows every problem.
+    problems.push(...crossFileChecks({ ...tables, declaration, declarationFile }));
     const sorted = sortProblems(problems);
-    return sorted.some((p) => p.severity === 'error') ? { problems: sorted } : { project, problems: sorted };
+    if (declaration && declarationFile && !sorted.some((p) => p.severity === 'error')) {
+      return { project: { ...tables, declaration, declarationFile }, problems: sorted };
+    }
+    return { problems: sorted };
   }
   return { problems: sortProblems(problems) };
 }
@@ -105,7 +85,7 @@ function parseDeclaration(json: JsonFile): { declaration?: Declaration; problems
   for (const issue of result.error.issues) {
     const described = describeIssue(issue);
     const where = locate(json, issue.path as (string | number)[]);
-    const value = where.node ? json.text.slice(where.node.offset, where.node.offset + where.node.length) : undefined;
+    const value = where.node === undefined ? undefined : typeof where.node.value === 'string' ? where.node.value : json.text.slice(where.node.offset, where.node.offset + where.node.length);
     problems.push({
       severity: 'error',
       code: described.code,

@@ -1,4 +1,4 @@
-import type { Project, Product } from '../model/project.ts';
+import { indicatorValue, type Project, type Product } from '../model/project.ts';
 import type { Row, Table } from '../schema/table.ts';
 import { formatProblem, type Problem } from '../problems.ts';
 import { findGas, GWP_SOURCES } from '../reference/ghg.ts';
@@ -207,8 +207,8 @@ function productView(project: Project, productRow: Row<Product>): ProductView {
           ...project.indicators
             .filter((code) => project.factorIndicators.includes(code))
             .map((code) => {
-              const value = (row.value as Record<string, number | null>)[code];
-              return value === null || value === undefined ? txt('n/a') : num(value);
+              const value = indicatorValue(row.value, code);
+              return value === null ? txt('n/a') : num(value);
             }),
         ],
       })),

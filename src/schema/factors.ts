@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { id, optionalQuantity, requiredText, text, unitCell } from './cells.ts';
 import { defineCsv } from './csv-file.ts';
-import { FACTOR_INDICATOR_CODES } from '../reference/indicators.ts';
+import { INDICATORS } from '../reference/indicators.ts';
 import type { Dialect } from './numbers.ts';
 
 /** The fixed columns; one optional column per EN 15804+A2 indicator code follows. */
@@ -17,9 +17,9 @@ function baseShape() {
 
 function indicatorShape(dialect: Dialect) {
   return Object.fromEntries(
-    FACTOR_INDICATOR_CODES.map((code) => [
-      code,
-      optionalQuantity(dialect, `${code} per row unit; an empty cell means "not available" and is never read as 0.`, `indicator unit per row unit`, { signed: true }),
+    INDICATORS.filter((indicator) => indicator.basis === 'factors').map((indicator) => [
+      indicator.code,
+      optionalQuantity(dialect, `${indicator.name}, per row unit; an empty cell means "not available" and is never read as 0.`, `${indicator.unit} per row unit`, { signed: true }),
     ]),
   ) as Record<string, ReturnType<typeof optionalQuantity>>;
 }

@@ -1,0 +1,212 @@
+import { afterAll, describe, expect, it } from 'vitest';
+import { mkdir, readFile, readdir, writeFile, stat } from 'node:fs/promises';
+import path from 'node:path';
+import { demoCopy, editFile, editLine, hashTree, removeDir, runCli, tempDir, DEMO } from '../helpers.ts';
+
+const cleanup: string[] = [];
+afterAll(async () => Promise.all(cleanup.map(removeDir)));
+const scratch = async () => {
+  const dir = await tempDir();
+  cleanup.push(dir);
+  return dir;
+};
+
+describe('loopsheet usage', () => {
+  it.each(['check', 'build', 'init', 'schema'])('%s --help prints its usage and exits 0', async (command) => {
+    const result = await runCli([command, '--help']);
+    expect(result.code).toBe(0);
+    expect(result.stdout).toContain(`loopsheet ${command}`);
+  });
+
+  it('--help lists the commands; no command is a usage error (exit 2)', async () => {
+    const help = await runCli(['--help']);
+    expect(help.code).toBe(0);
+    expect(help.stdout).toMatch(/check[\s\S]*build[\s\S]*init[\s\S]*schema/);
+    const none = await runCli([]);
+    expect(none.code).toBe(2);
+    expect(none.stderr).toContain('usage: loopsheet COMMAND');
+  });
+
+  it.each([
+    [['frobnicate'], /unknown command "frobnicate"/],
+    [['check', '--dat', 'data'], /Unknown option '--dat'/],
+    [['init'], /expected 1 argument, got 0/],
+    [['check', 'extra'], /expected 0 arguments, got 1/],
+  ])('%j is a usage error (exit 2) on stderr', async (args, message) => {
+    const result = await runCli(args);
+    expect(result.code).toBe(2);
+    expect(result.stderr).toMatch(message);
+    expect(result.stdout).toBe('');
+  });
+});
+
+describe('loopsheet check', () => {
+  it('passes the demo (exit 0, warnings allowed) and prints problems to stderr only', async () => {
+    const result = await runCli(['check', '--data', DEMO]);
+    expect(result.code).toBe(0);
+    expect(result.stdout).toBe('');
+    expect(result.stderr).toContain('0 errors, 1 warning');
+    expect(result.stderr).toContain('warning factors.csv:23: ODP "":');
+  });
+
+  it('--json prints the problems as a JSON array on stdout', async () => {
+    const result = await runCli(['check', '--data', DEMO, '--json']);
+    expect(result.code).toBe(0);
+    const problems = JSON.parse(result.stdout);
+    expect(problems).toEqual([expect.objectContaining({ code: 'FACTOR_VALUE_MISSING', file: 'factors.csv', line: 23, column: 'ODP', severity: 'warning' })]);
+  });
+
+  it('reports every error planted in a broken copy of the demo, each at its file and line, in one run', async () => {
+    const dir = await demoCopy();
+    cleanup.push(path.dirname(dir));
+    await editLine(path.join(dir, 'bom.csv'), 6, '0.995', '"0,995"');
+    await editLine(path.join(dir, 'bom.csv'), 9, ',3%,22%,', ',83%,22%,');
+    await editLine(path.join(dir, 'products.csv'), 3, 'building-metals', 'building-metal');
+    await editLine(path.join(dir, 'materials.csv'), 6, 'steel-hot-rolled-bof', 'steel-hot-roled-bof');
+    await editLine(path.join(dir, 'eol.csv'), 5, '90%,0,0,10%', '90%,0,0,20%');
+    await editLine(path.join(dir, 'activities.csv'), 9, ',MJ,', ',kg,');
+    await editLine(path.join(dir, 'transport.csv'), 7, ',260,', ',260 km,');
+    await editLine(path.join(dir, 'factors.csv'), 26, 'illustrative),0.41,', 'illustrative),zero,');
+    await editFile(path.join(dir, 'declaration.json'), (t) => t.replace('"status": "draft"', '"status": "drafted"'));
+    const result = await runCli(['check', '--data', dir]);
+    expect(result.code).toBe(1);
+    const planted = [
+      ['bom.csv:6: mass_kg "0,995"', 'NOT_A_NUMBER'],
+      ['bom.csv:9: recycled_post "22%"', 'RECYCLED_CONTENT_SUM'],
+      ['products.csv:3: eol_scenario "building-metal"', 'UNKNOWN_REFERENCE'],
+      ['materials.csv:6: virgin "steel-hot-roled-bof"', 'UNKNOWN_REFERENCE'],
+      ['eol.csv:5: landfill "20%"', 'EOL_SHARES_SUM'],
+      ['activities.csv:9: unit "kg"', 'UNIT_MISMATCH'],
+      ['transport.csv:7: distance_km "260 km"', 'NOT_A_NUMBER'],
+      ['factors.csv:26: GWP-total "zero"', 'NOT_A_NUMBER'],
+      ['declaration.json:12: verification.status "drafted"', 'BAD_CHOICE'],
+    ];
+    for (const [where, code] of planted) {
+      expect(result.stderr.split('\n').some((line) => line.startsWith('error ') && line.includes(where!) && line.endsWith(`[${code}]`)), `${where} [${code}] in\n${result.stderr}`).toBe(true);
+    }
+    expect(result.stderr).toContain('(did you mean "building-metals"?)');
+    expect(result.stderr).toContain('(did you mean "steel-hot-rolled-bof"?)');
+  });
+
+  it('a missing data folder is input errors (exit 1) naming each missing file', async () => {
+    const result = await runCli(['check', '--data', path.join(await scratch(), 'nowhere')]);
+    expect(result.code).toBe(1);
+    for (const file of ['declaration.json', 'products.csv', 'bom.csv', 'materials.csv', 'eol.csv', 'activities.csv', 'transport.csv', 'factors.csv']) {
+      expect(result.stderr).toContain(`error ${file}: ${file} is missing from the data folder [FILE_MISSING]`);
+    }
+  });
+});
+
+describe('loopsheet init', () => {
+  it('scaffolds every input file with its header and a commented example row, plus a README of the columns', async () => {
+    const dir = path.join(await scratch(), 'my-project');
+    const result = await runCli(['init', dir]);
+    expect(result.code).toBe(0);
+    expect((await readdir(dir)).sort()).toEqual(['README.md', 'activities.csv', 'bom.csv', 'declaration.json', 'eol.csv', 'factors.csv', 'materials.csv', 'products.csv', 'transport.csv']);
+    const bom = await readFile(path.join(dir, 'bom.csv'), 'utf8');
+    expect(bom.split('\n')[2]).toBe('product_id,line_id,component,material,role,mass_kg,recycled_pre,recycled_post,scrap_rate,scrap_fate,source');
+    expect(bom.split('\n')[3]).toMatch(/^# EXT-6060-40,L1,/);
+    const readme = await readFile(path.join(dir, 'README.md'), 'utf8');
+    expect(readme).toContain('| `mass_kg` | number (kg) | required |');
+    JSON.parse(await readFile(path.join(dir, 'declaration.json'), 'utf8'));
+
+    // The scaffold is a valid skeleton: its only errors are the files that still need rows.
+    const check = await runCli(['check', '--data', dir, '--json']);
+    expect(check.code).toBe(1);
+    const codes = new Set(JSON.parse(check.stdout).map((p: { code: string }) => p.code));
+    expect(codes).toEqual(new Set(['NO_ROWS']));
+  });
+
+  it('refuses a non-empty folder (exit 2) unless --force, which keeps existing files', async () => {
+    const dir = await scratch();
+    await writeFile(path.join(dir, 'products.csv'), 'mine\n');
+    const refused = await runCli(['init', dir]);
+    expect(refused.code).toBe(2);
+    expect(refused.stderr).toMatch(/not empty/);
+    const forced = await runCli(['init', dir, '--force']);
+    expect(forced.code).toBe(0);
+    expect(await readFile(path.join(dir, 'products.csv'), 'utf8')).toBe('mine\n');
+    expect(forced.stdout).toContain('kept products.csv');
+  });
+});
+
+describe('loopsheet schema', () => {
+  it('writes a JSON Schema for declaration.json and each CSV row, and the column reference', async () => {
+    const dir = await scratch();
+    const result = await runCli(['schema', '--out', dir]);
+    expect(result.code).toBe(0);
+    const declaration = JSON.parse(await readFile(path.join(dir, 'declaration.schema.json'), 'utf8'));
+    expect(declaration.$schema).toMatch(/json-schema\.org\/draft\/2020-12/);
+    expect(declaration.required).toEqual(expect.arrayContaining(['owner', 'standard', 'pcr', 'reference_year', 'issued', 'valid_until', 'verification', 'background_data']));
+    expect(declaration.properties.verification.properties.status.enum).toEqual(['draft', 'verified']);
+    const bom = JSON.parse(await readFile(path.join(dir, 'bom.row.schema.json'), 'utf8'));
+    expect(Object.keys(bom.properties)).toContain('scrap_fate');
+    expect(await readFile(path.join(dir, 'columns.md'), 'utf8')).toContain('### `factors.csv`');
+  });
+});
+
+describe('loopsheet build', () => {
+  it('builds the demo into --out from any working directory (exit 0)', async () => {
+    const cwd = await scratch();
+    const result = await runCli(['build', '--data', DEMO, '--out', 'site', '--no-pdf'], { cwd });
+    expect(result.code, result.stderr).toBe(0);
+    expect(result.stdout).toContain('built 3 products into site');
+    const site = path.join(cwd, 'site');
+    expect((await readdir(site)).sort()).toEqual(['.loopsheet-output', 'KV-BR-40', 'KV-CU-BB10', 'KV-EXT-6060', 'assets', 'index.html']);
+    const page = await readFile(path.join(site, 'KV-CU-BB10', 'index.html'), 'utf8');
+    expect(page).toContain('Copper busbar 10 × 100 mm, Cu-ETP, tin-plated');
+    expect(page).toContain('bom.csv:6');
+    expect(page).toContain('Draft — not verified.');
+    expect(page).toContain('Illustrative data.');
+    expect(page).toContain('href="../assets/style.css"');
+    // Eleventy's own summary must not reach stdout, which is for results.
+    expect(result.stdout).not.toMatch(/\[11ty\]/);
+  });
+
+  it('writes nothing when validation fails, and leaves an earlier output byte-identical', async () => {
+    const cwd = await scratch();
+    const out = path.join(cwd, 'out');
+    const first = await runCli(['build', '--data', DEMO, '--out', out, '--no-pdf']);
+    expect(first.code).toBe(0);
+    const before = await hashTree(out);
+    const dir = await demoCopy();
+    cleanup.push(path.dirname(dir));
+    await editLine(path.join(dir, 'bom.csv'), 3, '0.83', '-0.83');
+    await editFile(path.join(dir, 'products.csv'), (t) => t.replace('Extruded profile', 'Changed profile'));
+    const failed = await runCli(['build', '--data', dir, '--out', out, '--no-pdf']);
+    expect(failed.code).toBe(1);
+    expect(failed.stderr).toContain(`nothing was written to ${out}`);
+    expect(await hashTree(out)).toEqual(before);
+    expect((await readdir(cwd)).sort()).toEqual(['out']);
+
+    const fresh = path.join(cwd, 'never');
+    const none = await runCli(['build', '--data', dir, '--out', fresh, '--no-pdf']);
+    expect(none.code).toBe(1);
+    await expect(stat(fresh)).rejects.toThrow();
+  });
+
+  it('refuses to replace a folder it did not write (exit 2), and keeps it', async () => {
+    const cwd = await scratch();
+    const precious = path.join(cwd, 'thesis');
+    await mkdir(precious);
+    await writeFile(path.join(precious, 'chapter1.md'), 'years of work\n');
+    const result = await runCli(['build', '--data', DEMO, '--out', precious, '--no-pdf']);
+    expect(result.code).toBe(2);
+    expect(result.stderr).toMatch(/did not write/);
+    expect(await readFile(path.join(precious, 'chapter1.md'), 'utf8')).toBe('years of work\n');
+    const data = await runCli(['build', '--data', DEMO, '--out', DEMO, '--no-pdf']);
+    expect(data.code).toBe(2);
+  });
+
+  it('without a browser builds the HTML, lists the missing PDFs on stderr and exits 0; with --pdf it exits 1', async () => {
+    const cwd = await scratch();
+    const env = { PATH: '/nonexistent', PUPPETEER_EXECUTABLE_PATH: '', PUPPETEER_CACHE_DIR: cwd };
+    const auto = await runCli(['build', '--data', DEMO, '--out', path.join(cwd, 'out')], { env });
+    expect(auto.code, auto.stderr).toBe(0);
+    expect(auto.stderr).toContain('KV-EXT-6060/declaration.pdf');
+    expect(auto.stderr).toMatch(/no browser found/);
+    const required = await runCli(['build', '--data', DEMO, '--out', path.join(cwd, 'out2'), '--pdf'], { env });
+    expect(required.code).toBe(1);
+    await expect(stat(path.join(cwd, 'out2'))).rejects.toThrow();
+  });
+});

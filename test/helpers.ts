@@ -1,0 +1,77 @@
+import { spawn } from 'node:child_process';
+import { cp, mkdtemp, readFile, writeFile, rm, readdir } from 'node:fs/promises';
+import { createHash } from 'node:crypto';
+import os from 'node:os';
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+
+export const ROOT = path.resolve(fileURLToPath(new URL('..', import.meta.url)));
+export const DEMO = path.join(ROOT, 'data');
+export const BIN = path.join(ROOT, 'bin', 'loopsheet.js');
+
+export async function tempDir(prefix = 'loopsheet-test-'): Promise<string> {
+  return mkdtemp(path.join(os.tmpdir(), prefix));
+}
+
+/** A fresh copy of the demo project to break. */
+export async function demoCopy(): Promise<string> {
+  const dir = path.join(await tempDir(), 'data');
+  await cp(DEMO, dir, { recursive: true });
+  return dir;
+}
+
+/** Rewrites one physical line (1-based) of a file; fails loudly if the text to replace is not there. */
+export async function editLine(file: string, line: number, from: string, to: string): Promise<void> {
+  const text = await readFile(file, 'utf8');
+  const lines = text.split('\n');
+  const current = lines[line - 1];
+  if (current === undefined || !current.includes(from)) throw new Error(`${path.basename(file)}:${line} has no "${from}": ${current}`);
+  lines[line - 1] = current.replace(from, to);
+  await writeFile(file, lines.join('\n'));
+}
+
+export async function editFile(file: string, edit: (text: string) => string): Promise<void> {
+  const text = await readFile(file, 'utf8');
+  const edited = edit(text);
+  if (edited === text) throw new Error(`edit of ${path.basename(file)} changed nothing`);
+  await writeFile(file, edited);
+}
+
+export interface CliResult {
+  code: number | null;
+  stdout: string;
+  stderr: string;
+}
+
+/** Runs the real loopsheet binary, as a user or CI would. */
+export function runCli(args: string[], options: { cwd?: string; env?: NodeJS.ProcessEnv } = {}): Promise<CliResult> {
+  return new Promise((resolve, reject) => {
+    const child = spawn(process.execPath, [BIN, ...args], {
+      cwd: options.cwd ?? ROOT,
+      env: { ...process.env, ...options.env },
+      stdio: ['ignore', 'pipe', 'pipe'],
+    });
+    let stdout = '';
+    let stderr = '';
+    child.stdout.on('data', (chunk) => (stdout += chunk));
+    child.stderr.on('data', (chunk) => (stderr += chunk));
+    child.on('error', reject);
+    child.on('close', (code) => resolve({ code, stdout, stderr }));
+  });
+}
+
+/** SHA-256 of every file under a folder, by relative path. */
+export async function hashTree(dir: string): Promise<Record<string, string>> {
+  const result: Record<string, string> = {};
+  const walk = async (current: string) => {
+    for (const entry of await readdir(current, { withFileTypes: true })) {
+      const full = path.join(current, entry.name);
+      if (entry.isDirectory()) await walk(full);
+      else result[path.relative(dir, full)] = createHash('sha256').update(await readFile(full)).digest('hex');
+    }
+  };
+  await walk(dir);
+  return result;
+}
+
+export const removeDir = (dir: string) => rm(dir, { recursive: true, force: true });

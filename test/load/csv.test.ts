@@ -1,0 +1,63 @@
+import { describe, expect, it } from 'vitest';
+import { detectDelimiter, parseCsvText } from '../../src/load/csv.ts';
+import { parseTable } from '../../src/schema/table.ts';
+import { bomCsv } from '../../src/schema/bom.ts';
+
+const parse = (text: string) => {
+  const load = parseCsvText('bom.csv', text);
+  if (!load.ok) throw new Error(JSON.stringify(load.problems));
+  return load;
+};
+
+const HEADER = 'product_id,line_id,component,material,role,mass_kg,recycled_pre,recycled_post,scrap_rate,scrap_fate,source';
+
+describe('CSV dialects', () => {
+  it('detects the delimiter from the header line', () => {
+    expect(detectDelimiter('a,b,c\n1;2;3')).toBe(',');
+    expect(detectDelimiter('# comment, with, commas\na;b;c\n')).toBe(';');
+    expect(detectDelimiter('"a;b",c\n')).toBe(',');
+  });
+
+  it('reads UTF-8 with a byte-order mark, CRLF endings, comments, blank lines and quoted line breaks, keeping physical lines', () => {
+    const text = `\ufeff# first comment\r\n${HEADER}\r\n\r\nP1,L1,"Billet,\r\nround",al,product,1.5,0,0,0,recycled,x\r\n# note\r\n,,,\r\nP1,L2,Film,pe,packaging,0.1,0,0,0,recycled,y\r\n`;
+    const { csv } = parse(text);
+    expect(csv.header.names[0]).toBe('product_id');
+    expect(csv.header.line).toBe(2);
+    expect(csv.records.map((r) => [r.line, r.lineEnd])).toEqual([
+      [4, 5],
+      [8, 8],
+    ]);
+    expect(csv.records[0]!.fields[2]).toBe('Billet,\nround');
+  });
+
+  it('skips lines of only delimiters, as spreadsheets export them', () => {
+    const { csv } = parse(`${HEADER}\n,,,,,,,,,,\nP1,L1,B,al,product,1,0,0,0,recycled,x\n`);
+    expect(csv.records).toHaveLength(1);
+    expect(csv.records[0]!.line).toBe(3);
+  });
+
+  it('reads a semicolon file with decimal commas and percentages', () => {
+    const { csv } = parse(`${HEADER.replaceAll(',', ';')}\nP1;L1;Billet;al;product;0,83;30%;45 %;0,15;recycled;x\n`);
+    const { table, problems } = parseTable(csv, bomCsv);
+    expect(problems).toEqual([]);
+    expect(table.rows[0]!.value).toMatchObject({ mass_kg: 0.83, recycled_pre: 0.3, recycled_post: 0.45, scrap_rate: 0.15 });
+  });
+
+  it('matches header names case-insensitively after trimming, and warns on unknown ones with the nearest name', () => {
+    const { csv } = parse(`${HEADER.replace('mass_kg', ' Mass_KG ').replace('source', 'sorce')}\nP1,L1,B,al,product,1,0,0,0,recycled,x\n`);
+    const { table, problems } = parseTable(csv, bomCsv);
+    expect(table.rows[0]!.value.mass_kg).toBe(1);
+    expect(problems).toEqual([expect.objectContaining({ severity: 'warning', code: 'COLUMN_UNKNOWN', line: 1, columnIndex: 11, hint: 'did you mean "source"?' })]);
+  });
+
+  it('reports an unclosed quote as CSV_SYNTAX with its line', () => {
+    const load = parseCsvText('bom.csv', `${HEADER}\nP1,L1,"Billet,al,product,1,0,0,0,recycled,x\n`);
+    expect(load.problems).toEqual([expect.objectContaining({ code: 'CSV_SYNTAX', file: 'bom.csv', line: 2 })]);
+  });
+
+  it('applies defaults to empty optional cells and reads an empty factor cell as null, never 0', () => {
+    const { csv } = parse(`${HEADER}\nP1,L1,B,al,,1,,,,,\n`);
+    const { table } = parseTable(csv, bomCsv);
+    expect(table.rows[0]!.value).toMatchObject({ role: 'product', recycled_pre: 0, recycled_post: 0, scrap_rate: 0, scrap_fate: 'recycled', source: undefined });
+  });
+});

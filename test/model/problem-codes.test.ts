@@ -1,0 +1,113 @@
+import { afterAll, describe, expect, it } from 'vitest';
+import { rm, writeFile, readFile } from 'node:fs/promises';
+import path from 'node:path';
+import { loadProject } from '../../src/model/project.ts';
+import { PROBLEM_CODES, type Problem, type ProblemCode } from '../../src/problems.ts';
+import { demoCopy, editFile, editLine, removeDir } from '../helpers.ts';
+
+/**
+ * One planted mistake per problem code, in a copy of the demo project; each must be
+ * reported with the right file, physical line and column. Line numbers below are the
+ * demo files' physical lines (comment line 1, header line 2).
+ */
+interface Case {
+  code: ProblemCode;
+  plant: (dir: string) => Promise<void>;
+  expected: Partial<Problem>;
+}
+
+const at = (dir: string, file: string) => path.join(dir, file);
+
+const cases: Case[] = [
+  { code: 'FILE_MISSING', plant: (d) => rm(at(d, 'transport.csv')), expected: { file: 'transport.csv', severity: 'error' } },
+  {
+    code: 'FILE_UNREADABLE',
+    plant: async (d) => writeFile(at(d, 'products.csv'), Buffer.concat([Buffer.from('product_id,name\nP1,Stahltr'), Buffer.from([0xe4]), Buffer.from('ger\n')])),
+    expected: { file: 'products.csv' },
+  },
+  { code: 'CSV_SYNTAX', plant: (d) => editLine(at(d, 'bom.csv'), 6, 'Mill yield report', '"Mill" yield report'), expected: { file: 'bom.csv', line: 6 } },
+  { code: 'JSON_SYNTAX', plant: (d) => editFile(at(d, 'declaration.json'), (t) => t.replace('"illustrative": true', '"illustrative": true,')), expected: { file: 'declaration.json', line: 18, columnIndex: 1, message: expect.stringMatching(/comma too many/) } },
+  { code: 'NO_ROWS', plant: (d) => editFile(at(d, 'products.csv'), (t) => t.split('\n').slice(0, 2).join('\n') + '\n'), expected: { file: 'products.csv', line: 2 } },
+  { code: 'COLUMN_MISSING', plant: (d) => editLine(at(d, 'bom.csv'), 2, 'mass_kg', 'mass'), expected: { file: 'bom.csv', line: 2, column: 'mass_kg' } },
+  { code: 'COLUMN_UNKNOWN', plant: (d) => editLine(at(d, 'bom.csv'), 2, 'mass_kg', 'mass'), expected: { file: 'bom.csv', line: 2, column: 'mass', columnIndex: 6, hint: 'did you mean "mass_kg"?', severity: 'warning' } },
+  { code: 'COLUMN_DUPLICATE', plant: (d) => editLine(at(d, 'products.csv'), 2, 'description', 'NAME'), expected: { file: 'products.csv', line: 2, column: 'name', columnIndex: 6 } },
+  { code: 'COLUMN_IGNORED', plant: (d) => editLine(at(d, 'factors.csv'), 2, ',FW', ',MFR'), expected: { file: 'factors.csv', line: 2, column: 'MFR', columnIndex: 18, severity: 'warning' } },
+  { code: 'FIELD_COUNT', plant: (d) => editLine(at(d, 'bom.csv'), 6, '(illustrative)', '(illustrative),extra'), expected: { file: 'bom.csv', line: 6, columnIndex: 12 } },
+  { code: 'KEY_UNKNOWN', plant: (d) => editFile(at(d, 'declaration.json'), (t) => t.replace('"gwp_set"', '"gwp_sett"')), expected: { file: 'declaration.json', line: 16, column: 'gwp_sett', hint: 'did you mean "gwp_set"?', severity: 'warning' } },
+  { code: 'VALUE_REQUIRED', plant: (d) => editLine(at(d, 'products.csv'), 4, '"Copper busbar 10 × 100 mm, Cu-ETP, tin-plated"', ''), expected: { file: 'products.csv', line: 4, column: 'name', columnIndex: 2 } },
+  { code: 'NOT_A_NUMBER', plant: (d) => editLine(at(d, 'bom.csv'), 6, '0.995', '0.995kg'), expected: { file: 'bom.csv', line: 6, column: 'mass_kg', columnIndex: 6, value: '0.995kg' } },
+  { code: 'THOUSANDS_SEPARATOR', plant: (d) => editLine(at(d, 'activities.csv'), 3, ',1.05,', ',"1,050.5",'), expected: { file: 'activities.csv', line: 3, column: 'amount', value: '1,050.5' } },
+  { code: 'NEGATIVE_VALUE', plant: (d) => editLine(at(d, 'transport.csv'), 3, ',420,', ',-420,'), expected: { file: 'transport.csv', line: 3, column: 'distance_km', value: '-420' } },
+  { code: 'OUT_OF_RANGE', plant: (d) => editLine(at(d, 'bom.csv'), 3, ',0.15,recycled', ',1.5,recycled'), expected: { file: 'bom.csv', line: 3, column: 'scrap_rate', value: '1.5' } },
+  { code: 'BAD_CHOICE', plant: (d) => editLine(at(d, 'bom.csv'), 4, ',packaging,', ',packagin,'), expected: { file: 'bom.csv', line: 4, column: 'role', hint: 'did you mean "packaging"?' } },
+  { code: 'BAD_ID', plant: (d) => editLine(at(d, 'products.csv'), 5, 'KV-BR-40,', 'KV BR/40,'), expected: { file: 'products.csv', line: 5, column: 'product_id' } },
+  { code: 'BAD_DATE', plant: (d) => editFile(at(d, 'declaration.json'), (t) => t.replace('"2026-03-02"', '"2026-02-30"')), expected: { file: 'declaration.json', line: 10, column: 'issued' } },
+  { code: 'BAD_UNIT', plant: (d) => editLine(at(d, 'activities.csv'), 3, ',kWh,', ',kwhh,'), expected: { file: 'activities.csv', line: 3, column: 'unit', hint: 'did you mean "kWh"?' } },
+  { code: 'UNIT_MISMATCH', plant: (d) => editLine(at(d, 'activities.csv'), 4, ',MJ,', ',kg,'), expected: { file: 'activities.csv', line: 4, column: 'unit', value: 'kg' } },
+  { code: 'DUPLICATE_ID', plant: (d) => editLine(at(d, 'materials.csv'), 5, 'tin,Tin', 'zinc,Tin'), expected: { file: 'materials.csv', line: 7, column: 'material', hint: 'first defined on line 5' } },
+  { code: 'UNKNOWN_REFERENCE', plant: (d) => editLine(at(d, 'bom.csv'), 3, ',al-6060,', ',al-6061,'), expected: { file: 'bom.csv', line: 3, column: 'material', value: 'al-6061', hint: 'did you mean "al-6060"?' } },
+  { code: 'RECYCLED_CONTENT_SUM', plant: (d) => editLine(at(d, 'bom.csv'), 3, '30%,45%', '60%,45%'), expected: { file: 'bom.csv', line: 3, column: 'recycled_post' } },
+  { code: 'EOL_SHARES_SUM', plant: (d) => editLine(at(d, 'eol.csv'), 3, '96%,0,0,4%', '96%,0,0,5%'), expected: { file: 'eol.csv', line: 3, column: 'landfill' } },
+  { code: 'EOL_SCENARIO_GAP', plant: (d) => editLine(at(d, 'eol.csv'), 8, 'steel-construction,zinc', 'steel-construction,tin'), expected: { file: 'products.csv', line: 5, column: 'eol_scenario' } },
+  { code: 'UNIT_MASS_MISMATCH', plant: (d) => editLine(at(d, 'products.csv'), 5, ',0.46,', ',0.5,'), expected: { file: 'products.csv', line: 5, column: 'unit_mass_kg', value: '0.5' } },
+  { code: 'NO_BOM_LINES', plant: (d) => editFile(at(d, 'products.csv'), (t) => `${t}KV-NEW,New product,1 kg,1,building-metals,\n`), expected: { file: 'products.csv', line: 6, column: 'product_id' } },
+  { code: 'FACTOR_REQUIRED', plant: (d) => editLine(at(d, 'materials.csv'), 3, 'al-primary-ingot,al-remelted-ingot,', 'al-primary-ingot,,'), expected: { file: 'materials.csv', line: 3, column: 'recycled' } },
+  { code: 'FACTOR_VALUE_MISSING', plant: async () => undefined, expected: { file: 'factors.csv', line: 23, column: 'ODP', severity: 'warning' } },
+  {
+    code: 'INDICATOR_NO_DATA',
+    plant: (d) => editFile(at(d, 'declaration.json'), (t) => t.replace('"gwp_set": "AR6",', '"gwp_set": "AR6",\n  "indicators": ["GWP-total", "PM"],')),
+    expected: { file: 'declaration.json', line: 17, column: 'indicators', value: 'PM', severity: 'warning' },
+  },
+  {
+    code: 'INDICATOR_UNKNOWN',
+    plant: (d) => editFile(at(d, 'declaration.json'), (t) => t.replace('"gwp_set": "AR6",', '"gwp_set": "AR6",\n  "indicators": ["GWP-totl"],')),
+    expected: { file: 'declaration.json', line: 17, column: 'indicators[0]', hint: 'did you mean "GWP-total"?' },
+  },
+  { code: 'DATE_ORDER', plant: (d) => editFile(at(d, 'declaration.json'), (t) => t.replace('"2031-03-01"', '"2025-01-01"')), expected: { file: 'declaration.json', line: 11, column: 'valid_until' } },
+  { code: 'VALIDITY_LONG', plant: (d) => editFile(at(d, 'declaration.json'), (t) => t.replace('"2031-03-01"', '"2032-01-01"')), expected: { file: 'declaration.json', line: 11, column: 'valid_until', severity: 'warning' } },
+  {
+    code: 'VERIFICATION_INCOMPLETE',
+    plant: (d) => editFile(at(d, 'declaration.json'), (t) => t.replace('"status": "draft"', '"status": "verified"')),
+    expected: { file: 'declaration.json', line: 12, column: 'verification.verifier' },
+  },
+  { code: 'SOURCE_MISSING', plant: (d) => editLine(at(d, 'transport.csv'), 3, 'Route planner (illustrative)', ''), expected: { file: 'transport.csv', line: 3, column: 'source', severity: 'warning' } },
+  { code: 'BIOGENIC_CARBON_MISSING', plant: (d) => editLine(at(d, 'materials.csv'), 8, ',14,0.42,', ',14,,'), expected: { file: 'materials.csv', line: 8, column: 'biogenic_c_kg_per_kg', severity: 'warning' } },
+];
+
+const dirs: string[] = [];
+afterAll(async () => Promise.all(dirs.map((d) => removeDir(path.dirname(d)))));
+
+describe('every problem code is reported where the mistake is', () => {
+  it('covers every code in the catalogue', () => {
+    expect(new Set(cases.map((c) => c.code))).toEqual(new Set(Object.keys(PROBLEM_CODES)));
+  });
+
+  it.each(cases)('$code', async ({ code, plant, expected }) => {
+    const dir = await demoCopy();
+    dirs.push(dir);
+    await plant(dir);
+    const { problems, project } = await loadProject(dir);
+    const found = problems.filter((p) => p.code === code);
+    expect(found, JSON.stringify(problems, null, 1)).toContainEqual(expect.objectContaining(expected));
+    const severity = expected.severity ?? 'error';
+    expect(found.every((p) => p.message.length > 0)).toBe(true);
+    if (severity === 'error') expect(project).toBeUndefined();
+  });
+});
+
+describe('the demo project', () => {
+  it('is clean: no errors, one deliberate FACTOR_VALUE_MISSING warning', async () => {
+    const { problems, project } = await loadProject(path.resolve('data'));
+    expect(problems.filter((p) => p.severity === 'error')).toEqual([]);
+    expect(problems.map((p) => p.code)).toEqual(['FACTOR_VALUE_MISSING']);
+    expect(project?.products.rows.map((r) => r.value.product_id)).toEqual(['KV-EXT-6060', 'KV-CU-BB10', 'KV-BR-40']);
+  });
+
+  it('labels its factor values as illustrative', async () => {
+    const text = await readFile(path.resolve('data/factors.csv'), 'utf8');
+    expect(text).toMatch(/ILLUSTRATIVE/);
+    const { project } = await loadProject(path.resolve('data'));
+    expect(project?.factors.rows.every((r) => /illustrative/i.test(`${r.value.dataset} ${r.value.source}`))).toBe(true);
+    expect(project?.declaration.illustrative).toBe(true);
+  });
+});

@@ -1,0 +1,73 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { execFileSync } from 'node:child_process';
+import { readFile, stat } from 'node:fs/promises';
+import path from 'node:path';
+import { findBrowser } from '../../src/render/browser.ts';
+import { DEMO, demoCopy, editFile, removeDir, runCli, tempDir } from '../helpers.ts';
+
+const dirs: string[] = [];
+afterAll(async () => Promise.all(dirs.map(removeDir)));
+
+describe('input text is escaped on every page', () => {
+  it('renders <script>, attribute breakers and template syntax from the CSV as text', async () => {
+    const data = await demoCopy();
+    dirs.push(path.dirname(data));
+    const hostile = '<script>alert(1)</script> "><img src=x onerror=alert(2)> {{ 7*7 }} {% raw %}';
+    await editFile(path.join(data, 'products.csv'), (t) => t.replace('"Angle bracket 40 mm, hot-dip galvanised steel"', `"${hostile.replace(/"/g, '""')}"`));
+    await editFile(path.join(data, 'bom.csv'), (t) => t.replace('Steel blank', '<b onmouseover=alert(3)>Steel</b>'));
+    const out = path.join(path.dirname(data), 'out');
+    const result = await runCli(['build', '--data', data, '--out', out, '--no-pdf']);
+    expect(result.code, result.stderr).toBe(0);
+    for (const page of ['index.html', 'KV-BR-40/index.html']) {
+      const html = await readFile(path.join(out, page), 'utf8');
+      expect(html).not.toContain('<script>alert');
+      expect(html).not.toContain('<img src=x');
+      expect(html).not.toContain('<b onmouseover');
+      expect(html).not.toMatch(/>\s*49\s*</);
+      expect(html).toContain('&lt;script&gt;alert(1)&lt;/script&gt;');
+      expect(html).toContain('{{ 7*7 }}');
+    }
+  });
+});
+
+describe('PDF in a real Chromium', async () => {
+  const browser = await findBrowser();
+  if (!browser) {
+    console.warn('\n*** SKIPPING PDF TESTS: no Chromium or Chrome found (PUPPETEER_EXECUTABLE_PATH, PATH, puppeteer cache). .ci/run installs Debian’s chromium. ***\n');
+  }
+  let out = '';
+  let stderr = '';
+  beforeAll(async () => {
+    if (!browser) return;
+    const dir = await tempDir();
+    dirs.push(dir);
+    out = path.join(dir, 'out');
+    const result = await runCli(['build', '--data', DEMO, '--out', out, '--pdf']);
+    expect(result.code, result.stderr).toBe(0);
+    stderr = result.stderr;
+  });
+
+  it.skipIf(!browser)('writes a PDF per product and says which browser it used', async () => {
+    expect(stderr).toMatch(/PDF: using .+ \(found via (PUPPETEER_EXECUTABLE_PATH|PATH|puppeteer cache)\)/);
+    for (const id of ['KV-EXT-6060', 'KV-CU-BB10', 'KV-BR-40']) {
+      const pdf = await readFile(path.join(out, id, 'declaration.pdf'));
+      expect(pdf.subarray(0, 5).toString()).toBe('%PDF-');
+      expect((await stat(path.join(out, id, 'declaration.pdf'))).size).toBeGreaterThan(10_000);
+    }
+  });
+
+  it.skipIf(!browser)('the PDF has text, the draft banner and the illustrative label (read with poppler pdftotext)', () => {
+    let text: string;
+    try {
+      text = execFileSync('pdftotext', ['-layout', path.join(out, 'KV-CU-BB10', 'declaration.pdf'), '-'], { encoding: 'utf8' });
+    } catch {
+      console.warn('*** pdftotext (poppler-utils) not installed: PDF text not checked ***');
+      return;
+    }
+    expect(text).toContain('Draft — not verified.');
+    expect(text).toContain('Illustrative data.');
+    expect(text).toContain('Copper busbar 10 × 100 mm');
+    expect(text).toContain('bom.csv:6');
+    expect(text).toMatch(/page 1 of \d/);
+  });
+});

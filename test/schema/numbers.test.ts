@@ -1,0 +1,66 @@
+import { describe, expect, it } from 'vitest';
+import { readNumber, readShare } from '../../src/schema/numbers.ts';
+
+const comma = { decimalComma: false };
+const semicolon = { decimalComma: true };
+
+describe('numbers as users write them', () => {
+  it.each([
+    ['0.35', 0.35],
+    ['12', 12],
+    ['-3.5', -3.5],
+    ['+2', 2],
+    ['.5', 0.5],
+    ['1.2e-3', 0.0012],
+    ['4E2', 400],
+    [' 7.25 ', 7.25],
+    ['0.350', 0.35],
+  ])('comma file: %s → %d', (written, value) => {
+    expect(readNumber(written, comma)).toEqual({ ok: true, value });
+  });
+
+  it.each([
+    ['0,35', 0.35],
+    ['12,5', 12.5],
+    ['-0,001', -0.001],
+    ['1,5e3', 1500],
+    ['0.35', 0.35],
+    ['0.350', 0.35],
+  ])('semicolon file: %s → %d (decimal comma accepted)', (written, value) => {
+    expect(readNumber(written, semicolon)).toEqual({ ok: true, value });
+  });
+
+  it.each([
+    ['1,234.5', comma],
+    ['1,234', comma],
+    ['1.234,5', semicolon],
+    ['1 234', comma],
+    ['1 234,5', semicolon],
+    ["1'234", comma],
+    ['1.234', semicolon],
+    ['12.345.678', semicolon],
+  ])('refuses the thousands separator in %s', (written, dialect) => {
+    expect(readNumber(written, dialect)).toMatchObject({ ok: false, code: 'THOUSANDS_SEPARATOR' });
+  });
+
+  it.each([['12,5kg'], ['12.5kg'], ['abc'], [''], ['1.2.3'], ['NaN'], ['Infinity'], ['0x10'], ['5%']])('refuses %s as a number', (written) => {
+    expect(readNumber(written, semicolon)).toMatchObject({ ok: false, code: 'NOT_A_NUMBER' });
+  });
+
+  it('says why a decimal comma fails in a comma-separated file', () => {
+    expect(readNumber('0,35', comma)).toMatchObject({ ok: false, code: 'NOT_A_NUMBER', reason: expect.stringMatching(/semicolon/) });
+  });
+
+  it.each([
+    ['35%', comma, 0.35],
+    ['35 %', comma, 0.35],
+    ['0.35', comma, 0.35],
+    ['12,5%', semicolon, 0.125],
+    ['100%', comma, 1],
+    ['0', comma, 0],
+  ])('share %s → %d', (written, dialect, value) => {
+    const read = readShare(written, dialect);
+    expect(read.ok).toBe(true);
+    if (read.ok) expect(read.value).toBeCloseTo(value, 12);
+  });
+});
