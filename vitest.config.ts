@@ -3,6 +3,7 @@ import { defineConfig } from 'vitest/config';
 export default defineConfig({
   test: {
     include: ['test/**/*.test.ts'],
+    reporters: ['default', './test/summary-reporter.ts'],
     // CLI and browser tests start real processes; two cores, so keep the pool small.
     pool: 'forks',
     maxWorkers: 2,

@@ -23,13 +23,15 @@ export interface Cell {
   text: string;
   /** Right-aligned number column. */
   numeric?: boolean;
+  /** A link, relative to the page the cell is on. */
+  href?: string;
 }
 
 export interface TableView {
   title: string;
   caption: string;
   headers: Array<{ text: string; numeric?: boolean }>;
-  rows: Array<{ cells: Cell[]; source: SourceRef }>;
+  rows: Array<{ cells: Cell[]; source: SourceRef; anchor?: string }>;
   empty: string;
 }
 
@@ -68,6 +70,8 @@ export interface SiteView {
   };
   cautions: string[];
   products: ProductView[];
+  /** Every factor row once, on its own page; product pages link to it. */
+  factors: TableView;
   warnings: string[];
   indicators: Array<{ code: string; name: string; unit: string }>;
 }
@@ -78,8 +82,15 @@ export const CAUTIONS = [
   'Emission figures used for regulatory reporting must follow the monitoring rules of the jurisdiction and be checked by an accredited verifier; this tool supports, and does not replace, that practice.',
 ];
 
+/** Each file's physical lines, split once per file (not once per row). */
+const linesCache = new WeakMap<object, string[]>();
+
 function sourceOf(table: Table<unknown>, row: { line: number; lineEnd: number }): SourceRef {
-  const lines = table.csv.text.split('\n');
+  let lines = linesCache.get(table.csv);
+  if (!lines) {
+    lines = table.csv.text.split('\n');
+    linesCache.set(table.csv, lines);
+  }
   return {
     label: `${table.file}:${row.line}`,
     file: table.file,
@@ -114,7 +125,8 @@ export function buildSiteView(project: Project, problems: readonly Problem[]): S
       illustrative: d.illustrative,
     },
     cautions: CAUTIONS,
-    products: project.products.rows.map((row) => productView(project, row)),
+    products: productViews(project),
+    factors: factorTable(project, project.factors.rows),
     warnings: problems.filter((p) => p.severity === 'warning').map(formatProblem),
     indicators: project.indicators.map((code) => {
       const indicator = findIndicator(code)!;
@@ -123,14 +135,70 @@ export function buildSiteView(project: Project, problems: readonly Problem[]): S
   };
 }
 
-function productView(project: Project, productRow: Row<Product>): ProductView {
+/** A fragment id for a factor row (ids may hold characters that are awkward in URLs). */
+export const factorAnchor = (factorId: string) => `f-${encodeURIComponent(factorId).replace(/%/g, '_')}`;
+
+function factorTable(project: Project, rows: Project['factors']['rows']): TableView {
+  const codes = project.indicators.filter((code) => project.factorIndicators.includes(code));
+  return {
+    title: 'Factor table',
+    caption: 'Every row of factors.csv, values per row unit. An empty cell is “not available”, never zero.',
+    headers: [{ text: 'Factor' }, { text: 'Name' }, { text: 'Per' }, { text: 'Dataset' }, ...codes.map((code) => ({ text: code, numeric: true }))],
+    rows: rows.map((row) => ({
+      anchor: factorAnchor(row.value.factor_id),
+      source: sourceOf(project.factors, row),
+      cells: [
+        txt(row.value.factor_id),
+        txt(row.value.name),
+        txt(row.value.unit),
+        txt(row.value.dataset),
+        ...codes.map((code) => {
+          const value = indicatorValue(row.value, code);
+          return value === null ? txt('n/a') : num(value);
+        }),
+      ],
+    })),
+    empty: 'No factors.',
+  };
+}
+
+function groupBy<T>(rows: T[], key: (row: T) => string): Map<string, T[]> {
+  const groups = new Map<string, T[]>();
+  for (const row of rows) {
+    const k = key(row);
+    const group = groups.get(k);
+    if (group) group.push(row);
+    else groups.set(k, [row]);
+  }
+  return groups;
+}
+
+interface ProductIndex {
+  bom: Map<string, Project['bom']['rows']>;
+  activities: Map<string, Project['activities']['rows']>;
+  transport: Map<string, Project['transport']['rows']>;
+  eol: Map<string, Project['eol']['rows']>;
+}
+
+/** Rows grouped by product once, so building every page is linear in the catalogue. */
+function productViews(project: Project): ProductView[] {
+  const index: ProductIndex = {
+    bom: groupBy(project.bom.rows, (row) => row.value.product_id),
+    activities: groupBy(project.activities.rows, (row) => row.value.product_id),
+    transport: groupBy(project.transport.rows, (row) => row.value.product_id),
+    eol: groupBy(project.eol.rows, (row) => row.value.scenario),
+  };
+  return project.products.rows.map((row) => productView(project, index, row));
+}
+
+function productView(project: Project, index: ProductIndex, productRow: Row<Product>): ProductView {
   const product = productRow.value;
-  const lines = project.bom.rows.filter((row) => row.value.product_id === product.product_id);
-  const activities = project.activities.rows.filter((row) => row.value.product_id === product.product_id);
-  const legs = project.transport.rows.filter((row) => row.value.product_id === product.product_id);
+  const lines = index.bom.get(product.product_id) ?? [];
+  const activities = index.activities.get(product.product_id) ?? [];
+  const legs = index.transport.get(product.product_id) ?? [];
   const materialIds = new Set(lines.map((row) => row.value.material));
   const materials = project.materials.rows.filter((row) => materialIds.has(row.value.material));
-  const eolRows = project.eol.rows.filter((row) => row.value.scenario === product.eol_scenario);
+  const eolRows = index.eol.get(product.eol_scenario) ?? [];
 
   const factorIds = new Set<string>();
   for (const m of materials) for (const id of [m.value.virgin, m.value.recycled, m.value.eol_recycling, m.value.substituted, m.value.landfill, m.value.incineration]) if (id) factorIds.add(id);
@@ -196,21 +264,11 @@ function productView(project: Project, productRow: Row<Product>): ProductView {
     },
     {
       title: 'Factors used',
-      caption: `Factor rows this product reaches, with their dataset; values per row unit. An empty cell is “not available”, never zero.`,
-      headers: [{ text: 'Factor' }, { text: 'Unit' }, { text: 'Dataset' }, ...project.indicators.filter((code) => project.factorIndicators.includes(code)).map((code) => ({ text: code, numeric: true }))],
+      caption: 'Factor rows this product reaches; their values per indicator are on the factor table page.',
+      headers: [{ text: 'Factor' }, { text: 'Name' }, { text: 'Per' }, { text: 'Dataset' }],
       rows: factors.map((row) => ({
         source: sourceOf(project.factors, row),
-        cells: [
-          txt(row.value.factor_id),
-          txt(row.value.unit),
-          txt(row.value.dataset),
-          ...project.indicators
-            .filter((code) => project.factorIndicators.includes(code))
-            .map((code) => {
-              const value = indicatorValue(row.value, code);
-              return value === null ? txt('n/a') : num(value);
-            }),
-        ],
+        cells: [{ text: row.value.factor_id, href: `../factors/index.html#${factorAnchor(row.value.factor_id)}` }, txt(row.value.name), txt(row.value.unit), txt(row.value.dataset)],
       })),
       empty: 'No factors.',
     },

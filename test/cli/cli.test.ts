@@ -152,8 +152,11 @@ describe('loopsheet build', () => {
     expect(result.code, result.stderr).toBe(0);
     expect(result.stdout).toContain('built 3 products into site');
     const site = path.join(cwd, 'site');
-    expect((await readdir(site)).sort()).toEqual(['.loopsheet-output', 'KV-BR-40', 'KV-CU-BB10', 'KV-EXT-6060', 'assets', 'index.html']);
+    expect((await readdir(site)).sort()).toEqual(['.loopsheet-output', 'KV-BR-40', 'KV-CU-BB10', 'KV-EXT-6060', 'assets', 'factors', 'index.html']);
+    const factors = await readFile(path.join(site, 'factors', 'index.html'), 'utf8');
+    expect(factors).toContain('id="f-grid-electricity"');
     const page = await readFile(path.join(site, 'KV-CU-BB10', 'index.html'), 'utf8');
+    expect(page).toContain('href="../factors/index.html#f-cu-cathode-primary"');
     expect(page).toContain('Copper busbar 10 × 100 mm, Cu-ETP, tin-plated');
     expect(page).toContain('bom.csv:6');
     expect(page).toContain('Draft — not verified.');
@@ -161,6 +164,14 @@ describe('loopsheet build', () => {
     expect(page).toContain('href="../assets/style.css"');
     // Eleventy's own summary must not reach stdout, which is for results.
     expect(result.stdout).not.toMatch(/\[11ty\]/);
+  });
+
+  it('is deterministic: two builds of the same inputs are byte-identical', async () => {
+    const cwd = await scratch();
+    const a = await runCli(['build', '--data', DEMO, '--out', path.join(cwd, 'a'), '--no-pdf']);
+    const b = await runCli(['build', '--data', DEMO, '--out', path.join(cwd, 'b'), '--no-pdf']);
+    expect([a.code, b.code]).toEqual([0, 0]);
+    expect(await hashTree(path.join(cwd, 'a'))).toEqual(await hashTree(path.join(cwd, 'b')));
   });
 
   it('writes nothing when validation fails, and leaves an earlier output byte-identical', async () => {
