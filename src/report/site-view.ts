@@ -211,8 +211,8 @@ function productView(project: Project, index: ProductIndex, productRow: Row<Prod
   const tables: TableView[] = [
     {
       title: 'Bill of materials',
-      caption: `Material lines in one declared unit (${product.declared_unit}); masses are net, shares are of the input.`,
-      headers: [{ text: 'Line' }, { text: 'Component' }, { text: 'Material' }, { text: 'Role' }, { text: 'Mass (kg)', numeric: true }, { text: 'Pre-consumer recycled', numeric: true }, { text: 'Post-consumer recycled', numeric: true }, { text: 'Scrap rate', numeric: true }, { text: 'Scrap to' }, { text: 'Source' }],
+      caption: `Material lines in one declared unit (${product.declared_unit}); masses are net; pre- and post-consumer recycled content (ISO 14021) and scrap rate are shares of the input.`,
+      headers: [{ text: 'Line' }, { text: 'Component' }, { text: 'Material' }, { text: 'Role' }, { text: 'Mass (kg)', numeric: true }, { text: 'Pre-consumer', numeric: true }, { text: 'Post-consumer', numeric: true }, { text: 'Scrap rate', numeric: true }, { text: 'Scrap to' }, { text: 'Source' }],
       rows: lines.map((row) => ({
         source: sourceOf(project.bom, row),
         cells: [txt(row.value.line_id), txt(row.value.component), txt(row.value.material), txt(row.value.role), num(row.value.mass_kg), pct(row.value.recycled_pre), pct(row.value.recycled_post), pct(row.value.scrap_rate), txt(row.value.scrap_fate), txt(row.value.source)],

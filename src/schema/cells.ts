@@ -129,6 +129,24 @@ function quantityIssue(value: number, options: QuantityOptions, expected: string
   return true;
 }
 
+/** Reads a written (non-blank) number cell and applies the sign rules; z.NEVER after an issue. */
+function parseQuantity(written: string, dialect: Dialect, options: QuantityOptions, expected: string, ctx: Ctx): number {
+  const read = readNumber(written, dialect);
+  if (!read.ok) return report(ctx, read.code, `expected ${expected}: ${read.reason}`, expected);
+  if (!quantityIssue(read.value, options, expected, ctx)) return z.NEVER;
+  return read.value;
+}
+
+/** Reads a written (non-blank) share cell and checks its range; z.NEVER after an issue. */
+function parseShare(written: string, dialect: Dialect, belowOne: boolean, expected: string, ctx: Ctx): number {
+  const read = readShare(written, dialect);
+  if (!read.ok) return report(ctx, read.code, `expected ${expected}: ${read.reason}`, expected);
+  if (read.value < 0 || read.value > 1 || (belowOne && read.value >= 1)) {
+    return report(ctx, 'OUT_OF_RANGE', `is outside ${belowOne ? '0 ≤ x < 1' : '0–1'}`, expected);
+  }
+  return read.value;
+}
+
 /** A number in a stated unit. Empty is "not given": undefined, or the default. */
 export function quantity(dialect: Dialect, description: string, unit: string, options: QuantityOptions = {}) {
   const required = options.required ?? options.default === undefined;
@@ -139,10 +157,7 @@ export function quantity(dialect: Dialect, description: string, unit: string, op
         if (options.default !== undefined) return options.default;
         return report(ctx, 'VALUE_REQUIRED', 'is empty', expected);
       }
-      const read = readNumber(raw, dialect);
-      if (!read.ok) return report(ctx, read.code, `expected ${expected}: ${read.reason}`, expected);
-      if (!quantityIssue(read.value, options, expected, ctx)) return z.NEVER;
-      return read.value;
+      return parseQuantity(raw, dialect, options, expected, ctx);
     }),
     { description, kind: 'number', required, unit, ...(options.default === undefined ? {} : { default: options.default }) },
   );
@@ -154,10 +169,7 @@ export function optionalQuantity(dialect: Dialect, description: string, unit: st
   return withMeta(
     cell().transform((raw, ctx): number | null => {
       if (isBlank(raw)) return null;
-      const read = readNumber(raw, dialect);
-      if (!read.ok) return report(ctx, read.code, `expected ${expected}: ${read.reason}`, expected);
-      if (!quantityIssue(read.value, options, expected, ctx)) return z.NEVER;
-      return read.value;
+      return parseQuantity(raw, dialect, options, expected, ctx);
     }),
     { description, kind: 'number', required: false, unit },
   );
@@ -179,13 +191,7 @@ export function share(dialect: Dialect, description: string, options: ShareOptio
         if (options.default !== undefined) return options.default;
         return report(ctx, 'VALUE_REQUIRED', 'is empty', expected);
       }
-      const read = readShare(raw, dialect);
-      if (!read.ok) return report(ctx, read.code, `expected ${expected}: ${read.reason}`, expected);
-      const value = read.value;
-      if (value < 0 || value > 1 || (options.belowOne && value >= 1)) {
-        return report(ctx, 'OUT_OF_RANGE', `is outside ${options.belowOne ? '0 ≤ x < 1' : '0–1'}`, expected);
-      }
-      return value;
+      return parseShare(raw, dialect, options.belowOne ?? false, expected, ctx);
     }),
     { description, kind: 'share', required, unit: 'share (0–1 or %)', ...(options.default === undefined ? {} : { default: options.default }) },
   );
@@ -250,10 +256,7 @@ export function optionalShare(dialect: Dialect, description: string) {
   return withMeta(
     cell().transform((raw, ctx): number | undefined => {
       if (isBlank(raw)) return undefined;
-      const read = readShare(raw, dialect);
-      if (!read.ok) return report(ctx, read.code, `expected ${expected}: ${read.reason}`, expected);
-      if (read.value < 0 || read.value > 1) return report(ctx, 'OUT_OF_RANGE', 'is outside 0–1', expected);
-      return read.value;
+      return parseShare(raw, dialect, false, expected, ctx);
     }),
     { description, kind: 'share', required: false, unit: 'share (0–1 or %)' },
   );
