@@ -7,6 +7,7 @@ import { checkOutputDir, withStagedOutput } from '../render/output.ts';
 import { printPdfs } from '../render/pdf.ts';
 import { renderSite } from '../render/site.ts';
 import { EXIT, type Io } from './io.ts';
+import { writeResults } from '../render/results-files.ts';
 import { printProblems } from './report-problems.ts';
 
 export interface BuildOptions {
@@ -34,6 +35,7 @@ export async function runBuild(options: BuildOptions, io: Io): Promise<number> {
   let missingPdfs: string[] = [];
   await withStagedOutput(options.out, async (staging) => {
     await renderSite(view, staging);
+    await writeResults(project, staging);
     const jobs = view.products.map((product) => ({
       html: path.join(staging, product.id, 'index.html'),
       pdf: path.join(staging, product.pdf),

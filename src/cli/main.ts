@@ -40,6 +40,25 @@ validation fails, and a failed build leaves the previous output untouched.
     run: async (values, _positionals, io) =>
       (await import('./build.ts')).runBuild({ data: str(values.data) ?? 'data', out: str(values.out) ?? 'out', pdf: values['no-pdf'] === true ? 'off' : values.pdf === true ? 'required' : 'auto' }, io),
   },
+  explain: {
+    summary: 'show how a figure is derived, down to the input cells',
+    usage: `loopsheet explain PRODUCT FIGURE_ID [--data DIR] [--depth N]
+
+Prints the derivation of one figure of a product as a tree: each step's formula and
+value, down to the CSV cells (file, line, column, value as written). Figure ids are the
+keys of results.json "figures", e.g. cutoff/A1/GWP-total, cutoff/D/GWP-total,
+cff/total/GWP-total, flows/recycled_content/total.
+
+  --data DIR   the data folder (default ./data)
+  --depth N    stop after N levels (default: all the way down)`,
+    options: { data: { type: 'string' }, depth: { type: 'string' } },
+    positionals: { min: 2, max: 2 },
+    run: async (values, positionals, io) => {
+      const depth = values.depth === undefined ? Infinity : Number(values.depth);
+      if (depth !== Infinity && (!Number.isInteger(depth) || depth < 0)) throw new UsageError(`--depth ${String(values.depth)}: expected a whole number`);
+      return (await import('./explain.ts')).runExplain({ data: str(values.data) ?? 'data', product: positionals[0]!, figure: positionals[1]!, depth }, io);
+    },
+  },
   init: {
     summary: 'scaffold a new data folder',
     usage: `loopsheet init DIR [--force]

@@ -2,7 +2,7 @@ import path from 'node:path';
 import { loadCsv, type CsvFile } from '../load/csv.ts';
 import { loadJson, locate, jsonPath, type JsonFile } from '../load/json.ts';
 import { sortProblems, type Problem } from '../problems.ts';
-import { FACTOR_INDICATOR_CODES, findIndicator, inReportingOrder } from '../reference/indicators.ts';
+import { FACTOR_INDICATOR_CODES, INDICATORS, findIndicator, inReportingOrder } from '../reference/indicators.ts';
 import { CSV_FILES, DECLARATION_FILE, productsCsv, bomCsv, materialsCsv, eolCsv, activitiesCsv, transportCsv, factorsCsv } from '../schema/index.ts';
 import { declarationSchema, DECLARATION_KEYS, type Declaration } from '../schema/declaration.ts';
 import { describeIssue } from '../schema/issues.ts';
@@ -63,7 +63,9 @@ export async function loadProject(dirArgument: string): Promise<ProjectLoad> {
   });
 
   const factorIndicators = factors ? inReportingOrder(Object.keys(factors.columns).filter((name) => FACTOR_INDICATOR_CODES.includes(name))) : [];
-  const indicators = declaration?.indicators ? inReportingOrder(declaration.indicators) : factorIndicators;
+  // Default: every indicator factors.csv has a column for, and the flow indicators, which come from the product's own mass flows.
+  const flowIndicators = INDICATORS.filter((i) => i.basis === 'flows').map((i) => i.code);
+  const indicators = declaration?.indicators ? inReportingOrder(declaration.indicators) : inReportingOrder([...factorIndicators, ...flowIndicators]);
 
   if (products && bom && materials && eol && activities && transport && factors) {
     const tables = { dir, indicators, factorIndicators, products, bom, materials, eol, activities, transport, factors };

@@ -70,6 +70,15 @@ export const declarationSchema = z
       .optional()
       .meta({ description: 'Recycling-credit methods to report besides cut-off (always computed); default: all.' }),
     gwp_set: z.enum(['AR6', 'AR5']).default('AR6').meta({ description: 'GWP-100 set for direct greenhouse-gas emissions (ghg:… factors).' }),
+    energy_recovery: z
+      .object({
+        electricity_efficiency: z.number().min(0).max(1).meta({ description: 'Net electrical efficiency of the incineration plant: MJ electricity exported per MJ (LHV) of waste.' }),
+        heat_efficiency: z.number().min(0).max(1).meta({ description: 'Net thermal efficiency: MJ heat exported per MJ (LHV) of waste.' }),
+        electricity_factor: z.string().min(1).meta({ description: 'Factor id (per kWh or MJ) of the electricity that exported electricity replaces.' }),
+        heat_factor: z.string().min(1).meta({ description: 'Factor id (per MJ) of the heat that exported heat replaces.' }),
+      })
+      .optional()
+      .meta({ description: 'Energy recovery beyond the system boundary (module D, CFF energy part); needed when a product material goes to energy recovery and has a heating value.' }),
     illustrative: z
       .boolean()
       .default(false)
@@ -97,6 +106,7 @@ export const DECLARATION_KEYS: Record<string, readonly string[]> = {
   owner: ['name', 'address', 'contact'],
   verification: ['status', 'verifier', 'date'],
   'background_data[]': ['name', 'version', 'licence'],
+  energy_recovery: ['electricity_efficiency', 'heat_efficiency', 'electricity_factor', 'heat_factor'],
 };
 
 export const declarationExample = {

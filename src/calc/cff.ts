@@ -1,0 +1,180 @@
+import { cellTerm, figureTerm, type FigureGraph, type Term } from '../trace/graph.ts';
+import { conversionTerm, type CalcContext, type ResolvedFactor } from './context.ts';
+import type { CutoffResult } from './cutoff.ts';
+import type { Inventory, LineFlows, MaterialEol } from './inventory.ts';
+import { sumFigure, vectorFigure } from './nodes.ts';
+import { addScaled, minusScaled, scaled, zeros } from './vector.ts';
+
+/**
+ * The Circular Footprint Formula (Commission Recommendation (EU) 2021/2279, Annex C), per
+ * material line, with B = 0:
+ *   material: G·[(1−R1)·Ev + R1·(A·Erec + (1−A)·Ev·Qsin/Qp)] + M·(1−A)·R2·(ErecEoL − E*v·Qsout/Qp)
+ *   energy:   M·R3·(EER − LHV·X_heat·E_heat − LHV·X_el·E_el)
+ *   disposal: M·(1 − R2 − R3 − reuse)·ED
+ * with R2 = recycling·yield and R3 = energy_recovery. The same equation with A = 0 is the
+ * end-of-life recycling (0:100) method and with A = 0.5 the 50:50 method: presets, not copies.
+ */
+export type CffMethod = 'cff' | 'eol-recycling' | 'fifty-fifty';
+
+const PRESET_A: Record<Exclude<CffMethod, 'cff'>, number> = { 'eol-recycling': 0, 'fifty-fifty': 0.5 };
+
+/** Default A where materials.csv leaves cff_a empty: 0.2 for metals (Annex C), else 0.5 (from memory: the default where no Annex C value applies). */
+export const defaultA = (family: string): number => (family === 'metal' ? 0.2 : 0.5);
+
+export interface CffResult {
+  parts: { material: string; energy: string; disposal: string };
+  total: string;
+}
+
+export function circularFootprint(ctx: CalcContext, graph: FigureGraph, inv: Inventory, cut: CutoffResult, method: CffMethod): CffResult {
+  const factor = (id: string): ResolvedFactor => {
+    const resolved = ctx.factor(id);
+    resolved.ensure(graph);
+    return resolved;
+  };
+  const allocation = (line: LineFlows): { a: number; term: Term } => {
+    if (method !== 'cff') {
+      const a = PRESET_A[method];
+      const id = `reference/method/${method}/A`;
+      if (!graph.get(id)) graph.add({ kind: 'scalar', id, value: a, unit: 'share', formula: `A = ${a}`, description: `The ${method === 'eol-recycling' ? 'end-of-life recycling (0:100)' : '50:50'} method: the Circular Footprint Formula with A = ${a} for every material.`, terms: [] });
+      return { a, term: figureTerm(id, 'A') };
+    }
+    const material = line.material.value;
+    if (material.cff_a !== undefined) return { a: material.cff_a, term: cellTerm(ctx.cell(ctx.project.materials, line.material, 'cff_a'), 'A') };
+    const a = defaultA(material.family);
+    const id = `reference/method/cff/default-A/${material.family === 'metal' ? 'metal' : 'other'}`;
+    if (!graph.get(id)) graph.add({ kind: 'scalar', id, value: a, unit: 'share', formula: `A = ${a}`, description: material.family === 'metal' ? 'Default allocation factor for metals, Recommendation (EU) 2021/2279 Annex C.' : 'Default allocation factor where materials.csv gives none (from memory of the PEF default).', terms: [] });
+    return { a, term: figureTerm(id, 'A') };
+  };
+  const eolOf = new Map<string, MaterialEol>(inv.materials.map((m) => [m.materialId, m]));
+  const materialIds: string[] = [];
+  const energyIds: string[] = [];
+  const disposalIds: string[] = [];
+
+  for (const line of inv.lines) {
+    const material = line.material.value;
+    const { a, term: aTerm } = allocation(line);
+    const ev = factor(material.virgin);
+    // Production of the gross input: the recycled share carries A·Erec + (1−A)·Ev·Qsin/Qp.
+    const values = scaled(ev.values, line.grossKg * (1 - line.r1));
+    const terms: Term[] = [figureTerm(line.ids.gross, 'G'), figureTerm(line.ids.r1, 'R1'), aTerm, ev.term('Ev')];
+    if (line.r1 > 0) {
+      const erec = factor(material.recycled!);
+      addScaled(values, erec.values, line.grossKg * line.r1 * a);
+      addScaled(values, ev.values, line.grossKg * line.r1 * (1 - a) * material.q_in);
+      terms.push(erec.term('Erec'), cellTerm(ctx.cell(ctx.project.materials, line.material, 'q_in'), 'Qsin/Qp'));
+    }
+    const m = line.line.role === 'product' ? eolOf.get(line.line.material) : undefined;
+    let formula = 'G·[(1−R1)·Ev + R1·(A·Erec + (1−A)·Ev·Qsin/Qp)]';
+    if (m) {
+      const e = m.eol.value;
+      const eolCell = (column: string) => cellTerm(ctx.cell(ctx.project.eol, m.eol, column), column);
+      const r2 = e.recycling * e.recycling_yield;
+      // Process scrap sent to recycling earns the same end-of-life term as the product (rule in DEVELOPERS.md).
+      const scrapKg = line.line.scrap_fate === 'recycled' ? line.scrapKg : 0;
+      const recycledOutKg = line.line.mass_kg * r2 + scrapKg * e.recycling_yield;
+      if (recycledOutKg > 0 && a < 1) {
+        const recycling = factor(material.eol_recycling!);
+        const substituted = factor(material.substituted ?? material.virgin);
+        const perKg = minusScaled(recycling.values, substituted.values, material.q_out);
+        addScaled(values, perKg, recycledOutKg * (1 - a));
+        terms.push(
+          cellTerm(ctx.cell(ctx.project.bom, line.row, 'mass_kg'), 'M'),
+          eolCell('recycling'),
+          eolCell('recycling_yield'),
+          ...(scrapKg > 0 ? [figureTerm(line.ids.scrap, 'scrap')] : []),
+          recycling.term('ErecEoL'),
+          substituted.term('E*v'),
+          cellTerm(ctx.cell(ctx.project.materials, line.material, 'q_out'), 'Qsout/Qp'),
+        );
+        formula += ' + (M·R2 + scrap·yield)·(1−A)·(ErecEoL − E*v·Qsout/Qp)';
+      }
+      energyIds.push(...energyPart(ctx, graph, method, line, m, factor));
+      disposalIds.push(disposalPart(ctx, graph, method, line, m, factor));
+    }
+    const id = `${method}/material/${line.key}`;
+    vectorFigure(graph, id, values, formula, `${method === 'cff' ? 'Circular Footprint Formula' : method} material part for ${line.line.component} (${material.material}).`, terms);
+    materialIds.push(id);
+  }
+
+  const materialPart = sumFigure(graph, `${method}/material`, materialIds, 'Σ lines material part', 'Material part: production of the inputs with the recycled-content credit shared by A, and the end-of-life recycling credit shared by 1 − A.');
+  const energyPartId = sumFigure(graph, `${method}/energy`, energyIds, 'Σ lines (1−B)·R3·M·(EER − LHV·X_heat·E_heat − LHV·X_el·E_el), B = 0', 'Energy part: incineration with energy recovery, minus the energy it replaces.');
+  const disposalPart_ = sumFigure(graph, `${method}/disposal`, disposalIds, 'Σ lines M·(1 − R2 − R3 − reuse)·ED', 'Disposal part: what is neither recycled, re-used nor recovered for energy.');
+  const others = [cut.parts.a2, cut.parts.a3Activities, cut.parts.a3ScrapDisposal, ...(cut.parts.a4 ? [cut.parts.a4] : []), ...(cut.parts.a5 ? [cut.parts.a5] : []), cut.parts.c1, cut.parts.c2, cut.parts.c3Processing];
+  const total = sumFigure(
+    graph,
+    `${method}/total`,
+    [materialPart.id, energyPartId.id, disposalPart_.id, ...others],
+    'total = material + energy + disposal + A2 + A3 activities + A3 scrap disposal + C1 + C2 + C3 processing',
+    'Method total over the life cycle; the disposal part replaces C4 and the energy part replaces incineration with energy recovery in C3.',
+    (child) => child.replace(/^cutoff\//, ''),
+  );
+  return { parts: { material: materialPart.id, energy: energyPartId.id, disposal: disposalPart_.id }, total: total.id };
+}
+
+function energyPart(ctx: CalcContext, graph: FigureGraph, method: CffMethod, line: LineFlows, m: MaterialEol, factor: (id: string) => ResolvedFactor): string[] {
+  const e = m.eol.value;
+  const material = line.material.value;
+  if (e.energy_recovery <= 0 || !material.incineration) return [];
+  const massKg = line.line.mass_kg * e.energy_recovery;
+  const eer = factor(material.incineration);
+  const values = scaled(eer.values, massKg);
+  const eolCell = cellTerm(ctx.cell(ctx.project.eol, m.eol, 'energy_recovery'), 'R3');
+  const terms: Term[] = [cellTerm(ctx.cell(ctx.project.bom, line.row, 'mass_kg'), 'M'), eolCell, eer.term('EER')];
+  const energy = ctx.project.declaration.energy_recovery;
+  const lhv = material.lhv_mj_per_kg;
+  if (energy && lhv !== null && lhv > 0) {
+    const mj = massKg * lhv;
+    const elec = factor(energy.electricity_factor);
+    const heat = factor(energy.heat_factor);
+    const toElec = conversionTerm(graph, 'MJ', elec.unit);
+    const toHeat = conversionTerm(graph, 'MJ', heat.unit);
+    addScaled(values, elec.values, -mj * energy.electricity_efficiency * toElec.factor);
+    addScaled(values, heat.values, -mj * energy.heat_efficiency * toHeat.factor);
+    terms.push(
+      cellTerm(ctx.cell(ctx.project.materials, line.material, 'lhv_mj_per_kg'), 'LHV'),
+      cellTerm(ctx.declarationCell(['energy_recovery', 'electricity_efficiency']), 'X_el'),
+      cellTerm(ctx.declarationCell(['energy_recovery', 'heat_efficiency']), 'X_heat'),
+      ...toElec.terms,
+      ...toHeat.terms,
+      elec.term('E_el'),
+      heat.term('E_heat'),
+    );
+  }
+  const id = `${method}/energy/${line.key}`;
+  vectorFigure(graph, id, values, 'M·R3·(EER − LHV·X_heat·E_heat − LHV·X_el·E_el)', `Energy recovery from ${line.line.component}.`, terms);
+  return [id];
+}
+
+/**
+ * M·(1 − R2 − R3 − reuse)·ED. Where eol.csv sends a share to incineration without
+ * recovery, that share is charged at the incineration factor and the rest at ED (landfill);
+ * with no such share this is the formula as published.
+ */
+function disposalPart(ctx: CalcContext, graph: FigureGraph, method: CffMethod, line: LineFlows, m: MaterialEol, factor: (id: string) => ResolvedFactor): string {
+  const e = m.eol.value;
+  const material = line.material.value;
+  const r2 = e.recycling * e.recycling_yield;
+  const landfillShare = 1 - r2 - e.energy_recovery - e.reuse - e.incineration;
+  const values = zeros(ctx.length);
+  const eolCell = (column: string, symbol: string) => cellTerm(ctx.cell(ctx.project.eol, m.eol, column), symbol);
+  const terms: Term[] = [cellTerm(ctx.cell(ctx.project.bom, line.row, 'mass_kg'), 'M'), eolCell('recycling', 'recycling'), eolCell('recycling_yield', 'yield'), eolCell('energy_recovery', 'R3'), eolCell('reuse', 'reuse')];
+  if (landfillShare > 1e-12) {
+    if (material.landfill) {
+      const ed = factor(material.landfill);
+      addScaled(values, ed.values, line.line.mass_kg * landfillShare);
+      terms.push(ed.term('ED'));
+    } else {
+      // Validation asks for the factor; should it be absent the part is incomplete, never zero.
+      values.fill(Number.NaN);
+    }
+  }
+  if (e.incineration > 0) {
+    const inc = factor(material.incineration!);
+    addScaled(values, inc.values, line.line.mass_kg * e.incineration);
+    terms.push(eolCell('incineration', 'incineration'), inc.term('E_inc'));
+  }
+  const id = `${method}/disposal/${line.key}`;
+  vectorFigure(graph, id, values, 'M·[(1 − R2 − R3 − reuse − incineration)·ED + incineration·E_inc]', `Disposal of ${line.line.component} at end of life.`, terms);
+  return id;
+}

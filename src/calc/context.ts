@@ -1,0 +1,141 @@
+import type { Project, Material, EolRow, FactorRow } from '../model/types.ts';
+import { indicatorValue } from '../model/types.ts';
+import type { Row, Table } from '../schema/table.ts';
+import { findGas, GWP_SOURCES, type GwpSet } from '../reference/ghg.ts';
+import { findIndicator } from '../reference/indicators.ts';
+import { conversionFactor } from '../reference/units.ts';
+import { jsonPath, locate } from '../load/json.ts';
+import { factorTerm, figureTerm, type CellRef, type FigureGraph, type Term } from '../trace/graph.ts';
+import type { Vec } from './vector.ts';
+
+/** A factor resolved to an indicator vector, per one unit of `unit`. */
+export interface ResolvedFactor {
+  id: string;
+  unit: string;
+  values: Vec;
+  /** How the factor appears among a figure's terms. */
+  term: (symbol: string) => Term;
+  /** Reference figures the term needs in the product's graph (GWP values). */
+  ensure: (graph: FigureGraph) => void;
+}
+
+/**
+ * What every product's calculation shares: the indicator order, factor vectors (resolved
+ * once per project), material and scenario lookups. Pure: built from the validated
+ * project, no I/O.
+ */
+export class CalcContext {
+  /** Factor-based indicator codes computed, in reporting order. */
+  readonly indicators: string[];
+  /** Flow indicators reported (SM, CRU, MFR, MER), from the product's mass flows. */
+  readonly flowIndicators: string[];
+  readonly gwpSet: GwpSet;
+  private readonly factors = new Map<string, ResolvedFactor>();
+  private readonly materials: Map<string, Row<Material>>;
+  private readonly scenarios = new Map<string, Map<string, Row<EolRow>>>();
+
+  constructor(readonly project: Project) {
+    this.indicators = project.indicators.filter((code) => findIndicator(code)?.basis === 'factors');
+    this.flowIndicators = project.indicators.filter((code) => findIndicator(code)?.basis === 'flows');
+    this.gwpSet = project.declaration.gwp_set;
+    this.materials = new Map(project.materials.rows.map((row) => [row.value.material, row]));
+    for (const row of project.eol.rows) {
+      if (!this.scenarios.has(row.value.scenario)) this.scenarios.set(row.value.scenario, new Map());
+      this.scenarios.get(row.value.scenario)!.set(row.value.material, row);
+    }
+    const factorRows = new Map(project.factors.rows.map((row) => [row.value.factor_id, row]));
+    this.factorRows = factorRows;
+  }
+
+  private readonly factorRows: Map<string, Row<FactorRow>>;
+
+  get length(): number {
+    return this.indicators.length;
+  }
+
+  material(id: string): Row<Material> {
+    const row = this.materials.get(id);
+    if (!row) throw new Error(`material ${id} not in the validated project`);
+    return row;
+  }
+
+  /** The scenario row for a material: its own, else `*` (validation guarantees one). */
+  eolRow(scenario: string, material: string): Row<EolRow> {
+    const rows = this.scenarios.get(scenario);
+    const row = rows?.get(material) ?? rows?.get('*');
+    if (!row) throw new Error(`no eol.csv row for ${scenario}/${material}`);
+    return row;
+  }
+
+  factor(id: string): ResolvedFactor {
+    let resolved = this.factors.get(id);
+    if (!resolved) {
+      resolved = findGas(id) ? this.gasFactor(id) : this.tableFactor(id);
+      this.factors.set(id, resolved);
+    }
+    return resolved;
+  }
+
+  private tableFactor(id: string): ResolvedFactor {
+    const row = this.factorRows.get(id);
+    if (!row) throw new Error(`factor ${id} not in the validated project`);
+    const values = new Float64Array(this.indicators.map((code) => indicatorValue(row.value, code) ?? Number.NaN));
+    const ref = { file: this.project.factors.file, line: row.line, factorId: id, raw: row.raw };
+    return { id, unit: row.value.unit, values, term: (symbol) => factorTerm(ref, symbol), ensure: () => undefined };
+  }
+
+  /**
+   * A built-in greenhouse gas, per kg emitted: its GWP-100 goes to GWP-total and to
+   * GWP-fossil (GWP-biogenic for non-fossil methane); it adds nothing to the other
+   * indicators (a choice documented in DEVELOPERS.md).
+   */
+  private gasFactor(id: string): ResolvedFactor {
+    const gas = findGas(id)!;
+    const gwp = gas[this.gwpSet];
+    const part = gas.id === 'CH4-nonfossil' ? 'GWP-biogenic' : 'GWP-fossil';
+    const values = new Float64Array(this.indicators.map((code) => (code === 'GWP-total' || code === part ? gwp : 0)));
+    const referenceId = `reference/gwp/${this.gwpSet}/${gas.id}`;
+    return {
+      id,
+      unit: 'kg',
+      values,
+      term: (symbol) => figureTerm(referenceId, symbol),
+      ensure: (graph) => {
+        if (graph.get(referenceId)) return;
+        graph.add({
+          kind: 'scalar', id: referenceId, value: gwp, unit: 'kg CO2 eq. per kg',
+          formula: `GWP-100(${gas.id}) = ${gwp}`,
+          description: `Global warming potential over 100 years of ${gas.name}, ${GWP_SOURCES[this.gwpSet]}; counted in GWP-total and ${part}.`,
+          terms: [],
+        });
+      },
+    };
+  }
+
+  /** A value of declaration.json as a cell: its line, its JSON path, its text. */
+  declarationCell(path: (string | number)[]): CellRef {
+    const json = this.project.declarationFile;
+    const where = locate(json, path);
+    const value = where.node ? json.text.slice(where.node.offset, where.node.offset + where.node.length) : '';
+    return { file: json.file, line: where.line, column: jsonPath(path), value };
+  }
+
+  /** A cell of a validated row, as written. */
+  cell<T>(table: Table<T>, row: Row<T>, column: string): CellRef {
+    return { file: table.file, line: row.line, column, value: row.raw[column] ?? '' };
+  }
+}
+
+/**
+ * A unit conversion as a reference figure, so that a kWh → MJ step is visible in the
+ * trail. Returns the factor and the term (none when the units are the same).
+ */
+export function conversionTerm(graph: FigureGraph, from: string, to: string): { factor: number; terms: Term[] } {
+  const factor = conversionFactor(from, to);
+  if (factor === 1) return { factor, terms: [] };
+  const id = `reference/unit/${from}->${to}`;
+  if (!graph.get(id)) {
+    graph.add({ kind: 'scalar', id, value: factor, unit: `${to} per ${from}`, formula: `1 ${from} = ${factor} ${to}`, description: 'Unit conversion (SI Brochure, 9th ed.).', terms: [] });
+  }
+  return { factor, terms: [figureTerm(id, `${from}→${to}`)] };
+}

@@ -1,0 +1,288 @@
+import type { Activity, TransportLeg } from '../model/types.ts';
+import type { Row } from '../schema/table.ts';
+import { cellTerm, figureTerm, type FigureGraph, type Term } from '../trace/graph.ts';
+import { conversionTerm, type CalcContext, type ResolvedFactor } from './context.ts';
+import type { Inventory, LineFlows, MaterialEol } from './inventory.ts';
+import { sumFigure, vectorFigure } from './nodes.ts';
+import { addScaled, minusScaled, scaled, zeros } from './vector.ts';
+
+/** Modules in EN 15804+A2 order. A4 and A5 appear only when the product has rows for them. */
+export const CUTOFF_MODULES = ['A1', 'A2', 'A3', 'A1-A3', 'A4', 'A5', 'C1', 'C2', 'C3', 'C4', 'D'] as const;
+export type CutoffModule = (typeof CUTOFF_MODULES)[number];
+
+export interface CutoffResult {
+  /** Figure id of each declared module. */
+  modules: Partial<Record<CutoffModule, string>>;
+  total: string;
+  /** Sub-figures the other methods reuse. */
+  parts: {
+    a2: string;
+    a3Activities: string;
+    a3ScrapDisposal: string;
+    a4?: string;
+    a5?: string;
+    c1: string;
+    c2: string;
+    c3Processing: string;
+  };
+}
+
+export interface ProductRows {
+  activities: Row<Activity>[];
+  transport: Row<TransportLeg>[];
+}
+
+/**
+ * Cut-off ("polluter pays", EN 15804+A2): recycled input carries only its own
+ * reprocessing, scrap and end-of-life material leave the system free of burden, and the
+ * net benefit of recycling is reported in module D beside the A–C modules.
+ */
+export function cutoff(ctx: CalcContext, graph: FigureGraph, inv: Inventory, rows: ProductRows): CutoffResult {
+  const K = ctx.length;
+  const factor = (id: string): ResolvedFactor => {
+    const resolved = ctx.factor(id);
+    resolved.ensure(graph);
+    return resolved;
+  };
+
+  // A1: raw material supply of the product's lines.
+  const a1Lines = inv.productLines.map((line) => productionFigure(ctx, graph, `cutoff/A1/${line.key}`, line, factor));
+  const a1Activities = activityFigures(ctx, graph, 'A1', rows.activities, factor);
+  const a1 = sumFigure(graph, 'cutoff/A1', [...a1Lines, ...a1Activities], 'A1 = Σ lines G·[(1−R1)·Ev + R1·Erec] + Σ A1 activities', 'Raw material supply: each product line’s gross input, virgin share at the virgin factor, recycled share at the recycled-production factor.');
+
+  // A2: transport of inputs.
+  const a2Legs = transportFigures(ctx, graph, 'A2', inv, rows.transport, factor);
+  const a2Activities = activityFigures(ctx, graph, 'A2', rows.activities, factor);
+  const a2 = sumFigure(graph, 'cutoff/A2', [...a2Legs, ...a2Activities], 'A2 = Σ legs (G/1000)·d·F_tkm', 'Transport of inputs to the factory: carried mass in tonnes × distance × factor per tonne-kilometre.');
+
+  // A3: manufacturing.
+  const a3ActivityIds = activityFigures(ctx, graph, 'A3', rows.activities, factor);
+  const a3Activities = sumFigure(graph, 'cutoff/A3/activities', a3ActivityIds, 'Σ A3 activities: amount·unit conversion·F', 'Energy, ancillaries and direct emissions of manufacturing.');
+  const scrapIds: string[] = [];
+  for (const line of inv.lines) {
+    const fate = line.line.scrap_fate;
+    if (line.scrapKg <= 0 || fate === 'recycled') continue;
+    const material = line.material.value;
+    const factorId = fate === 'landfill' ? material.landfill! : material.incineration!;
+    const f = factor(factorId);
+    const id = `cutoff/A3/scrap:${line.line.line_id}`;
+    vectorFigure(graph, id, scaled(f.values, line.scrapKg), `scrap·${fate === 'landfill' ? 'ED' : 'E_inc'}`, `Treatment of the process scrap of ${line.line.component} (${fate}).`, [figureTerm(line.ids.scrap, 'scrap'), f.term(fate === 'landfill' ? 'ED' : 'E_inc')]);
+    scrapIds.push(id);
+  }
+  const a3Scrap = sumFigure(graph, 'cutoff/A3/scrap-disposal', scrapIds, 'Σ scrap to landfill·ED + scrap to incineration·E_inc', 'Process scrap that is disposed of; scrap sent to recycling leaves free of burden (reported as MFR).');
+  const packaging = inv.packagingLines.map((line) => productionFigure(ctx, graph, `cutoff/A3/${line.key}`, line, factor));
+  const a3 = sumFigure(graph, 'cutoff/A3', [a3Activities.id, a3Scrap.id, ...packaging], 'A3 = activities + scrap disposal + packaging production', 'Manufacturing: energy and ancillaries, disposal of process scrap, production of the packaging.');
+
+  const a13 = sumFigure(graph, 'cutoff/A1-A3', [a1.id, a2.id, a3.id], 'A1-A3 = A1 + A2 + A3', 'Cradle to gate.');
+
+  // A4, A5: only where the product has rows for them.
+  const a4Ids = [...transportFigures(ctx, graph, 'A4', inv, rows.transport, factor), ...activityFigures(ctx, graph, 'A4', rows.activities, factor)];
+  const a5Ids = activityFigures(ctx, graph, 'A5', rows.activities, factor);
+  const a4 = a4Ids.length > 0 ? sumFigure(graph, 'cutoff/A4', a4Ids, 'A4 = Σ legs and activities', 'Transport to the site.').id : undefined;
+  const a5 = a5Ids.length > 0 ? sumFigure(graph, 'cutoff/A5', a5Ids, 'A5 = Σ activities', 'Installation.').id : undefined;
+
+  // C1–C4 and D, per material of the product.
+  const c1 = sumFigure(graph, 'cutoff/C1', activityFigures(ctx, graph, 'C1', rows.activities, factor), 'C1 = Σ C1 activities', 'De-construction and demolition.');
+  const c2Ids: string[] = [];
+  const c3ProcessingIds: string[] = [];
+  const c3EnergyIds: string[] = [];
+  const c4Ids: string[] = [];
+  const dIds: string[] = [];
+  for (const m of inv.materials) {
+    const e = m.eol.value;
+    const eolCell = (column: string) => cellTerm(ctx.cell(ctx.project.eol, m.eol, column), column);
+    const M = figureTerm(m.ids.mass, 'M_eol');
+    if (e.transport_km > 0 && e.transport_factor) {
+      const f = factor(e.transport_factor);
+      const tonnes = conversionTerm(graph, 'kg', 't');
+      const id = `cutoff/C2/material:${m.materialId}`;
+      vectorFigure(graph, id, scaled(f.values, m.massKg * tonnes.factor * e.transport_km), 'M_eol/1000·km·F_tkm', `Transport of end-of-life ${m.materialId} to waste processing.`, [M, ...tonnes.terms, eolCell('transport_km'), f.term('F_tkm')]);
+      c2Ids.push(id);
+    }
+    if (e.recycling > 0 && e.processing_factor) {
+      const f = factor(e.processing_factor);
+      const id = `cutoff/C3/material:${m.materialId}`;
+      vectorFigure(graph, id, scaled(f.values, m.massKg * e.recycling), 'M_eol·recycling·F_proc', `Waste processing of the ${m.materialId} sent to recycling, up to the end-of-waste state.`, [M, eolCell('recycling'), f.term('F_proc')]);
+      c3ProcessingIds.push(id);
+    }
+    if (e.energy_recovery > 0 && m.material.value.incineration) {
+      const f = factor(m.material.value.incineration);
+      const id = `cutoff/C3/energy-recovery:${m.materialId}`;
+      vectorFigure(graph, id, scaled(f.values, m.massKg * e.energy_recovery), 'M_eol·energy_recovery·E_inc', `Incineration of ${m.materialId} with energy recovery (benefits in D).`, [M, eolCell('energy_recovery'), f.term('E_inc')]);
+      c3EnergyIds.push(id);
+    }
+    const disposal: Term[] = [];
+    const c4 = zeros(K);
+    if (e.landfill > 0) {
+      const f = factor(m.material.value.landfill!);
+      addScaled(c4, f.values, m.massKg * e.landfill);
+      disposal.push(eolCell('landfill'), f.term('ED'));
+    }
+    if (e.incineration > 0) {
+      const f = factor(m.material.value.incineration!);
+      addScaled(c4, f.values, m.massKg * e.incineration);
+      disposal.push(eolCell('incineration'), f.term('E_inc'));
+    }
+    if (disposal.length > 0) {
+      const id = `cutoff/C4/material:${m.materialId}`;
+      vectorFigure(graph, id, c4, 'M_eol·(landfill·ED + incineration·E_inc)', `Disposal of end-of-life ${m.materialId}.`, [M, ...disposal]);
+      c4Ids.push(id);
+    }
+    dIds.push(...moduleD(ctx, graph, m, factor));
+  }
+  const c2 = sumFigure(graph, 'cutoff/C2', [...c2Ids, ...transportFigures(ctx, graph, 'C2', inv, rows.transport, factor), ...activityFigures(ctx, graph, 'C2', rows.activities, factor)], 'C2 = Σ materials M_eol·km/1000·F_tkm + C2 legs', 'Transport to waste processing.');
+  const c3Processing = sumFigure(graph, 'cutoff/C3/processing', [...c3ProcessingIds, ...activityFigures(ctx, graph, 'C3', rows.activities, factor)], 'Σ M_eol·recycling·F_proc + C3 activities', 'Processing of material sent to recycling, and other C3 activities.');
+  const c3Energy = sumFigure(graph, 'cutoff/C3/energy-recovery', c3EnergyIds, 'Σ M_eol·energy_recovery·E_inc', 'Incineration with energy recovery.');
+  const c3 = sumFigure(graph, 'cutoff/C3', [c3Processing.id, c3Energy.id], 'C3 = processing + energy recovery', 'Waste processing up to the end-of-waste state.');
+  const c4 = sumFigure(graph, 'cutoff/C4', [...c4Ids, ...activityFigures(ctx, graph, 'C4', rows.activities, factor)], 'C4 = Σ M_eol·(landfill·ED + incineration·E_inc) + C4 activities', 'Disposal.');
+  const d = sumFigure(graph, 'cutoff/D', dIds, 'D = Σ materials (M_MR,out − M_MR,in)·(E_MR − E_VMSub·Q) + energy recovery', 'Benefits and loads beyond the system boundary (EN 15804+A2 Annex D); declared separately and not added to A–C.');
+
+  const totalIds = [a1.id, a2.id, a3.id, ...(a4 ? [a4] : []), ...(a5 ? [a5] : []), c1.id, c2.id, c3.id, c4.id];
+  const total = sumFigure(graph, 'cutoff/total', totalIds, `total = ${totalIds.map((id) => id.slice('cutoff/'.length)).join(' + ')}`, 'Sum of the declared modules A1 to C4; module D is not added (EN 15804+A2).');
+  return {
+    modules: { A1: a1.id, A2: a2.id, A3: a3.id, 'A1-A3': a13.id, ...(a4 ? { A4: a4 } : {}), ...(a5 ? { A5: a5 } : {}), C1: c1.id, C2: c2.id, C3: c3.id, C4: c4.id, D: d.id },
+    total: total.id,
+    parts: { a2: a2.id, a3Activities: a3Activities.id, a3ScrapDisposal: a3Scrap.id, ...(a4 ? { a4 } : {}), ...(a5 ? { a5 } : {}), c1: c1.id, c2: c2.id, c3Processing: c3Processing.id },
+  };
+}
+
+/** G·[(1−R1)·Ev + R1·Erec]: making one line's gross input. */
+function productionFigure(ctx: CalcContext, graph: FigureGraph, id: string, line: LineFlows, factor: (id: string) => ResolvedFactor): string {
+  const material = line.material.value;
+  const ev = factor(material.virgin);
+  const values = scaled(ev.values, line.grossKg * (1 - line.r1));
+  const terms: Term[] = [figureTerm(line.ids.gross, 'G'), figureTerm(line.ids.r1, 'R1'), ev.term('Ev')];
+  if (line.r1 > 0) {
+    const erec = factor(material.recycled!);
+    addScaled(values, erec.values, line.grossKg * line.r1);
+    terms.push(erec.term('Erec'));
+  }
+  vectorFigure(graph, id, values, 'G·[(1−R1)·Ev + R1·Erec]', `Production of ${line.line.component} (${material.material}).`, terms);
+  return id;
+}
+
+function activityFigures(ctx: CalcContext, graph: FigureGraph, module: string, activities: Row<Activity>[], factor: (id: string) => ResolvedFactor): string[] {
+  const table = ctx.project.activities;
+  return activities
+    .filter((row) => row.value.module === module)
+    .map((row) => {
+      const a = row.value;
+      const f = factor(a.factor);
+      const conversion = conversionTerm(graph, a.unit, f.unit);
+      const id = `cutoff/${module}/activity:${row.line}`;
+      vectorFigure(graph, id, scaled(f.values, a.amount * conversion.factor), conversion.terms.length ? 'amount·(unit→factor unit)·F' : 'amount·F', a.activity, [
+        cellTerm(ctx.cell(table, row, 'amount'), 'amount'),
+        cellTerm(ctx.cell(table, row, 'unit'), 'unit'),
+        ...conversion.terms,
+        f.term('F'),
+      ]);
+      return id;
+    });
+}
+
+/**
+ * Transport legs. Inbound legs (A2) carry gross input — one line's, or the product's own
+ * lines' together; outbound legs (A4, C2) carry net mass. A choice documented in
+ * DEVELOPERS.md.
+ */
+function transportFigures(ctx: CalcContext, graph: FigureGraph, module: string, inv: Inventory, legs: Row<TransportLeg>[], factor: (id: string) => ResolvedFactor): string[] {
+  const table = ctx.project.transport;
+  const inbound = module === 'A2';
+  return legs
+    .filter((row) => row.value.module === module)
+    .map((row) => {
+      const leg = row.value;
+      const line = leg.line_id === undefined ? undefined : inv.lines.find((l) => l.line.line_id === leg.line_id);
+      const massKg = line ? (inbound ? line.grossKg : line.line.mass_kg) : inbound ? inv.grossKg : inv.materials.reduce((t, m) => t + m.massKg, 0);
+      const massTerm = line
+        ? inbound
+          ? figureTerm(line.ids.gross, 'G')
+          : cellTerm(ctx.cell(ctx.project.bom, line.row, 'mass_kg'), 'm')
+        : figureTerm(inbound ? inv.ids.gross : inv.ids.mass, inbound ? 'G_product' : 'M');
+      const f = factor(leg.factor);
+      const tonnes = conversionTerm(graph, 'kg', 't');
+      const km = conversionTerm(graph, 'tkm', f.unit);
+      const id = `cutoff/${module}/transport:${row.line}`;
+      vectorFigure(graph, id, scaled(f.values, massKg * tonnes.factor * leg.distance_km * km.factor), `(${inbound ? 'G' : 'm'}/1000)·d·F_tkm`, leg.leg, [
+        massTerm,
+        ...tonnes.terms,
+        cellTerm(ctx.cell(table, row, 'distance_km'), 'd'),
+        ...km.terms,
+        f.term('F_tkm'),
+      ]);
+      return id;
+    });
+}
+
+/**
+ * EN 15804+A2 Annex D, material recycling: only the net flow of secondary material earns
+ * a credit; a negative net flow (more recycled input than recycled output) is a load.
+ *   D = (M_MR,out − M_MR,in) · (E_MR,after EoW − E_VMSub · Q_R,out/Q_Sub)
+ */
+function moduleD(ctx: CalcContext, graph: FigureGraph, m: MaterialEol, factor: (id: string) => ResolvedFactor): string[] {
+  const e = m.eol.value;
+  const material = m.material.value;
+  const eolCell = (column: string) => cellTerm(ctx.cell(ctx.project.eol, m.eol, column), column);
+  const base = `inventory/material:${m.materialId}`;
+  const scrapLines = m.lines.filter((l) => l.line.scrap_fate === 'recycled' && l.scrapKg > 0);
+  const scrapKg = scrapLines.reduce((t, l) => t + l.scrapKg, 0);
+  const outKg = (m.massKg * e.recycling + scrapKg) * e.recycling_yield;
+  graph.add({
+    kind: 'scalar', id: `${base}/M_MR_out`, value: outKg, unit: 'kg',
+    formula: 'M_MR,out = (M_eol·recycling + scrap to recycling)·yield',
+    description: `${m.materialId} that leaves the system and reaches the point of substitution: end-of-life material sent to recycling and process scrap sent to recycling, times the recycling yield.`,
+    terms: [figureTerm(m.ids.mass, 'M_eol'), eolCell('recycling'), ...scrapLines.map((l) => figureTerm(l.ids.scrap, `scrap(${l.line.line_id})`)), eolCell('recycling_yield')],
+  });
+  const inKg = m.lines.reduce((t, l) => t + l.grossKg * l.r1, 0);
+  graph.add({
+    kind: 'scalar', id: `${base}/M_MR_in`, value: inKg, unit: 'kg',
+    formula: 'M_MR,in = Σ G·R1', description: `Secondary ${m.materialId} entering the system.`,
+    terms: m.lines.flatMap((l) => [figureTerm(l.ids.gross, `G(${l.line.line_id})`), figureTerm(l.ids.r1, `R1(${l.line.line_id})`)]),
+  });
+  const netKg = outKg - inKg;
+  graph.add({
+    kind: 'scalar', id: `${base}/M_MR_net`, value: netKg, unit: 'kg', formula: 'M_MR,out − M_MR,in',
+    description: netKg >= 0 ? 'Net secondary material leaving the system: earns a credit.' : 'Net secondary material entering the system: a load (EN 15804+A2 Annex D).',
+    terms: [figureTerm(`${base}/M_MR_out`, 'M_MR,out'), figureTerm(`${base}/M_MR_in`, 'M_MR,in')],
+  });
+  const ids: string[] = [];
+  if (netKg !== 0) {
+    const recycling = factor(material.eol_recycling!);
+    const substituted = factor(material.substituted ?? material.virgin);
+    const perKg = minusScaled(recycling.values, substituted.values, material.q_out);
+    const id = `cutoff/D/material:${m.materialId}`;
+    vectorFigure(graph, id, scaled(perKg, netKg), '(M_MR,out − M_MR,in)·(E_MR − E_VMSub·Q_out)', `Net recycling of ${m.materialId}: recycling after end of waste minus the virgin material it replaces.`, [
+      figureTerm(`${base}/M_MR_net`, 'M_net'),
+      recycling.term('E_MR'),
+      substituted.term('E_VMSub'),
+      cellTerm(ctx.cell(ctx.project.materials, m.material, 'q_out'), 'Q_out'),
+    ]);
+    ids.push(id);
+  }
+  const energy = ctx.project.declaration.energy_recovery;
+  const lhv = material.lhv_mj_per_kg;
+  if (e.energy_recovery > 0 && lhv !== null && lhv > 0 && energy) {
+    const mj = m.massKg * e.energy_recovery * lhv;
+    const elec = factor(energy.electricity_factor);
+    const heat = factor(energy.heat_factor);
+    const toElec = conversionTerm(graph, 'MJ', elec.unit);
+    const toHeat = conversionTerm(graph, 'MJ', heat.unit);
+    const values = scaled(elec.values, -mj * energy.electricity_efficiency * toElec.factor);
+    addScaled(values, heat.values, -mj * energy.heat_efficiency * toHeat.factor);
+    const id = `cutoff/D/energy:${m.materialId}`;
+    const declarationCell = (column: string) => cellTerm(ctx.declarationCell(['energy_recovery', column]), column);
+    vectorFigure(graph, id, values, '−M_eol·energy_recovery·LHV·(η_el·E_el + η_heat·E_heat)', `Electricity and heat exported from incinerating ${m.materialId}, replacing the declared substituted energy.`, [
+      figureTerm(m.ids.mass, 'M_eol'),
+      eolCell('energy_recovery'),
+      cellTerm(ctx.cell(ctx.project.materials, m.material, 'lhv_mj_per_kg'), 'LHV'),
+      declarationCell('electricity_efficiency'),
+      declarationCell('heat_efficiency'),
+      ...toElec.terms,
+      ...toHeat.terms,
+      elec.term('E_el'),
+      heat.term('E_heat'),
+    ]);
+    ids.push(id);
+  }
+  return ids;
+}

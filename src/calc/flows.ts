@@ -1,0 +1,112 @@
+import { cellTerm, figureTerm, type FigureGraph, type Term } from '../trace/graph.ts';
+import type { CalcContext } from './context.ts';
+import type { Inventory } from './inventory.ts';
+
+/** Molar mass ratio CO2/C = 44/12, as EN 16449 and EN 15804+A2 use it. */
+export const CO2_PER_C = 44 / 12;
+
+export interface FlowsResult {
+  /** Module → flow indicator code → figure id. */
+  moduleFlows: Record<string, Record<string, string>>;
+  /** Flow indicator code → figure id of its sum over the modules in the total (A1…C4). */
+  totalFlows: Record<string, string>;
+  recycledContent: { pre: string; post: string; total: string };
+  biogenicCarbon: { product: string; packaging: string; productCo2: string; packagingCo2: string };
+}
+
+type FlowCode = 'SM' | 'CRU' | 'MFR' | 'MER';
+
+/**
+ * EN 15804+A2 inventory indicators from the product's own mass flows (kg): SM secondary
+ * material input, CRU components for re-use, MFR materials for recycling, MER materials
+ * for energy recovery. Every module gets a figure for each, zero where no such flow
+ * arises, so a reported 0 is a computed 0.
+ */
+export function flows(ctx: CalcContext, graph: FigureGraph, inv: Inventory, modules: readonly string[], totalModules: readonly string[]): FlowsResult {
+  const eol = ctx.project.eol;
+  const scalar = (id: string, value: number, unit: string, formula: string, description: string, terms: Term[]) => {
+    graph.add({ kind: 'scalar', id, value, unit, formula, description, terms });
+    return id;
+  };
+  const sum = (parts: Array<{ value: number; terms: Term[] }>) => ({ value: parts.reduce((t, p) => t + p.value, 0), terms: parts.flatMap((p) => p.terms) });
+  const secondary = (lines: typeof inv.lines) => sum(lines.map((l) => ({ value: l.grossKg * l.r1, terms: [figureTerm(l.ids.gross, `G(${l.line.line_id})`), figureTerm(l.ids.r1, `R1(${l.line.line_id})`)] })));
+  const perMaterial = (column: 'recycling' | 'energy_recovery' | 'reuse') =>
+    sum(inv.materials.map((m) => ({ value: m.massKg * m.eol.value[column], terms: [figureTerm(m.ids.mass, `M_eol(${m.materialId})`), cellTerm(ctx.cell(eol, m.eol, column), column)] })));
+  const scrapToRecycling = sum(inv.lines.filter((l) => l.line.scrap_fate === 'recycled' && l.scrapKg > 0).map((l) => ({ value: l.scrapKg, terms: [figureTerm(l.ids.scrap, `scrap(${l.line.line_id})`)] })));
+
+  const defined: Partial<Record<string, Partial<Record<FlowCode, { value: number; terms: Term[]; formula: string; description: string }>>>> = {
+    A1: { SM: { ...secondary(inv.productLines), formula: 'SM = Σ product lines G·R1', description: 'Secondary material in the product’s inputs.' } },
+    A3: {
+      SM: { ...secondary(inv.packagingLines), formula: 'SM = Σ packaging lines G·R1', description: 'Secondary material in the packaging.' },
+      MFR: { ...scrapToRecycling, formula: 'MFR = Σ process scrap sent to recycling', description: 'Process scrap leaving manufacturing for recycling.' },
+    },
+    C3: {
+      MFR: { ...perMaterial('recycling'), formula: 'MFR = Σ M_eol·recycling', description: 'End-of-life material sent to recycling.' },
+      MER: { ...perMaterial('energy_recovery'), formula: 'MER = Σ M_eol·energy_recovery', description: 'End-of-life material sent to energy recovery.' },
+      CRU: { ...perMaterial('reuse'), formula: 'CRU = Σ M_eol·reuse', description: 'End-of-life components for re-use.' },
+    },
+  };
+  const moduleFlows: FlowsResult['moduleFlows'] = {};
+  const composite: Record<string, string[]> = { 'A1-A3': ['A1', 'A2', 'A3'] };
+  for (const module of modules) {
+    moduleFlows[module] = {};
+    for (const code of ctx.flowIndicators as FlowCode[]) {
+      const id = `cutoff/${module}/${code}`;
+      const parts = composite[module];
+      if (parts) {
+        const ids = parts.map((p) => moduleFlows[p]![code]!);
+        scalar(id, ids.reduce((t, child) => t + graph.scalar(child).value, 0), 'kg', `${code} = ${parts.join(' + ')}`, `${code} over ${module}.`, ids.map((child, i) => figureTerm(child, parts[i]!)));
+      } else {
+        const flow = defined[module]?.[code];
+        if (flow) scalar(id, flow.value, 'kg', flow.formula, flow.description, flow.terms);
+        else scalar(id, 0, 'kg', `${code} = 0`, `No ${code} flow arises in module ${module}.`, []);
+      }
+      moduleFlows[module]![code] = id;
+    }
+  }
+
+  const totalFlows: Record<string, string> = {};
+  for (const code of ctx.flowIndicators) {
+    const ids = totalModules.map((module) => moduleFlows[module]![code]!);
+    totalFlows[code] = scalar(`cutoff/total/${code}`, ids.reduce((t, child) => t + graph.scalar(child).value, 0), 'kg', `${code} = ${totalModules.join(' + ')}`, `${code} over the declared modules A1 to C4.`, ids.map((child, i) => figureTerm(child, totalModules[i]!)));
+  }
+
+  // Recycled content of the product, ISO 14021 terms, as shares of the product-role gross input.
+  const grossTerm = figureTerm(inv.ids.gross, 'G_product');
+  const share = (id: string, column: 'recycled_pre' | 'recycled_post' | null, label: string) => {
+    const lines = inv.productLines;
+    const value = lines.reduce((t, l) => t + l.grossKg * (column ? l.line[column] : l.r1), 0) / inv.grossKg;
+    const terms = lines.flatMap((l) => [figureTerm(l.ids.gross, `G(${l.line.line_id})`), column ? cellTerm(ctx.cell(ctx.project.bom, l.row, column), `${column}(${l.line.line_id})`) : figureTerm(l.ids.r1, `R1(${l.line.line_id})`)]);
+    return scalar(id, value, 'share', `Σ G·${column ?? 'R1'} / Σ G`, `${label} recycled content of the product (ISO 14021), share of its gross input.`, [...terms, grossTerm]);
+  };
+  const recycledContent = {
+    pre: share('flows/recycled_content/pre', 'recycled_pre', 'Pre-consumer'),
+    post: share('flows/recycled_content/post', 'recycled_post', 'Post-consumer'),
+    total: share('flows/recycled_content/total', null, 'Total'),
+  };
+
+  // Biogenic carbon content, kg C per declared unit, and its CO2 equivalent.
+  const carbon = (id: string, lines: typeof inv.lines, what: string) => {
+    let value = 0;
+    const terms: Term[] = [];
+    for (const l of lines) {
+      const content = l.material.value.biogenic_c_kg_per_kg;
+      const family = l.material.value.family;
+      // Not given: zero for families without biogenic carbon, unknown (NaN) for wood and paper.
+      value += l.line.mass_kg * (content ?? (family === 'wood' || family === 'paper' ? Number.NaN : 0));
+      terms.push(cellTerm(ctx.cell(ctx.project.bom, l.row, 'mass_kg'), `m(${l.line.line_id})`), cellTerm(ctx.cell(ctx.project.materials, l.material, 'biogenic_c_kg_per_kg'), `c(${l.material.value.material})`));
+    }
+    return scalar(id, value, 'kg C', 'Σ m·c', `Biogenic carbon content of the ${what}.`, terms);
+  };
+  const ratioId = 'reference/molar/CO2-per-C';
+  graph.add({ kind: 'scalar', id: ratioId, value: CO2_PER_C, unit: 'kg CO2 per kg C', formula: '44/12', description: 'Molar mass of CO2 over that of C (EN 16449).', terms: [] });
+  const product = carbon('flows/biogenic_carbon_kg/product', inv.productLines, 'product');
+  const packaging = carbon('flows/biogenic_carbon_kg/packaging', inv.packagingLines, 'packaging');
+  const co2 = (id: string, of: string, what: string) => scalar(id, graph.scalar(of).value * CO2_PER_C, 'kg CO2', 'C·44/12', `Biogenic carbon of the ${what} as CO2.`, [figureTerm(of, 'C'), figureTerm(ratioId, '44/12')]);
+  return {
+    moduleFlows,
+    totalFlows,
+    recycledContent,
+    biogenicCarbon: { product, packaging, productCo2: co2('flows/biogenic_co2_kg/product', product, 'product'), packagingCo2: co2('flows/biogenic_co2_kg/packaging', packaging, 'packaging') },
+  };
+}

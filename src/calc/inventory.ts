@@ -1,0 +1,91 @@
+import type { BomLine, EolRow, Material, Product } from '../model/types.ts';
+import type { Row } from '../schema/table.ts';
+import { cellTerm, figureTerm, type FigureGraph, type Term } from '../trace/graph.ts';
+import type { CalcContext } from './context.ts';
+
+/** One BOM line's mass flows, with the ids of the figures that hold them. */
+export interface LineFlows {
+  row: Row<BomLine>;
+  line: BomLine;
+  material: Row<Material>;
+  /** Gross input G = m / (1 − s), kg. */
+  grossKg: number;
+  /** Recycled content R1 = pre + post. */
+  r1: number;
+  /** Process scrap G − m, kg. */
+  scrapKg: number;
+  ids: { gross: string; r1: string; scrap: string };
+  key: string;
+}
+
+/** End-of-life flows of one material of the product (role product). */
+export interface MaterialEol {
+  materialId: string;
+  material: Row<Material>;
+  eol: Row<EolRow>;
+  lines: LineFlows[];
+  /** M_eol = Σ mass_kg of the material's lines, kg. */
+  massKg: number;
+  ids: { mass: string };
+}
+
+export interface Inventory {
+  product: Row<Product>;
+  lines: LineFlows[];
+  productLines: LineFlows[];
+  packagingLines: LineFlows[];
+  materials: MaterialEol[];
+  grossKg: number;
+  ids: { gross: string; mass: string };
+}
+
+const scalar = (graph: FigureGraph, id: string, value: number, unit: string, formula: string, description: string, terms: Term[]) =>
+  graph.add({ kind: 'scalar', id, value, unit, formula, description, terms });
+
+/** The product's mass flows as scalar figures: gross inputs, recycled content, scrap, end-of-life masses. */
+export function inventory(ctx: CalcContext, graph: FigureGraph, product: Row<Product>, bomRows: Row<BomLine>[]): Inventory {
+  const bom = ctx.project.bom;
+  const lines = bomRows.map((row): LineFlows => {
+    const b = row.value;
+    const key = `${b.role === 'packaging' ? 'packaging' : 'line'}:${b.line_id}`;
+    const base = `inventory/${key}`;
+    const grossKg = b.mass_kg / (1 - b.scrap_rate);
+    const r1 = b.recycled_pre + b.recycled_post;
+    const ids = { gross: `${base}/G`, r1: `${base}/R1`, scrap: `${base}/scrap` };
+    scalar(graph, ids.gross, grossKg, 'kg', 'G = m / (1 − s)', `Gross input of ${b.component}: net mass over the share that does not leave as process scrap.`, [
+      cellTerm(ctx.cell(bom, row, 'mass_kg'), 'm'),
+      cellTerm(ctx.cell(bom, row, 'scrap_rate'), 's'),
+    ]);
+    scalar(graph, ids.r1, r1, 'share', 'R1 = pre + post', `Recycled content of the input of ${b.component} (ISO 14021 pre- plus post-consumer).`, [
+      cellTerm(ctx.cell(bom, row, 'recycled_pre'), 'pre'),
+      cellTerm(ctx.cell(bom, row, 'recycled_post'), 'post'),
+    ]);
+    scalar(graph, ids.scrap, grossKg - b.mass_kg, 'kg', 'scrap = G − m', `Process scrap of ${b.component} (${b.scrap_fate}).`, [
+      figureTerm(ids.gross, 'G'),
+      cellTerm(ctx.cell(bom, row, 'mass_kg'), 'm'),
+      cellTerm(ctx.cell(bom, row, 'scrap_fate'), 'fate'),
+    ]);
+    return { row, line: b, material: ctx.material(b.material), grossKg, r1, scrapKg: grossKg - b.mass_kg, ids, key };
+  });
+  const productLines = lines.filter((l) => l.line.role === 'product');
+  const packagingLines = lines.filter((l) => l.line.role === 'packaging');
+
+  const byMaterial = new Map<string, LineFlows[]>();
+  for (const line of productLines) {
+    const list = byMaterial.get(line.line.material) ?? [];
+    list.push(line);
+    byMaterial.set(line.line.material, list);
+  }
+  const materials = [...byMaterial.entries()].map(([materialId, materialLines]): MaterialEol => {
+    const id = `inventory/material:${materialId}/M_eol`;
+    const massKg = materialLines.reduce((total, l) => total + l.line.mass_kg, 0);
+    scalar(graph, id, massKg, 'kg', 'M_eol = Σ m', `End-of-life mass of ${materialId}: the net mass of its product lines.`, materialLines.map((l) => cellTerm(ctx.cell(bom, l.row, 'mass_kg'), `m(${l.line.line_id})`)));
+    return { materialId, material: ctx.material(materialId), eol: ctx.eolRow(product.value.eol_scenario, materialId), lines: materialLines, massKg, ids: { mass: id } };
+  });
+
+  const ids = { gross: 'inventory/product/G', mass: 'inventory/product/M' };
+  const grossKg = productLines.reduce((total, l) => total + l.grossKg, 0);
+  scalar(graph, ids.gross, grossKg, 'kg', 'G_product = Σ G', 'Gross input of the product’s own lines (role product).', productLines.map((l) => figureTerm(l.ids.gross, `G(${l.line.line_id})`)));
+  scalar(graph, ids.mass, materials.reduce((t, m) => t + m.massKg, 0), 'kg', 'M = Σ M_eol', 'Net mass of the product (role product) at end of life.', materials.map((m) => figureTerm(m.ids.mass, `M_eol(${m.materialId})`)));
+  return { product, lines, productLines, packagingLines, materials, grossKg, ids };
+}

@@ -1,0 +1,14 @@
+import { figureTerm, type FigureGraph, type Term, type VectorNode } from '../trace/graph.ts';
+import { zeros, add, type Vec } from './vector.ts';
+
+/** Adds a vector figure. */
+export function vectorFigure(graph: FigureGraph, id: string, values: Vec, formula: string, description: string, terms: Term[]): VectorNode {
+  return graph.add({ kind: 'vector', id, values, formula, description, terms });
+}
+
+/** A figure that is the sum of other vector figures: its terms are exactly its children. */
+export function sumFigure(graph: FigureGraph, id: string, childIds: readonly string[], formula: string, description: string, symbol = (child: string) => child.slice(child.lastIndexOf('/') + 1)): VectorNode {
+  const values = zeros(graph.indicators.length);
+  for (const child of childIds) add(values, graph.vector(child).values);
+  return vectorFigure(graph, id, values, formula, description, childIds.map((child) => figureTerm(child, symbol(child))));
+}

@@ -1,0 +1,35 @@
+import type { ProductRows } from '../model/by-product.ts';
+import type { Method } from '../schema/declaration.ts';
+import { FigureGraph } from '../trace/graph.ts';
+import { circularFootprint, type CffMethod, type CffResult } from './cff.ts';
+import type { CalcContext } from './context.ts';
+import { cutoff, type CutoffResult } from './cutoff.ts';
+import { flows, type FlowsResult } from './flows.ts';
+import { inventory } from './inventory.ts';
+
+export interface ProductResult {
+  productId: string;
+  declaredUnit: string;
+  graph: FigureGraph;
+  cutoff: CutoffResult;
+  flows: FlowsResult;
+  methods: Partial<Record<CffMethod, CffResult>>;
+}
+
+/** The methods a declaration reports besides cut-off (always computed). */
+export function reportedMethods(ctx: CalcContext): CffMethod[] {
+  const chosen: readonly Method[] = ctx.project.declaration.methods ?? ['cutoff', 'cff', 'eol-recycling', 'fifty-fifty'];
+  return (['cff', 'eol-recycling', 'fifty-fifty'] as const).filter((method) => chosen.includes(method));
+}
+
+/** One product, every method, every indicator, with its own figure graph. Pure. */
+export function calculateProduct(ctx: CalcContext, rows: ProductRows): ProductResult {
+  const graph = new FigureGraph(ctx.indicators);
+  const inv = inventory(ctx, graph, rows.product, rows.bom);
+  const cut = cutoff(ctx, graph, inv, { activities: rows.activities, transport: rows.transport });
+  const modules = Object.keys(cut.modules);
+  const flowResult = flows(ctx, graph, inv, modules, modules.filter((m) => m !== 'A1-A3' && m !== 'D'));
+  const methods: ProductResult['methods'] = {};
+  for (const method of reportedMethods(ctx)) methods[method] = circularFootprint(ctx, graph, inv, cut, method);
+  return { productId: rows.product.value.product_id, declaredUnit: rows.product.value.declared_unit, graph, cutoff: cut, flows: flowResult, methods };
+}

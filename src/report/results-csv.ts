@@ -1,0 +1,36 @@
+import type { ResultsJson } from './results.ts';
+
+/**
+ * One row per product × method × module (or part) × indicator. Text cells that a
+ * spreadsheet would run as a formula (starting with = + - @) are neutralised with a
+ * leading apostrophe (OWASP "CSV injection" guidance).
+ */
+export const RESULTS_CSV_HEADER = ['product_id', 'method', 'module', 'indicator', 'unit', 'value', 'figure_id'];
+
+function textCell(text: string): string {
+  const safe = /^[=+\-@\t\r]/.test(text) ? `'${text}` : text;
+  return /[",\n\r]/.test(safe) ? `"${safe.replace(/"/g, '""')}"` : safe;
+}
+
+const numberCell = (value: number | null): string => (value === null ? '' : String(value));
+
+export function resultsCsvRows(results: ResultsJson): string[] {
+  const units = new Map(results.indicators.map((i) => [i.code, i.unit]));
+  const rows: string[] = [];
+  const emit = (method: string, module: string, values: Record<string, number | null>, idBase: string) => {
+    for (const [code, value] of Object.entries(values)) {
+      rows.push([textCell(results.product_id), method, textCell(module), textCell(code), textCell(units.get(code) ?? ''), numberCell(value), textCell(`${idBase}/${code}`)].join(','));
+    }
+  };
+  const { cutoff, ...others } = results.methods;
+  for (const [module, values] of Object.entries(cutoff.modules)) emit('cutoff', module, values, `cutoff/${module}`);
+  emit('cutoff', 'total', cutoff.total, 'cutoff/total');
+  for (const [method, result] of Object.entries(others)) {
+    if (!result) continue;
+    for (const [part, values] of Object.entries(result.parts)) emit(method, part, values, `${method}/${part}`);
+    emit(method, 'total', result.total, `${method}/total`);
+  }
+  return rows;
+}
+
+export const resultsCsv = (all: readonly ResultsJson[]): string => `${[RESULTS_CSV_HEADER.join(','), ...all.flatMap(resultsCsvRows)].join('\n')}\n`;

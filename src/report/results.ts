@@ -1,0 +1,125 @@
+import type { CalcContext } from '../calc/context.ts';
+import type { ProductResult } from '../calc/product.ts';
+import { toNullable } from '../calc/vector.ts';
+import { findIndicator } from '../reference/indicators.ts';
+import type { FigureGraph, FigureNode, Term } from '../trace/graph.ts';
+
+/**
+ * The results contract (`out/<product_id>/results.json`): keys and nesting are what CI users
+ * script against — add keys, rename none. Every number is a figure: its id is
+ * `<vector figure>/<indicator>` (e.g. `cutoff/A1/GWP-total`) or the id of a scalar figure,
+ * and `figures` holds each with its formula, value and terms.
+ */
+export type IndicatorValues = Record<string, number | null>;
+
+export interface ResultsJson {
+  product_id: string;
+  declared_unit: string;
+  indicators: Array<{ code: string; unit: string; name: string }>;
+  methods: {
+    cutoff: { modules: Record<string, IndicatorValues>; total: IndicatorValues };
+    cff?: { parts: Record<string, IndicatorValues>; total: IndicatorValues };
+    'eol-recycling'?: { parts: Record<string, IndicatorValues>; total: IndicatorValues };
+    'fifty-fifty'?: { parts: Record<string, IndicatorValues>; total: IndicatorValues };
+  };
+  flows: {
+    recycled_content: { pre: number; post: number; total: number };
+    biogenic_carbon_kg: { product: number | null; packaging: number | null };
+    biogenic_co2_kg: { product: number | null; packaging: number | null };
+  };
+  figures: Record<string, FigureJson>;
+}
+
+export type TermJson = string | { file: string; line: number; column: string; value: string };
+
+export interface FigureJson {
+  value: number | null;
+  unit: string;
+  formula: string;
+  description: string;
+  terms: TermJson[];
+  /** The symbol each term stands for in the formula, in the order of `terms`. */
+  symbols: string[];
+}
+
+export function indicatorList(ctx: CalcContext): ResultsJson['indicators'] {
+  return [...ctx.indicators, ...ctx.flowIndicators].map((code) => {
+    const indicator = findIndicator(code)!;
+    return { code, unit: indicator.unit, name: indicator.name };
+  });
+}
+
+function vectorValues(ctx: CalcContext, graph: FigureGraph, id: string, flowIds?: Record<string, string>): IndicatorValues {
+  const node = graph.vector(id);
+  const out: IndicatorValues = {};
+  ctx.indicators.forEach((code, i) => (out[code] = toNullable(node.values[i]!)));
+  if (flowIds) for (const code of ctx.flowIndicators) out[code] = toNullable(graph.scalar(flowIds[code]!).value);
+  return out;
+}
+
+const scalarValue = (graph: FigureGraph, id: string) => toNullable(graph.scalar(id).value);
+
+export function resultsJson(ctx: CalcContext, result: ProductResult): ResultsJson {
+  const { graph } = result;
+  const modules: Record<string, IndicatorValues> = {};
+  for (const [module, id] of Object.entries(result.cutoff.modules)) modules[module] = vectorValues(ctx, graph, id, result.flows.moduleFlows[module]);
+  const methods: ResultsJson['methods'] = { cutoff: { modules, total: vectorValues(ctx, graph, result.cutoff.total, result.flows.totalFlows) } };
+  for (const [method, cff] of Object.entries(result.methods)) {
+    methods[method as 'cff'] = {
+      parts: Object.fromEntries(Object.entries(cff.parts).map(([part, id]) => [part, vectorValues(ctx, graph, id)])),
+      total: vectorValues(ctx, graph, cff.total),
+    };
+  }
+  const f = result.flows;
+  return {
+    product_id: result.productId,
+    declared_unit: result.declaredUnit,
+    indicators: indicatorList(ctx),
+    methods,
+    flows: {
+      recycled_content: { pre: graph.scalar(f.recycledContent.pre).value, post: graph.scalar(f.recycledContent.post).value, total: graph.scalar(f.recycledContent.total).value },
+      biogenic_carbon_kg: { product: scalarValue(graph, f.biogenicCarbon.product), packaging: scalarValue(graph, f.biogenicCarbon.packaging) },
+      biogenic_co2_kg: { product: scalarValue(graph, f.biogenicCarbon.productCo2), packaging: scalarValue(graph, f.biogenicCarbon.packagingCo2) },
+    },
+    figures: figuresJson(graph),
+  };
+}
+
+/** Every node of the graph as figures: a vector node once per indicator. */
+export function figuresJson(graph: FigureGraph): Record<string, FigureJson> {
+  const figures: Record<string, FigureJson> = {};
+  for (const node of graph.nodes.values()) {
+    if (node.kind === 'scalar') {
+      figures[node.id] = { value: toNullable(node.value), unit: node.unit, formula: node.formula, description: node.description, terms: node.terms.map((t) => termJson(graph, t, undefined)), symbols: node.terms.map((t) => t.symbol) };
+      continue;
+    }
+    graph.indicators.forEach((code, i) => {
+      figures[`${node.id}/${code}`] = {
+        value: toNullable(node.values[i]!),
+        unit: findIndicator(code)!.unit,
+        formula: node.formula,
+        description: node.description,
+        terms: node.terms.map((t) => termJson(graph, t, code)),
+        symbols: node.terms.map((t) => t.symbol),
+      };
+    });
+  }
+  return figures;
+}
+
+/** A term as the contract writes it: a figure id, or an input cell. */
+export function termJson(graph: FigureGraph, term: Term, code: string | undefined): TermJson {
+  switch (term.kind) {
+    case 'figure': {
+      const target: FigureNode | undefined = graph.get(term.id);
+      return target?.kind === 'vector' && code ? `${term.id}/${code}` : term.id;
+    }
+    case 'cell':
+      return term.cell;
+    case 'factor': {
+      // A factor row stands, per indicator, for that indicator's cell; for a scalar figure it is the row's id cell.
+      const column = code ?? 'factor_id';
+      return { file: term.factor.file, line: term.factor.line, column, value: term.factor.raw[column] ?? '' };
+    }
+  }
+}

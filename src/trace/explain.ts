@@ -1,0 +1,81 @@
+import { findIndicator } from '../reference/indicators.ts';
+import type { FigureGraph, Term } from './graph.ts';
+
+/** A figure id of the results contract, resolved to its node and indicator. */
+export interface ResolvedFigure {
+  nodeId: string;
+  /** Indicator code for a vector node's figure. */
+  code?: string;
+}
+
+export function resolveFigure(graph: FigureGraph, figureId: string): ResolvedFigure | undefined {
+  const node = graph.get(figureId);
+  if (node?.kind === 'scalar') return { nodeId: figureId };
+  const slash = figureId.lastIndexOf('/');
+  if (slash === -1) return undefined;
+  const nodeId = figureId.slice(0, slash);
+  const code = figureId.slice(slash + 1);
+  const vector = graph.get(nodeId);
+  if (vector?.kind === 'vector' && graph.indicators.includes(code)) return { nodeId, code };
+  return undefined;
+}
+
+/** Every figure id of a graph, as results.json lists them. */
+export function figureIds(graph: FigureGraph): string[] {
+  const ids: string[] = [];
+  for (const node of graph.nodes.values()) {
+    if (node.kind === 'scalar') ids.push(node.id);
+    else for (const code of graph.indicators) ids.push(`${node.id}/${code}`);
+  }
+  return ids;
+}
+
+const format = (value: number): string => (Number.isNaN(value) ? 'not available' : Number(value.toPrecision(6)).toString());
+
+/**
+ * The derivation of a figure as an indented tree, down to the input cells, with the value
+ * at each step. A figure reached a second time is named, not repeated.
+ */
+export function explainFigure(graph: FigureGraph, figure: ResolvedFigure, maxDepth = Infinity): string[] {
+  const lines: string[] = [];
+  const shown = new Set<string>();
+  const codeIndex = figure.code === undefined ? -1 : graph.indicators.indexOf(figure.code);
+
+  const describe = (nodeId: string): { id: string; value: string; unit: string; formula: string; description: string; terms: Term[] } => {
+    const node = graph.get(nodeId)!;
+    if (node.kind === 'scalar') return { id: node.id, value: format(node.value), unit: node.unit, formula: node.formula, description: node.description, terms: node.terms };
+    const code = figure.code!;
+    return { id: `${node.id}/${code}`, value: format(node.values[codeIndex]!), unit: findIndicator(code)?.unit ?? '', formula: node.formula, description: node.description, terms: node.terms };
+  };
+
+  const walk = (nodeId: string, prefix: string, symbol: string, depth: number) => {
+    const d = describe(nodeId);
+    const label = symbol ? `${symbol}  ` : '';
+    if (shown.has(d.id)) {
+      lines.push(`${prefix}${label}${d.id} = ${d.value} ${d.unit}  (derivation shown above)`);
+      return;
+    }
+    shown.add(d.id);
+    lines.push(`${prefix}${label}${d.id} = ${d.value} ${d.unit}`);
+    const inner = prefix.replace(/├─ $/, '│  ').replace(/└─ $/, '   ');
+    lines.push(`${inner}   ${d.formula}   — ${d.description}`);
+    if (depth >= maxDepth) {
+      if (d.terms.length) lines.push(`${inner}   … ${d.terms.length} terms (raise --depth to see them)`);
+      return;
+    }
+    d.terms.forEach((term, i) => {
+      const last = i === d.terms.length - 1;
+      const branch = `${inner}${last ? '└─ ' : '├─ '}`;
+      if (term.kind === 'figure') {
+        walk(term.id, branch, term.symbol, depth + 1);
+      } else if (term.kind === 'cell') {
+        lines.push(`${branch}${term.symbol}  ${term.cell.file}:${term.cell.line} ${term.cell.column} = ${JSON.stringify(term.cell.value)}`);
+      } else {
+        const column = figure.code ?? 'factor_id';
+        lines.push(`${branch}${term.symbol}  ${term.factor.file}:${term.factor.line} ${column} = ${JSON.stringify(term.factor.raw[column] ?? '')}  (factor ${term.factor.factorId})`);
+      }
+    });
+  };
+  walk(figure.nodeId, '', '', 0);
+  return lines;
+}

@@ -1,0 +1,88 @@
+/**
+ * The figure graph: every reported number is a figure with a stable id, a formula, its
+ * value and its terms — other figures or input cells. A node is either a vector (one
+ * value per indicator, as the calculation is vectorised over indicators) or a scalar
+ * (a mass, a share). Vector nodes expand to one figure per indicator (`cutoff/A1` →
+ * `cutoff/A1/GWP-total`), so the graph stays one node per calculation step, not one per
+ * step and indicator. Nodes refer to cells and to each other by id: shared, never copied.
+ */
+
+/** An input cell exactly as written. */
+export interface CellRef {
+  file: string;
+  line: number;
+  column: string;
+  value: string;
+}
+
+/** A factor row as a term: it expands, per indicator, to that indicator's cell. */
+export interface FactorRef {
+  file: string;
+  line: number;
+  factorId: string;
+  /** The row's cells as written, by column. */
+  raw: Record<string, string>;
+}
+
+export type Term =
+  | { kind: 'figure'; id: string; symbol: string }
+  | { kind: 'cell'; cell: CellRef; symbol: string }
+  | { kind: 'factor'; factor: FactorRef; symbol: string };
+
+interface NodeBase {
+  id: string;
+  /** In symbols: `G = m / (1 − s)`. */
+  formula: string;
+  /** In words, for a reader who does not know the symbols. */
+  description: string;
+  terms: Term[];
+}
+
+export interface VectorNode extends NodeBase {
+  kind: 'vector';
+  /** One value per indicator of the calculation; NaN where an input was not available. */
+  values: Float64Array;
+}
+
+export interface ScalarNode extends NodeBase {
+  kind: 'scalar';
+  value: number;
+  unit: string;
+}
+
+export type FigureNode = VectorNode | ScalarNode;
+
+export class FigureGraph {
+  readonly nodes = new Map<string, FigureNode>();
+
+  constructor(
+    /** Indicator codes, in the order of every vector's values. */
+    readonly indicators: readonly string[],
+  ) {}
+
+  add<N extends FigureNode>(node: N): N {
+    if (this.nodes.has(node.id)) throw new Error(`figure ${node.id} defined twice`);
+    this.nodes.set(node.id, node);
+    return node;
+  }
+
+  get(id: string): FigureNode | undefined {
+    return this.nodes.get(id);
+  }
+
+  vector(id: string): VectorNode {
+    const node = this.nodes.get(id);
+    if (!node || node.kind !== 'vector') throw new Error(`no vector figure ${id}`);
+    return node;
+  }
+
+  scalar(id: string): ScalarNode {
+    const node = this.nodes.get(id);
+    if (!node || node.kind !== 'scalar') throw new Error(`no scalar figure ${id}`);
+    return node;
+  }
+}
+
+export const figureTerm = (id: string, symbol: string): Term => ({ kind: 'figure', id, symbol });
+export const cellTerm = (cell: CellRef, symbol: string): Term => ({ kind: 'cell', cell, symbol });
+export const factorTerm = (factor: FactorRef, symbol: string): Term => ({ kind: 'factor', factor, symbol });
