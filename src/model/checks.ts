@@ -24,6 +24,8 @@ export function crossFileChecks(project: CheckInput): Problem[] {
   factorRequirements(ctx);
   unitRules(ctx);
   factorCompleteness(ctx);
+  gwpConsistency(ctx);
+  energyRecoveryRules(ctx);
   provenanceWarnings(ctx);
   declarationRules(ctx);
   return problems;
@@ -232,10 +234,13 @@ function factorRequirements(ctx: CheckContext): void {
     scenarioRows.get(row.value.scenario)!.set(row.value.material, row);
   }
   const productsById = new Map(p.products.rows.map((row) => [row.value.product_id, row.value]));
+  const methods = p.declaration?.methods ?? ['cff', 'eol-recycling', 'fifty-fifty'];
+  const cffReported = methods.some((method) => method !== 'cutoff');
   for (const line of p.bom.rows) {
     const where = `bom.csv line ${line.line}`;
     const b = line.value;
     if (b.recycled_pre + b.recycled_post > 0) need(b.material, 'recycled', `${where} has recycled content`);
+    if (b.role === 'product' && b.recycled_pre + b.recycled_post > 0) need(b.material, 'eol_recycling', `${where} has recycled content, whose net flow module D charges or credits (EN 15804+A2 Annex D)`);
     if (b.scrap_rate > 0 && b.scrap_fate === 'landfill') need(b.material, 'landfill', `${where} sends its process scrap to landfill`);
     if (b.scrap_rate > 0 && b.scrap_fate === 'incineration') need(b.material, 'incineration', `${where} sends its process scrap to incineration`);
     if (b.scrap_rate > 0 && b.scrap_fate === 'recycled') need(b.material, 'eol_recycling', `${where} sends process scrap to recycling (module D)`);
@@ -248,6 +253,8 @@ function factorRequirements(ctx: CheckContext): void {
     if (eolRow.value.recycling > 0) need(b.material, 'eol_recycling', `${route} to recycling (module D)`);
     if (eolRow.value.landfill > 0) need(b.material, 'landfill', `${route} to landfill`);
     if (eolRow.value.incineration > 0) need(b.material, 'incineration', `${route} to incineration`);
+    if (eolRow.value.energy_recovery > 0) need(b.material, 'incineration', `${route} to incineration with energy recovery (C3; EER in the CFF)`);
+    if (cffReported && eolRow.value.recycling > 0 && eolRow.value.recycling_yield < 1) need(b.material, 'landfill', `${route} to recycling with a yield below 1, and the Circular Footprint Formula disposes of the losses (1 − R2 − R3)`);
   }
 }
 
@@ -336,6 +343,65 @@ function factorCompleteness(ctx: CheckContext): void {
     ctx.at(p.factors, row.line, row.raw, first, 'warning', 'FACTOR_VALUE_MISSING',
       `factor ${row.value.factor_id} (used by ${where}) has no value for ${missing.join(', ')}; figures using it will be marked incomplete`,
       { value: row.raw[first] ?? '', expected: 'a number (an empty cell means "not available", never 0)' });
+  }
+}
+
+/** EN 15804+A2: GWP-total = GWP-fossil + GWP-biogenic + GWP-luluc; rounding within 0.1 % is tolerated. */
+function gwpConsistency(ctx: CheckContext): void {
+  const p = ctx.project;
+  const parts = ['GWP-fossil', 'GWP-biogenic', 'GWP-luluc'];
+  if (!['GWP-total', ...parts].every((code) => p.factorIndicators.includes(code))) return;
+  for (const row of p.factors.rows) {
+    const total = indicatorValue(row.value, 'GWP-total');
+    const values = parts.map((code) => indicatorValue(row.value, code));
+    if (total === null || values.some((v) => v === null)) continue;
+    const sum = (values as number[]).reduce((a, b) => a + b, 0);
+    if (Math.abs(total - sum) > 1e-3 * Math.max(Math.abs(total), Math.abs(sum)) + 1e-12) {
+      ctx.at(p.factors, row.line, row.raw, 'GWP-total', 'warning', 'GWP_SUM_MISMATCH', `is not GWP-fossil + GWP-biogenic + GWP-luluc = ${Number(sum.toPrecision(6))} for factor ${row.value.factor_id}`, {
+        expected: `${Number(sum.toPrecision(6))} (within 0.1 %)`,
+      });
+    }
+  }
+}
+
+/** Energy recovery needs the declaration's efficiencies and substituted energy whenever a product material is burnt with recovery and has a heating value. */
+function energyRecoveryRules(ctx: CheckContext): void {
+  const p = ctx.project;
+  if (!p.declaration || !p.declarationFile) return;
+  const energy = p.declaration.energy_recovery;
+  const file = p.declarationFile;
+  if (energy) {
+    for (const column of ['electricity_factor', 'heat_factor'] as const) {
+      const id = energy[column];
+      const where = locate(file, ['energy_recovery', column]);
+      const factor = ctx.factor(id);
+      const base = { file: file.file, line: where.line, column: `energy_recovery.${column}`, columnIndex: where.column, value: id };
+      if (!factor) {
+        const near = nearestName(id, [...ctx.ids(p.factors, 'factor_id')]);
+        ctx.problems.push({ ...base, severity: 'error', code: 'UNKNOWN_REFERENCE', message: 'is not a factor_id in factors.csv', expected: 'an existing factor_id in factors.csv', ...(near ? { hint: `did you mean "${near}"?` } : {}) });
+      } else if (dimensionOf(factor.value.unit) !== 'energy') {
+        ctx.problems.push({ ...base, severity: 'error', code: 'UNIT_MISMATCH', message: `names factor ${id} (factors.csv line ${factor.line}), which is per ${factor.value.unit}; substituted energy needs a factor per unit of energy`, expected: `a factor per ${unitsOf('energy').join(' or ')}` });
+      }
+    }
+    return;
+  }
+  const productsById = new Map(p.products.rows.map((row) => [row.value.product_id, row.value]));
+  const scenarioRows = new Map(p.eol.rows.map((row) => [`${row.value.scenario}\u0000${row.value.material}`, row]));
+  for (const line of p.bom.rows) {
+    if (line.value.role !== 'product') continue;
+    const product = productsById.get(line.value.product_id);
+    const material = ctx.material(line.value.material);
+    if (!product || !material) continue;
+    const eolRow = scenarioRows.get(`${product.eol_scenario}\u0000${line.value.material}`) ?? scenarioRows.get(`${product.eol_scenario}\u0000*`);
+    const lhv = material.value.lhv_mj_per_kg;
+    if (eolRow && eolRow.value.energy_recovery > 0 && lhv !== null && lhv > 0) {
+      ctx.problems.push({
+        severity: 'error', code: 'VALUE_REQUIRED', file: file.file, line: 1, column: 'energy_recovery', columnIndex: 1,
+        message: `is missing, but eol.csv line ${eolRow.line} sends ${line.value.material} (LHV ${lhv} MJ/kg, bom.csv line ${line.line}) to energy recovery`,
+        expected: 'energy_recovery: { electricity_efficiency, heat_efficiency, electricity_factor, heat_factor }',
+      });
+      return;
+    }
   }
 }
 

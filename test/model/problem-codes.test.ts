@@ -70,6 +70,7 @@ const cases: Case[] = [
     plant: (d) => editFile(at(d, 'declaration.json'), (t) => t.replace('"status": "draft"', '"status": "verified"')),
     expected: { file: 'declaration.json', line: 12, column: 'verification.verifier' },
   },
+  { code: 'GWP_SUM_MISMATCH', plant: (d) => editLine(at(d, 'factors.csv'), 26, 'illustrative),0.41,', 'illustrative),0.45,'), expected: { file: 'factors.csv', line: 26, column: 'GWP-total', value: '0.45', severity: 'warning' } },
   { code: 'SOURCE_MISSING', plant: (d) => editLine(at(d, 'transport.csv'), 3, 'Route planner (illustrative)', ''), expected: { file: 'transport.csv', line: 3, column: 'source', severity: 'warning' } },
   { code: 'BIOGENIC_CARBON_MISSING', plant: (d) => editLine(at(d, 'materials.csv'), 8, ',14,0.42,', ',14,,'), expected: { file: 'materials.csv', line: 8, column: 'biogenic_c_kg_per_kg', severity: 'warning' } },
 ];
