@@ -5,5 +5,12 @@
 import { register } from 'tsx/esm/api';
 
 register();
+// `loopsheet check --json | head` closes the pipe early: that is not a failure.
+for (const stream of [process.stdout, process.stderr]) {
+  stream.on('error', (error) => {
+    if (error.code === 'EPIPE') process.exit(process.exitCode ?? 0);
+    throw error;
+  });
+}
 const { main } = await import('../src/cli/main.ts');
 process.exitCode = await main(process.argv.slice(2));

@@ -3,7 +3,7 @@ import { conversionTerm, type CalcContext, type ResolvedFactor } from './context
 import type { CutoffResult } from './cutoff.ts';
 import type { Inventory, LineFlows, MaterialEol } from './inventory.ts';
 import { sumFigure, vectorFigure } from './nodes.ts';
-import { addScaled, minusScaled, scaled, zeros } from './vector.ts';
+import { addScaled, scaled, zeros } from './vector.ts';
 
 /**
  * The Circular Footprint Formula (Commission Recommendation (EU) 2021/2279, Annex C), per
@@ -76,8 +76,7 @@ export function circularFootprint(ctx: CalcContext, graph: FigureGraph, inv: Inv
       if (recycledOutKg > 0 && a < 1) {
         const recycling = factor(material.eol_recycling!);
         const substituted = factor(material.substituted ?? material.virgin);
-        const perKg = minusScaled(recycling.values, substituted.values, material.q_out);
-        addScaled(values, perKg, recycledOutKg * (1 - a));
+        addScaled(values, ctx.netRecyclingPerKg(line.material), recycledOutKg * (1 - a));
         terms.push(
           cellTerm(ctx.cell(ctx.project.bom, line.row, 'mass_kg'), 'M'),
           eolCell('recycling'),
@@ -89,8 +88,11 @@ export function circularFootprint(ctx: CalcContext, graph: FigureGraph, inv: Inv
         );
         formula += ' + (M·R2 + scrap·yield)·(1−A)·(ErecEoL − E*v·Qsout/Qp)';
       }
-      energyIds.push(...energyPart(ctx, graph, method, line, m, factor));
-      disposalIds.push(disposalPart(ctx, graph, method, line, m, factor));
+      // The energy and disposal parts do not depend on A (B = 0): one figure serves all three methods.
+      if (!graph.get(`cff/disposal/${line.key}`)) {
+        energyIds.push(...energyPart(ctx, graph, line, m, factor));
+        disposalIds.push(disposalPart(ctx, graph, line, m, factor));
+      }
     }
     const id = `${method}/material/${line.key}`;
     vectorFigure(graph, id, values, formula, `${method === 'cff' ? 'Circular Footprint Formula' : method} material part for ${line.line.component} (${material.material}).`, terms);
@@ -98,8 +100,8 @@ export function circularFootprint(ctx: CalcContext, graph: FigureGraph, inv: Inv
   }
 
   const materialPart = sumFigure(graph, `${method}/material`, materialIds, 'Σ lines material part', 'Material part: production of the inputs with the recycled-content credit shared by A, and the end-of-life recycling credit shared by 1 − A.');
-  const energyPartId = sumFigure(graph, `${method}/energy`, energyIds, 'Σ lines (1−B)·R3·M·(EER − LHV·X_heat·E_heat − LHV·X_el·E_el), B = 0', 'Energy part: incineration with energy recovery, minus the energy it replaces.');
-  const disposalPart_ = sumFigure(graph, `${method}/disposal`, disposalIds, 'Σ lines M·(1 − R2 − R3 − reuse)·ED', 'Disposal part: what is neither recycled, re-used nor recovered for energy.');
+  const energyPartId = graph.get('cff/energy') ?? sumFigure(graph, 'cff/energy', energyIds, 'Σ lines (1−B)·R3·M·(EER − LHV·X_heat·E_heat − LHV·X_el·E_el), B = 0', 'Energy part: incineration with energy recovery, minus the energy it replaces; it does not depend on A, so the CFF, 0:100 and 50:50 share it.');
+  const disposalPart_ = graph.get('cff/disposal') ?? sumFigure(graph, 'cff/disposal', disposalIds, 'Σ lines M·(1 − R2 − R3 − reuse)·ED', 'Disposal part: what is neither recycled, re-used nor recovered for energy; it does not depend on A, so the CFF, 0:100 and 50:50 share it.');
   const others = [cut.parts.a2, cut.parts.a3Activities, cut.parts.a3ScrapDisposal, ...(cut.parts.a4 ? [cut.parts.a4] : []), ...(cut.parts.a5 ? [cut.parts.a5] : []), cut.parts.c1, cut.parts.c2, cut.parts.c3Processing];
   const total = sumFigure(
     graph,
@@ -112,7 +114,7 @@ export function circularFootprint(ctx: CalcContext, graph: FigureGraph, inv: Inv
   return { parts: { material: materialPart.id, energy: energyPartId.id, disposal: disposalPart_.id }, total: total.id };
 }
 
-function energyPart(ctx: CalcContext, graph: FigureGraph, method: CffMethod, line: LineFlows, m: MaterialEol, factor: (id: string) => ResolvedFactor): string[] {
+function energyPart(ctx: CalcContext, graph: FigureGraph, line: LineFlows, m: MaterialEol, factor: (id: string) => ResolvedFactor): string[] {
   const e = m.eol.value;
   const material = line.material.value;
   if (e.energy_recovery <= 0 || !material.incineration) return [];
@@ -141,7 +143,7 @@ function energyPart(ctx: CalcContext, graph: FigureGraph, method: CffMethod, lin
       heat.term('E_heat'),
     );
   }
-  const id = `${method}/energy/${line.key}`;
+  const id = `cff/energy/${line.key}`;
   vectorFigure(graph, id, values, 'M·R3·(EER − LHV·X_heat·E_heat − LHV·X_el·E_el)', `Energy recovery from ${line.line.component}.`, terms);
   return [id];
 }
@@ -151,7 +153,7 @@ function energyPart(ctx: CalcContext, graph: FigureGraph, method: CffMethod, lin
  * recovery, that share is charged at the incineration factor and the rest at ED (landfill);
  * with no such share this is the formula as published.
  */
-function disposalPart(ctx: CalcContext, graph: FigureGraph, method: CffMethod, line: LineFlows, m: MaterialEol, factor: (id: string) => ResolvedFactor): string {
+function disposalPart(ctx: CalcContext, graph: FigureGraph, line: LineFlows, m: MaterialEol, factor: (id: string) => ResolvedFactor): string {
   const e = m.eol.value;
   const material = line.material.value;
   const r2 = e.recycling * e.recycling_yield;
@@ -174,7 +176,7 @@ function disposalPart(ctx: CalcContext, graph: FigureGraph, method: CffMethod, l
     addScaled(values, inc.values, line.line.mass_kg * e.incineration);
     terms.push(eolCell('incineration', 'incineration'), inc.term('E_inc'));
   }
-  const id = `${method}/disposal/${line.key}`;
+  const id = `cff/disposal/${line.key}`;
   vectorFigure(graph, id, values, 'M·[(1 − R2 − R3 − reuse − incineration)·ED + incineration·E_inc]', `Disposal of ${line.line.component} at end of life.`, terms);
   return id;
 }

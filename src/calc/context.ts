@@ -79,9 +79,16 @@ export class CalcContext {
   private tableFactor(id: string): ResolvedFactor {
     const row = this.factorRows.get(id);
     if (!row) throw new Error(`factor ${id} not in the validated project`);
-    const values = new Float64Array(this.indicators.map((code) => indicatorValue(row.value, code) ?? Number.NaN));
+    const values: Vec = this.indicators.map((code) => indicatorValue(row.value, code) ?? Number.NaN);
     const ref = { file: this.project.factors.file, line: row.line, factorId: id, raw: row.raw };
-    return { id, unit: row.value.unit, values, term: (symbol) => factorTerm(ref, symbol), ensure: () => undefined };
+    // Terms are immutable and shared by every figure that uses the factor under the same symbol.
+    const terms = new Map<string, Term>();
+    const term = (symbol: string) => {
+      let cached = terms.get(symbol);
+      if (!cached) terms.set(symbol, (cached = factorTerm(ref, symbol)));
+      return cached;
+    };
+    return { id, unit: row.value.unit, values, term, ensure: () => undefined };
   }
 
   /**
@@ -93,7 +100,7 @@ export class CalcContext {
     const gas = findGas(id)!;
     const gwp = gas[this.gwpSet];
     const part = gas.id === 'CH4-nonfossil' ? 'GWP-biogenic' : 'GWP-fossil';
-    const values = new Float64Array(this.indicators.map((code) => (code === 'GWP-total' || code === part ? gwp : 0)));
+    const values: Vec = this.indicators.map((code) => (code === 'GWP-total' || code === part ? gwp : 0));
     const referenceId = `reference/gwp/${this.gwpSet}/${gas.id}`;
     return {
       id,
@@ -110,6 +117,24 @@ export class CalcContext {
         });
       },
     };
+  }
+
+  private readonly netRecycling = new Map<string, Vec>();
+
+  /**
+   * Per kg of recycled output: E_MR,after EoW − E_VMSub·Q_out (EN 15804+A2 Annex D), the
+   * same bracket as ErecEoL − E*v·Qsout/Qp of the CFF. Computed once per material.
+   */
+  netRecyclingPerKg(materialRow: Row<Material>): Vec {
+    const material = materialRow.value;
+    let values = this.netRecycling.get(material.material);
+    if (!values) {
+      const recycling = this.factor(material.eol_recycling!).values;
+      const substituted = this.factor(material.substituted ?? material.virgin).values;
+      values = recycling.map((value, i) => value - substituted[i]! * material.q_out);
+      this.netRecycling.set(material.material, values);
+    }
+    return values;
   }
 
   /** A value of declaration.json as a cell: its line, its JSON path, its text. */

@@ -4,7 +4,7 @@ import { cellTerm, figureTerm, type FigureGraph, type Term } from '../trace/grap
 import { conversionTerm, type CalcContext, type ResolvedFactor } from './context.ts';
 import type { Inventory, LineFlows, MaterialEol } from './inventory.ts';
 import { sumFigure, vectorFigure } from './nodes.ts';
-import { addScaled, minusScaled, scaled, zeros } from './vector.ts';
+import { addScaled, scaled, zeros } from './vector.ts';
 
 /** Modules in EN 15804+A2 order. A4 and A5 appear only when the product has rows for them. */
 export const CUTOFF_MODULES = ['A1', 'A2', 'A3', 'A1-A3', 'A4', 'A5', 'C1', 'C2', 'C3', 'C4', 'D'] as const;
@@ -249,9 +249,8 @@ function moduleD(ctx: CalcContext, graph: FigureGraph, m: MaterialEol, factor: (
   if (netKg !== 0) {
     const recycling = factor(material.eol_recycling!);
     const substituted = factor(material.substituted ?? material.virgin);
-    const perKg = minusScaled(recycling.values, substituted.values, material.q_out);
     const id = `cutoff/D/material:${m.materialId}`;
-    vectorFigure(graph, id, scaled(perKg, netKg), '(M_MR,out − M_MR,in)·(E_MR − E_VMSub·Q_out)', `Net recycling of ${m.materialId}: recycling after end of waste minus the virgin material it replaces.`, [
+    vectorFigure(graph, id, scaled(ctx.netRecyclingPerKg(m.material), netKg), '(M_MR,out − M_MR,in)·(E_MR − E_VMSub·Q_out)', `Net recycling of ${m.materialId}: recycling after end of waste minus the virgin material it replaces.`, [
       figureTerm(`${base}/M_MR_net`, 'M_net'),
       recycling.term('E_MR'),
       substituted.term('E_VMSub'),

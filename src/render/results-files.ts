@@ -20,7 +20,8 @@ export async function writeResults(project: Project, outDir: string): Promise<vo
     const results = resultsJson(ctx, calculateProduct(ctx, rows));
     const dir = path.join(outDir, results.product_id);
     await mkdir(dir, { recursive: true });
-    await writeFile(path.join(dir, 'results.json'), `${JSON.stringify(results, null, 1)}\n`);
+    // Compact: a product's figure graph runs to thousands of figures (see docs/performance.md).
+    await writeFile(path.join(dir, 'results.json'), `${JSON.stringify(results)}\n`);
     await writeFile(path.join(dir, 'results.csv'), resultsCsv([results]));
     const { figures: _figures, ...summary } = results;
     summaries.push(summary);

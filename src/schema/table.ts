@@ -24,7 +24,8 @@ export interface Table<T> {
   rows: Row<T>[];
   /** Every data record's cells as written (valid or not), for reference checks. */
   written: Array<{ line: number; raw: Record<string, string> }>;
-  csv: CsvFile;
+  /** The file as read (its text, to show rows as written); the parsed records are not kept. */
+  csv: Pick<CsvFile, 'file' | 'delimiter' | 'header' | 'text' | 'bytes'>;
 }
 
 export interface TableOptions {
@@ -128,7 +129,8 @@ export function parseTable<S extends CsvFileSchema>(csv: CsvFile, schema: S, opt
   if (schema.needsRows && csv.records.length === 0) {
     problems.push({ severity: 'error', code: 'NO_ROWS', file, line: headerLine, message: `${file} has a header but no rows`, expected: 'at least one row' });
   }
-  return { table: { file, delimiter: csv.delimiter, columns, rows, written, csv }, problems };
+  const source = { file, delimiter: csv.delimiter, header: csv.header, text: csv.text, bytes: csv.bytes };
+  return { table: { file, delimiter: csv.delimiter, columns, rows, written, csv: source }, problems };
 }
 
 /** factors.csv headers: indicator codes match whatever their case. */

@@ -1,3 +1,4 @@
+import type { Vec } from '../calc/vector.ts';
 /**
  * The figure graph: every reported number is a figure with a stable id, a formula, its
  * value and its terms — other figures or input cells. A node is either a vector (one
@@ -41,7 +42,7 @@ interface NodeBase {
 export interface VectorNode extends NodeBase {
   kind: 'vector';
   /** One value per indicator of the calculation; NaN where an input was not available. */
-  values: Float64Array;
+  values: Vec;
 }
 
 export interface ScalarNode extends NodeBase {
