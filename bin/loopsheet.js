@@ -2,15 +2,34 @@
 // The `loopsheet` command. The source is TypeScript, run through tsx's loader so a clone
 // works without a compile step; the loader is resolved from this file, not from the
 // user's working directory.
-import { register } from 'tsx/esm/api';
+import { spawn } from 'node:child_process';
+import { fileURLToPath } from 'node:url';
 
-register();
-// `loopsheet check --json | head` closes the pipe early: that is not a failure.
-for (const stream of [process.stdout, process.stderr]) {
-  stream.on('error', (error) => {
-    if (error.code === 'EPIPE') process.exit(process.exitCode ?? 0);
-    throw error;
+/**
+ * V8 flags the tool runs with. A product's figure graph lives for about a millisecond; with
+ * the default young generation many graphs are promoted and pile up in the old generation
+ * until a full collection. A larger young generation keeps them young: at 10 000 products the
+ * calculation's peak RSS drops from 2.6 GB to 1.1 GB, and it runs faster (npm run bench).
+ */
+const NODE_FLAGS = ['--max-semi-space-size=64'];
+
+if (!process.execArgv.some((flag) => flag.startsWith('--max-semi-space-size')) && process.env.LOOPSHEET_NO_REEXEC !== '1') {
+  const child = spawn(process.execPath, [...NODE_FLAGS, ...process.execArgv, fileURLToPath(import.meta.url), ...process.argv.slice(2)], { stdio: 'inherit' });
+  for (const signal of ['SIGINT', 'SIGTERM']) process.on(signal, () => child.kill(signal));
+  child.on('exit', (code, signal) => {
+    if (signal) process.kill(process.pid, signal);
+    else process.exit(code ?? 3);
   });
+} else {
+  const { register } = await import('tsx/esm/api');
+  register();
+  // `loopsheet check --json | head` closes the pipe early: that is not a failure.
+  for (const stream of [process.stdout, process.stderr]) {
+    stream.on('error', (error) => {
+      if (error.code === 'EPIPE') process.exit(process.exitCode ?? 0);
+      throw error;
+    });
+  }
+  const { main } = await import('../src/cli/main.ts');
+  process.exitCode = await main(process.argv.slice(2));
 }
-const { main } = await import('../src/cli/main.ts');
-process.exitCode = await main(process.argv.slice(2));

@@ -28,7 +28,8 @@ interface Measurement {
   rows: number;
 }
 
-const once = (args: string[]): Measurement => JSON.parse(execFileSync(process.execPath, [runTs, 'scripts/bench-one.ts', ...args], { encoding: 'utf8', maxBuffer: 1 << 20 })) as Measurement;
+// With the V8 flags bin/loopsheet.js runs the tool with.
+const once = (args: string[]): Measurement => JSON.parse(execFileSync(process.execPath, ['--max-semi-space-size=64', runTs, 'scripts/bench-one.ts', ...args], { encoding: 'utf8', maxBuffer: 1 << 20 })) as Measurement;
 
 /**
  * Allocation-heavy phases vary between runs on this machine (the same load of 10 000

@@ -126,3 +126,19 @@ describe('module D charges a net inflow of secondary material (EN 15804+A2 Annex
     expect(gwp(results.methods.cutoff.modules.D)).toBeGreaterThan(0);
   });
 });
+
+describe('process scrap under the CFF, 0:100 and 50:50 (rule in DEVELOPERS.md)', () => {
+  it('scrap to landfill is charged as in cut-off A3, and earns no recycling term', async () => {
+    const fixture = base();
+    fixture.bom = fixture.bom.replace(',0.2,recycled,test', ',0.2,landfill,test');
+    const [{ results }] = (await compute(await writeFixture(fixture))) as [Awaited<ReturnType<typeof compute>>[number]];
+    // A3 = 0.5 (electricity) + scrap 0.25 kg · ED 0.1 = 0.525
+    expect(gwp(results.methods.cutoff.modules.A3)).toBeCloseTo(0.525, 12);
+    // CFF material: 11.9 + (M·R2 only, no scrap) 0.72·0.8·(−9) = 11.9 − 5.184 = 6.716
+    expect(gwp(results.methods.cff?.parts.material)).toBeCloseTo(6.716, 12);
+    // total = 6.716 + 0.028 + 0.025 + 0.5 + 0.025 (scrap disposal) + 0.01 + 0.04 = 7.344
+    expect(gwp(results.methods.cff?.total)).toBeCloseTo(7.344, 12);
+    // module D: out = 0.8·0.9 = 0.72 (no scrap), in = 0.375; D = 0.345·(−9) = −3.105
+    expect(gwp(results.methods.cutoff.modules.D)).toBeCloseTo(-3.105, 12);
+  });
+});
