@@ -25,7 +25,6 @@ export async function runBuild(options: BuildOptions, io: Io): Promise<number> {
     io.err(`build stopped: nothing was written to ${options.out}`);
     return EXIT.input;
   }
-  const view = buildSiteView(project, problems);
 
   const browser = options.pdf === 'off' ? undefined : await findBrowser();
   if (options.pdf === 'required' && !browser) {
@@ -33,9 +32,12 @@ export async function runBuild(options: BuildOptions, io: Io): Promise<number> {
     return EXIT.input;
   }
   let missingPdfs: string[] = [];
+  let productCount = 0;
   await withStagedOutput(options.out, async (staging) => {
+    const results = await writeResults(project, staging);
+    const view = buildSiteView(project, problems, results);
+    productCount = view.products.length;
     await renderSite(view, staging);
-    await writeResults(project, staging);
     const jobs = view.products.map((product) => ({
       html: path.join(staging, product.id, 'index.html'),
       pdf: path.join(staging, product.pdf),
@@ -52,6 +54,6 @@ export async function runBuild(options: BuildOptions, io: Io): Promise<number> {
   if (missingPdfs.length > 0) {
     io.err(`no browser found (PUPPETEER_EXECUTABLE_PATH, chromium/chrome on the PATH, puppeteer’s cache): HTML written, these PDFs were not:\n${missingPdfs.map((pdf) => `  ${pdf}`).join('\n')}`);
   }
-  io.out(`built ${view.products.length} products into ${options.out}${options.pdf === 'off' ? ' (no PDFs: --no-pdf)' : ''}`);
+  io.out(`built ${productCount} products into ${options.out}${options.pdf === 'off' ? ' (no PDFs: --no-pdf)' : ''}`);
   return EXIT.ok;
 }

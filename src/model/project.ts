@@ -32,6 +32,7 @@ export async function loadProject(dirArgument: string): Promise<ProjectLoad> {
     problems.push(...load.problems);
     if (load.ok) csv.set(CSV_FILES[index]!.file, load.csv);
   });
+  csvLoads.length = 0;
 
   let declaration: Declaration | undefined;
   let declarationFile: JsonFile | undefined;
@@ -47,6 +48,8 @@ export async function loadProject(dirArgument: string): Promise<ProjectLoad> {
   const tableOf = <S extends (typeof CSV_FILES)[number]>(schema: S, options = {}) => {
     const file = csv.get(schema.file);
     if (!file) return undefined;
+    // Once parsed into rows, a file's raw records are not needed: let them go before the next file.
+    csv.delete(schema.file);
     const { table, problems: found } = parseTable(file, schema, options);
     problems.push(...found);
     return table;

@@ -5,7 +5,7 @@ import { calculateProduct } from '../calc/product.ts';
 import { rowsByProduct } from '../model/by-product.ts';
 import type { Project } from '../model/types.ts';
 import { resultsCsv } from '../report/results-csv.ts';
-import { resultsJson, type ResultsJson } from '../report/results.ts';
+import { resultsJson, type ResultsJson, type ResultsSummary } from '../report/results.ts';
 
 /**
  * Writes `<product_id>/results.json` (with its figure graph) and `results.csv` per product,
@@ -13,9 +13,9 @@ import { resultsJson, type ResultsJson } from '../report/results.ts';
  * at a time and their graphs dropped once written, so memory does not grow with the
  * catalogue; the catalogue-wide JSON carries the results without the figure graphs.
  */
-export async function writeResults(project: Project, outDir: string): Promise<void> {
+export async function writeResults(project: Project, outDir: string): Promise<ResultsSummary[]> {
   const ctx = new CalcContext(project);
-  const summaries: Array<Omit<ResultsJson, 'figures'>> = [];
+  const summaries: ResultsSummary[] = [];
   for (const rows of rowsByProduct(project)) {
     const results = resultsJson(ctx, calculateProduct(ctx, rows));
     const dir = path.join(outDir, results.product_id);
@@ -28,4 +28,5 @@ export async function writeResults(project: Project, outDir: string): Promise<vo
   }
   await writeFile(path.join(outDir, 'results.json'), `${JSON.stringify({ products: summaries }, null, 1)}\n`);
   await writeFile(path.join(outDir, 'results.csv'), resultsCsv(summaries as ResultsJson[]));
+  return summaries;
 }

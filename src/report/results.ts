@@ -30,6 +30,9 @@ export interface ResultsJson {
   figures: Record<string, FigureJson>;
 }
 
+/** A product's results without its figure graph (the catalogue-wide results.json). */
+export type ResultsSummary = Omit<ResultsJson, 'figures'>;
+
 export type TermJson = string | { file: string; line: number; column: string; value: string };
 
 export interface FigureJson {

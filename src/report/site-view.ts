@@ -4,7 +4,8 @@ import { formatProblem, type Problem } from '../problems.ts';
 import { findGas, GWP_SOURCES } from '../reference/ghg.ts';
 import { findIndicator } from '../reference/indicators.ts';
 import { TOOL_NAME, TOOL_VERSION } from '../reference/tool.ts';
-import { formatInput, formatShare } from './format.ts';
+import { formatInput, formatScientific, formatShare } from './format.ts';
+import type { ResultsSummary } from './results.ts';
 
 /**
  * View models for the site: everything a template prints, already formatted, so the
@@ -35,6 +36,13 @@ export interface TableView {
   empty: string;
 }
 
+export interface ResultsView {
+  modules: Array<{ code: string; moduleD: boolean }>;
+  rows: Array<{ code: string; name: string; unit: string; cells: Array<{ text: string; moduleD: boolean }> }>;
+  methods: Array<{ name: string; rewards: string; total: string; note: string }>;
+  indicator: string;
+}
+
 export interface ProductView {
   id: string;
   name: string;
@@ -47,6 +55,9 @@ export interface ProductView {
   pdf: string;
   lineCount: number;
   tables: TableView[];
+  results?: ResultsView;
+  resultsJson: string;
+  resultsCsv: string;
 }
 
 export interface SiteView {
@@ -103,7 +114,34 @@ const num = (value: number): Cell => ({ text: formatInput(value), numeric: true 
 const pct = (value: number): Cell => ({ text: formatShare(value), numeric: true });
 const txt = (value: string | undefined): Cell => ({ text: value ?? '' });
 
-export function buildSiteView(project: Project, problems: readonly Problem[]): SiteView {
+/** One sentence per method: what it rewards. */
+export const METHOD_SENTENCES: Record<string, { name: string; rewards: string }> = {
+  cutoff: { name: 'Cut-off, with module D (EN 15804+A2)', rewards: 'Rewards recycled content: secondary input carries only its reprocessing; the net benefit of recycling at end of life is shown apart, in module D, and is not in the total.' },
+  cff: { name: 'Circular Footprint Formula', rewards: 'Shares the benefit of recycling between the user of recycled material and the supplier of recyclable material by the allocation factor A (0.2 for metals, Recommendation (EU) 2021/2279).' },
+  'eol-recycling': { name: 'End-of-life recycling, 0:100', rewards: 'Rewards recycling at end of life: recycled input carries the virgin burden, and material recycled at end of life earns the virgin production it avoids.' },
+  'fifty-fifty': { name: '50:50', rewards: 'Splits the burden and the benefit of recycling equally between the recycled input and the recyclable output.' },
+};
+
+const sci = (value: number | null | undefined): string => (value === null || value === undefined ? 'n/a' : formatScientific(value, 3));
+
+function resultsView(results: ResultsSummary): ResultsView {
+  const modules = Object.keys(results.methods.cutoff.modules).map((code) => ({ code, moduleD: code === 'D' }));
+  const rows = results.indicators.map((indicator) => ({
+    code: indicator.code,
+    name: indicator.name,
+    unit: indicator.unit,
+    cells: modules.map((m) => ({ text: sci(results.methods.cutoff.modules[m.code]?.[indicator.code]), moduleD: m.moduleD })),
+  }));
+  const code = 'GWP-total';
+  const methods = Object.entries(results.methods).map(([method, values]) => ({
+    ...METHOD_SENTENCES[method]!,
+    total: sci(values.total[code]),
+    note: method === 'cutoff' ? `A1–C4; module D ${sci(results.methods.cutoff.modules.D?.[code])} reported apart` : 'life cycle, as the method defines it',
+  }));
+  return { modules, rows, methods, indicator: code };
+}
+
+export function buildSiteView(project: Project, problems: readonly Problem[], results: readonly ResultsSummary[] = []): SiteView {
   const d = project.declaration;
   return {
     tool: { name: TOOL_NAME, version: TOOL_VERSION },
@@ -125,7 +163,7 @@ export function buildSiteView(project: Project, problems: readonly Problem[]): S
       illustrative: d.illustrative,
     },
     cautions: CAUTIONS,
-    products: productViews(project),
+    products: productViews(project, new Map(results.map((r) => [r.product_id, r]))),
     factors: factorTable(project, project.factors.rows),
     warnings: problems.filter((p) => p.severity === 'warning').map(formatProblem),
     indicators: project.indicators.map((code) => {
@@ -181,17 +219,17 @@ interface ProductIndex {
 }
 
 /** Rows grouped by product once, so building every page is linear in the catalogue. */
-function productViews(project: Project): ProductView[] {
+function productViews(project: Project, results: Map<string, ResultsSummary>): ProductView[] {
   const index: ProductIndex = {
     bom: groupBy(project.bom.rows, (row) => row.value.product_id),
     activities: groupBy(project.activities.rows, (row) => row.value.product_id),
     transport: groupBy(project.transport.rows, (row) => row.value.product_id),
     eol: groupBy(project.eol.rows, (row) => row.value.scenario),
   };
-  return project.products.rows.map((row) => productView(project, index, row));
+  return project.products.rows.map((row) => productView(project, index, row, results.get(row.value.product_id)));
 }
 
-function productView(project: Project, index: ProductIndex, productRow: Row<Product>): ProductView {
+function productView(project: Project, index: ProductIndex, productRow: Row<Product>, results: ResultsSummary | undefined): ProductView {
   const product = productRow.value;
   const lines = index.bom.get(product.product_id) ?? [];
   const activities = index.activities.get(product.product_id) ?? [];
@@ -297,5 +335,8 @@ function productView(project: Project, index: ProductIndex, productRow: Row<Prod
     pdf: `${product.product_id}/declaration.pdf`,
     lineCount: lines.length,
     tables,
+    ...(results ? { results: resultsView(results) } : {}),
+    resultsJson: 'results.json',
+    resultsCsv: 'results.csv',
   };
 }

@@ -12,7 +12,7 @@ const scratch = async () => {
 };
 
 describe('loopsheet usage', () => {
-  it.each(['check', 'build', 'init', 'schema'])('%s --help prints its usage and exits 0', async (command) => {
+  it.each(['check', 'build', 'explain', 'init', 'schema'])('%s --help prints its usage and exits 0', async (command) => {
     const result = await runCli([command, '--help']);
     expect(result.code).toBe(0);
     expect(result.stdout).toContain(`loopsheet ${command}`);
@@ -97,6 +97,26 @@ describe('loopsheet check', () => {
   });
 });
 
+describe('loopsheet explain', () => {
+  it('walks a figure down to the CSV cells, with values at each step', async () => {
+    const result = await runCli(['explain', 'KV-EXT-6060', 'cutoff/D/GWP-total', '--data', DEMO]);
+    expect(result.code, result.stderr).toBe(0);
+    expect(result.stdout.split('\n')[0]).toMatch(/^cutoff\/D\/GWP-total = -2\.18\d* kg CO2 eq\.$/);
+    expect(result.stdout).toContain('bom.csv:3 mass_kg = "0.83"');
+    expect(result.stdout).toContain('eol.csv:3 recycling = "96%"');
+    expect(result.stdout).toContain('factors.csv:3 GWP-total = "11.85"  (factor al-primary-ingot)');
+  });
+
+  it('an unknown figure or product is a usage error (exit 2) with the nearest id', async () => {
+    const figure = await runCli(['explain', 'KV-EXT-6060', 'cutoff/A1/GWP-totl', '--data', DEMO]);
+    expect(figure.code).toBe(2);
+    expect(figure.stderr).toContain('did you mean "cutoff/A1/GWP-total"?');
+    const product = await runCli(['explain', 'KV-EXT-606', 'cutoff/A1/GWP-total', '--data', DEMO]);
+    expect(product.code).toBe(2);
+    expect(product.stderr).toContain('did you mean "KV-EXT-6060"?');
+  });
+});
+
 describe('loopsheet init', () => {
   it('scaffolds every input file with its header and a commented example row, plus a README of the columns', async () => {
     const dir = path.join(await scratch(), 'my-project');
@@ -163,6 +183,13 @@ describe('loopsheet build', () => {
     expect(page).toContain('Draft — not verified.');
     expect(page).toContain('Illustrative data.');
     expect(page).toContain('href="../assets/style.css"');
+    // The results table shows results.json rounded to three significant figures.
+    const results = JSON.parse(await readFile(path.join(site, 'KV-CU-BB10', 'results.json'), 'utf8'));
+    for (const module of ['A1', 'A1-A3', 'D']) expect(page).toContain(`>${results.methods.cutoff.modules[module]['GWP-total'].toExponential(2)}<`);
+    expect(page).toContain(`>${results.methods.cff.total['GWP-total'].toExponential(2)}<`);
+    expect(results.figures['cutoff/A1/GWP-total'].value).toBe(results.methods.cutoff.modules.A1['GWP-total']);
+    const catalogueCsv = await readFile(path.join(site, 'results.csv'), 'utf8');
+    expect(catalogueCsv.split('\n')[0]).toBe('product_id,method,module,indicator,unit,value,figure_id');
     // Eleventy's own summary must not reach stdout, which is for results.
     expect(result.stdout).not.toMatch(/\[11ty\]/);
   });
