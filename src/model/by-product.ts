@@ -8,7 +8,7 @@ export interface ProductRows {
   transport: Row<TransportLeg>[];
 }
 
-function groupBy<T>(rows: T[], key: (row: T) => string): Map<string, T[]> {
+export function groupBy<T>(rows: T[], key: (row: T) => string): Map<string, T[]> {
   const groups = new Map<string, T[]>();
   for (const row of rows) {
     const k = key(row);

@@ -1,4 +1,5 @@
-import { indicatorValue, type Project, type Product } from '../model/project.ts';
+import { indicatorValue, type Project } from '../model/project.ts';
+import { groupBy, rowsByProduct, type ProductRows } from '../model/by-product.ts';
 import type { Row, Table } from '../schema/table.ts';
 import { formatProblem, type Problem } from '../problems.ts';
 import { findGas, GWP_SOURCES } from '../reference/ghg.ts';
@@ -200,43 +201,21 @@ function factorTable(project: Project, rows: Project['factors']['rows']): TableV
   };
 }
 
-function groupBy<T>(rows: T[], key: (row: T) => string): Map<string, T[]> {
-  const groups = new Map<string, T[]>();
-  for (const row of rows) {
-    const k = key(row);
-    const group = groups.get(k);
-    if (group) group.push(row);
-    else groups.set(k, [row]);
-  }
-  return groups;
-}
-
-interface ProductIndex {
-  bom: Map<string, Project['bom']['rows']>;
-  activities: Map<string, Project['activities']['rows']>;
-  transport: Map<string, Project['transport']['rows']>;
-  eol: Map<string, Project['eol']['rows']>;
-}
-
-/** Rows grouped by product once, so building every page is linear in the catalogue. */
+/** Rows grouped by product once (and scenarios by name), so building every page is linear in the catalogue. */
 function productViews(project: Project, results: Map<string, ResultsSummary>): ProductView[] {
-  const index: ProductIndex = {
-    bom: groupBy(project.bom.rows, (row) => row.value.product_id),
-    activities: groupBy(project.activities.rows, (row) => row.value.product_id),
-    transport: groupBy(project.transport.rows, (row) => row.value.product_id),
-    eol: groupBy(project.eol.rows, (row) => row.value.scenario),
-  };
-  return project.products.rows.map((row) => productView(project, index, row, results.get(row.value.product_id)));
+  const scenarios = groupBy(project.eol.rows, (row) => row.value.scenario);
+  return rowsByProduct(project).map((rows) => productView(project, rows, scenarios, results.get(rows.product.value.product_id)));
 }
 
-function productView(project: Project, index: ProductIndex, productRow: Row<Product>, results: ResultsSummary | undefined): ProductView {
+function productView(project: Project, rows: ProductRows, scenarios: Map<string, Project['eol']['rows']>, results: ResultsSummary | undefined): ProductView {
+  const productRow = rows.product;
   const product = productRow.value;
-  const lines = index.bom.get(product.product_id) ?? [];
-  const activities = index.activities.get(product.product_id) ?? [];
-  const legs = index.transport.get(product.product_id) ?? [];
+  const lines = rows.bom;
+  const activities = rows.activities;
+  const legs = rows.transport;
+  const eolRows = scenarios.get(product.eol_scenario) ?? [];
   const materialIds = new Set(lines.map((row) => row.value.material));
   const materials = project.materials.rows.filter((row) => materialIds.has(row.value.material));
-  const eolRows = index.eol.get(product.eol_scenario) ?? [];
 
   const factorIds = new Set<string>();
   for (const m of materials) for (const id of [m.value.virgin, m.value.recycled, m.value.eol_recycling, m.value.substituted, m.value.landfill, m.value.incineration]) if (id) factorIds.add(id);
