@@ -33,6 +33,7 @@ export class CalcContext {
   private readonly factors = new Map<string, ResolvedFactor>();
   private readonly materials: Map<string, Row<Material>>;
   private readonly scenarios = new Map<string, Map<string, Row<EolRow>>>();
+  private readonly factorRows: Map<string, Row<FactorRow>>;
 
   constructor(readonly project: Project) {
     this.indicators = project.indicators.filter((code) => findIndicator(code)?.basis === 'factors');
@@ -43,11 +44,8 @@ export class CalcContext {
       if (!this.scenarios.has(row.value.scenario)) this.scenarios.set(row.value.scenario, new Map());
       this.scenarios.get(row.value.scenario)!.set(row.value.material, row);
     }
-    const factorRows = new Map(project.factors.rows.map((row) => [row.value.factor_id, row]));
-    this.factorRows = factorRows;
+    this.factorRows = new Map(project.factors.rows.map((row) => [row.value.factor_id, row]));
   }
-
-  private readonly factorRows: Map<string, Row<FactorRow>>;
 
   get length(): number {
     return this.indicators.length;

@@ -46,7 +46,7 @@ export function cutoff(ctx: CalcContext, graph: FigureGraph, inv: Inventory, row
   };
 
   // A1: raw material supply of the product's lines.
-  const a1Lines = inv.productLines.map((line) => productionFigure(ctx, graph, `cutoff/A1/${line.key}`, line, factor));
+  const a1Lines = inv.productLines.map((line) => productionFigure(graph, `cutoff/A1/${line.key}`, line, factor));
   const a1Activities = activityFigures(ctx, graph, 'A1', rows.activities, factor);
   const a1 = sumFigure(graph, 'cutoff/A1', [...a1Lines, ...a1Activities], 'A1 = Σ lines G·[(1−R1)·Ev + R1·Erec] + Σ A1 activities', 'Raw material supply: each product line’s gross input, virgin share at the virgin factor, recycled share at the recycled-production factor.');
 
@@ -70,7 +70,7 @@ export function cutoff(ctx: CalcContext, graph: FigureGraph, inv: Inventory, row
     scrapIds.push(id);
   }
   const a3Scrap = sumFigure(graph, 'cutoff/A3/scrap-disposal', scrapIds, 'Σ scrap to landfill·ED + scrap to incineration·E_inc', 'Process scrap that is disposed of; scrap sent to recycling leaves free of burden (reported as MFR).');
-  const packaging = inv.packagingLines.map((line) => productionFigure(ctx, graph, `cutoff/A3/${line.key}`, line, factor));
+  const packaging = inv.packagingLines.map((line) => productionFigure(graph, `cutoff/A3/${line.key}`, line, factor));
   const a3 = sumFigure(graph, 'cutoff/A3', [a3Activities.id, a3Scrap.id, ...packaging], 'A3 = activities + scrap disposal + packaging production', 'Manufacturing: energy and ancillaries, disposal of process scrap, production of the packaging.');
 
   const a13 = sumFigure(graph, 'cutoff/A1-A3', [a1.id, a2.id, a3.id], 'A1-A3 = A1 + A2 + A3', 'Cradle to gate.');
@@ -147,7 +147,7 @@ export function cutoff(ctx: CalcContext, graph: FigureGraph, inv: Inventory, row
 }
 
 /** G·[(1−R1)·Ev + R1·Erec]: making one line's gross input. */
-function productionFigure(ctx: CalcContext, graph: FigureGraph, id: string, line: LineFlows, factor: (id: string) => ResolvedFactor): string {
+function productionFigure(graph: FigureGraph, id: string, line: LineFlows, factor: (id: string) => ResolvedFactor): string {
   const material = line.material.value;
   const ev = factor(material.virgin);
   const values = scaled(ev.values, line.grossKg * (1 - line.r1));

@@ -35,7 +35,8 @@ export function flows(ctx: CalcContext, graph: FigureGraph, inv: Inventory, modu
   const scrapToRecycling = sum(inv.lines.filter((l) => l.line.scrap_fate === 'recycled' && l.scrapKg > 0).map((l) => ({ value: l.scrapKg, terms: [figureTerm(l.ids.scrap, `scrap(${l.line.line_id})`)] })));
 
   const defined: Partial<Record<string, Partial<Record<FlowCode, { value: number; terms: Term[]; formula: string; description: string }>>>> = {
-    A1: { SM: { ...secondary(inv.productLines), formula: 'SM = Σ product lines G·R1', description: 'Secondary material in the product’s inputs.' } },
+    // The product's secondary input is module D's M_MR,in, summed over its materials.
+    A1: { SM: { ...sum(inv.materials.map((m) => ({ value: graph.scalar(`inventory/material:${m.materialId}/M_MR_in`).value, terms: [figureTerm(`inventory/material:${m.materialId}/M_MR_in`, `M_MR,in(${m.materialId})`)] }))), formula: 'SM = Σ materials M_MR,in', description: 'Secondary material in the product’s inputs.' } },
     A3: {
       SM: { ...secondary(inv.packagingLines), formula: 'SM = Σ packaging lines G·R1', description: 'Secondary material in the packaging.' },
       MFR: { ...scrapToRecycling, formula: 'MFR = Σ process scrap sent to recycling', description: 'Process scrap leaving manufacturing for recycling.' },

@@ -31,11 +31,4 @@ export function scaled(source: Vec, scale: number): Vec {
   return out;
 }
 
-/** a − scale · b */
-export function minusScaled(a: Vec, b: Vec, scale: number): Vec {
-  const out: Vec = [];
-  for (let i = 0; i < a.length; i++) out.push(a[i]! - scale * b[i]!);
-  return out;
-}
-
 export const toNullable = (value: number): number | null => (Number.isNaN(value) ? null : value);

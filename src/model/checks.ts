@@ -5,7 +5,7 @@ import { findIndicator } from '../reference/indicators.ts';
 import { nearestName } from '../reference/nearest.ts';
 import { convertible, dimensionOf, unitsOf, type Dimension } from '../reference/units.ts';
 import type { Row, Table } from '../schema/table.ts';
-import { indicatorValue, type Project, type Material, type FactorRow } from './types.ts';
+import { indicatorValue, type BomLine, type EolRow, type FactorRow, type Material, type Product, type Project } from './types.ts';
 
 /**
  * Rules that need more than one row or file: duplicate ids, references across files,
@@ -63,6 +63,24 @@ class CheckContext {
   factorIndex(): Map<string, Row<FactorRow>> {
     this.factorsById ??= new Map(this.project.factors.rows.map((row) => [row.value.factor_id, row]));
     return this.factorsById;
+  }
+
+  private scenarioRows: Map<string, Map<string, Row<EolRow>>> | undefined;
+  private productsById: Map<string, Row<Product>> | undefined;
+
+  /** The end-of-life row that applies to a BOM line: its product's scenario, its material's row, else `*`. */
+  eolRowOf(line: BomLine): Row<EolRow> | undefined {
+    if (!this.scenarioRows) {
+      this.scenarioRows = new Map();
+      for (const row of this.project.eol.rows) {
+        if (!this.scenarioRows.has(row.value.scenario)) this.scenarioRows.set(row.value.scenario, new Map());
+        this.scenarioRows.get(row.value.scenario)!.set(row.value.material, row);
+      }
+    }
+    this.productsById ??= new Map(this.project.products.rows.map((row) => [row.value.product_id, row]));
+    const product = this.productsById.get(line.product_id);
+    const scenario = product && this.scenarioRows.get(product.value.eol_scenario);
+    return scenario?.get(line.material) ?? scenario?.get('*');
   }
 
   private materialsById: Map<string, Row<Material>> | undefined;
@@ -228,12 +246,6 @@ function factorRequirements(ctx: CheckContext): void {
     reported.add(key);
     ctx.at(p.materials, material.line, material.raw, String(column), 'error', 'FACTOR_REQUIRED', `is empty, but ${because}`, { expected: 'a factor_id in factors.csv' });
   };
-  const scenarioRows = new Map<string, Map<string, (typeof p.eol.rows)[number]>>();
-  for (const row of p.eol.rows) {
-    if (!scenarioRows.has(row.value.scenario)) scenarioRows.set(row.value.scenario, new Map());
-    scenarioRows.get(row.value.scenario)!.set(row.value.material, row);
-  }
-  const productsById = new Map(p.products.rows.map((row) => [row.value.product_id, row.value]));
   const methods = p.declaration?.methods ?? ['cff', 'eol-recycling', 'fifty-fifty'];
   const cffReported = methods.some((method) => method !== 'cutoff');
   for (const line of p.bom.rows) {
@@ -244,10 +256,8 @@ function factorRequirements(ctx: CheckContext): void {
     if (b.scrap_rate > 0 && b.scrap_fate === 'landfill') need(b.material, 'landfill', `${where} sends its process scrap to landfill`);
     if (b.scrap_rate > 0 && b.scrap_fate === 'incineration') need(b.material, 'incineration', `${where} sends its process scrap to incineration`);
     if (b.scrap_rate > 0 && b.scrap_fate === 'recycled') need(b.material, 'eol_recycling', `${where} sends process scrap to recycling (module D)`);
-    const product = productsById.get(b.product_id);
-    if (!product || b.role !== 'product') continue;
-    const scenario = scenarioRows.get(product.eol_scenario);
-    const eolRow = scenario?.get(b.material) ?? scenario?.get('*');
+    if (b.role !== 'product') continue;
+    const eolRow = ctx.eolRowOf(b);
     if (!eolRow) continue;
     const route = `eol.csv line ${eolRow.line} sends it`;
     if (eolRow.value.recycling > 0) need(b.material, 'eol_recycling', `${route} to recycling (module D)`);
@@ -385,14 +395,11 @@ function energyRecoveryRules(ctx: CheckContext): void {
     }
     return;
   }
-  const productsById = new Map(p.products.rows.map((row) => [row.value.product_id, row.value]));
-  const scenarioRows = new Map(p.eol.rows.map((row) => [`${row.value.scenario}\u0000${row.value.material}`, row]));
   for (const line of p.bom.rows) {
     if (line.value.role !== 'product') continue;
-    const product = productsById.get(line.value.product_id);
     const material = ctx.material(line.value.material);
-    if (!product || !material) continue;
-    const eolRow = scenarioRows.get(`${product.eol_scenario}\u0000${line.value.material}`) ?? scenarioRows.get(`${product.eol_scenario}\u0000*`);
+    if (!material) continue;
+    const eolRow = ctx.eolRowOf(line.value);
     const lhv = material.value.lhv_mj_per_kg;
     if (eolRow && eolRow.value.energy_recovery > 0 && lhv !== null && lhv > 0) {
       ctx.problems.push({

@@ -6,7 +6,7 @@ import { FACTOR_INDICATOR_CODES, INDICATORS, findIndicator, inReportingOrder } f
 import { CSV_FILES, DECLARATION_FILE, productsCsv, bomCsv, materialsCsv, eolCsv, activitiesCsv, transportCsv, factorsCsv } from '../schema/index.ts';
 import { declarationSchema, DECLARATION_KEYS, type Declaration } from '../schema/declaration.ts';
 import { describeIssue } from '../schema/issues.ts';
-import { parseTable, indicatorHeaderName, type Table } from '../schema/table.ts';
+import { parseTable, indicatorHeaderName } from '../schema/table.ts';
 import { nearestName } from '../reference/nearest.ts';
 import { crossFileChecks } from './checks.ts';
 

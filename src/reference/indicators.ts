@@ -83,11 +83,3 @@ export function inReportingOrder(codes: Iterable<string>): string[] {
   const position = new Map(INDICATORS.map((indicator, index) => [indicator.code, index]));
   return [...new Set(codes)].sort((a, b) => (position.get(a) ?? Infinity) - (position.get(b) ?? Infinity));
 }
-
-export const GROUP_TITLES: Record<IndicatorGroup, string> = {
-  core: 'Core environmental impact indicators',
-  additional: 'Additional environmental impact indicators',
-  resource: 'Resource use',
-  waste: 'Waste categories',
-  output: 'Output flows',
-};

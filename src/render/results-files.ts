@@ -5,7 +5,7 @@ import { calculateProduct } from '../calc/product.ts';
 import { rowsByProduct } from '../model/by-product.ts';
 import type { Project } from '../model/types.ts';
 import { resultsCsv } from '../report/results-csv.ts';
-import { resultsJson, type ResultsJson, type ResultsSummary } from '../report/results.ts';
+import { resultsJson, type ResultsSummary } from '../report/results.ts';
 
 /**
  * Writes `<product_id>/results.json` (with its figure graph) and `results.csv` per product,
@@ -27,6 +27,6 @@ export async function writeResults(project: Project, outDir: string): Promise<Re
     summaries.push(summary);
   }
   await writeFile(path.join(outDir, 'results.json'), `${JSON.stringify({ products: summaries }, null, 1)}\n`);
-  await writeFile(path.join(outDir, 'results.csv'), resultsCsv(summaries as ResultsJson[]));
+  await writeFile(path.join(outDir, 'results.csv'), resultsCsv(summaries));
   return summaries;
 }

@@ -1,4 +1,4 @@
-import type { ResultsJson } from './results.ts';
+import type { ResultsSummary } from './results.ts';
 
 /**
  * One row per product × method × module (or part) × indicator. Text cells that a
@@ -14,7 +14,7 @@ function textCell(text: string): string {
 
 const numberCell = (value: number | null): string => (value === null ? '' : String(value));
 
-export function resultsCsvRows(results: ResultsJson): string[] {
+export function resultsCsvRows(results: ResultsSummary): string[] {
   const units = new Map(results.indicators.map((i) => [i.code, i.unit]));
   const rows: string[] = [];
   const emit = (method: string, module: string, values: Record<string, number | null>, idBase: string) => {
@@ -33,4 +33,4 @@ export function resultsCsvRows(results: ResultsJson): string[] {
   return rows;
 }
 
-export const resultsCsv = (all: readonly ResultsJson[]): string => `${[RESULTS_CSV_HEADER.join(','), ...all.flatMap(resultsCsvRows)].join('\n')}\n`;
+export const resultsCsv = (all: readonly ResultsSummary[]): string => `${[RESULTS_CSV_HEADER.join(','), ...all.flatMap(resultsCsvRows)].join('\n')}\n`;

@@ -1,6 +1,6 @@
 import { indicatorValue, type Project } from '../model/project.ts';
 import { groupBy, rowsByProduct, type ProductRows } from '../model/by-product.ts';
-import type { Row, Table } from '../schema/table.ts';
+import type { Table } from '../schema/table.ts';
 import { formatProblem, type Problem } from '../problems.ts';
 import { findGas, GWP_SOURCES } from '../reference/ghg.ts';
 import { findIndicator } from '../reference/indicators.ts';

@@ -1,6 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import { readNumber, readShare } from '../../src/schema/numbers.ts';
 
+// Expected values are the arithmetic value of the text as written, under the reading rules of
+// docs/input-format.md; refusing grouped digits follows common practice for locale-neutral
+// data files (1,234 and 1.234 mean different numbers in different locales).
 const comma = { decimalComma: false };
 const semicolon = { decimalComma: true };
 
