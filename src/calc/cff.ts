@@ -26,30 +26,63 @@ export interface CffResult {
   total: string;
 }
 
-export function circularFootprint(ctx: CalcContext, graph: FigureGraph, inv: Inventory, cut: CutoffResult, method: CffMethod): CffResult {
+function allocationOf(ctx: CalcContext, graph: FigureGraph, method: CffMethod, line: LineFlows): { a: number; term: Term } {
+  if (method !== 'cff') {
+    const a = PRESET_A[method];
+    const id = `reference/method/${method}/A`;
+    graph.add({ kind: 'scalar', id, value: a, unit: 'share', formula: `A = ${a}`, description: `The ${method === 'eol-recycling' ? 'end-of-life recycling (0:100)' : '50:50'} method: the Circular Footprint Formula with A = ${a} for every material.`, terms: [] });
+    return { a, term: figureTerm(id, 'A') };
+  }
+  const material = line.material.value;
+  if (material.cff_a !== undefined) return { a: material.cff_a, term: cellTerm(ctx.cell(ctx.project.materials, line.material, 'cff_a'), 'A') };
+  const a = defaultA(material.family);
+  const id = `reference/method/cff/default-A/${material.family === 'metal' ? 'metal' : 'other'}`;
+  if (!graph.get(id)) graph.add({ kind: 'scalar', id, value: a, unit: 'share', formula: `A = ${a}`, description: material.family === 'metal' ? 'Default allocation factor for metals, Recommendation (EU) 2021/2279 Annex C.' : 'Default allocation factor where materials.csv gives none (from memory of the PEF default).', terms: [] });
+  return { a, term: figureTerm(id, 'A') };
+}
+
+/** The energy and disposal parts (they do not depend on A, B = 0): computed once per product, shared by the three methods. */
+export interface CffSharedParts {
+  energy: string;
+  disposal: string;
+}
+
+export function cffSharedParts(ctx: CalcContext, graph: FigureGraph, inv: Inventory): CffSharedParts {
   const factor = (id: string): ResolvedFactor => {
     const resolved = ctx.factor(id);
     resolved.ensure(graph);
     return resolved;
   };
+  const eolOf = new Map<string, MaterialEol>(inv.materials.map((m) => [m.materialId, m]));
+  const energyIds: string[] = [];
+  const disposalIds: string[] = [];
+  for (const line of inv.productLines) {
+    const m = eolOf.get(line.line.material);
+    if (!m) continue;
+    energyIds.push(...energyPart(ctx, graph, line, m, factor));
+    disposalIds.push(disposalPart(ctx, graph, line, m, factor));
+  }
+  const energy = sumFigure(graph, 'cff/energy', energyIds, 'Σ lines (1−B)·R3·M·(EER − LHV·X_heat·E_heat − LHV·X_el·E_el), B = 0', 'Energy part: incineration with energy recovery, minus the energy it replaces; it does not depend on A, so the CFF, 0:100 and 50:50 share it.');
+  const disposal = sumFigure(graph, 'cff/disposal', disposalIds, 'Σ lines M·(1 − R2 − R3 − reuse)·ED', 'Disposal part: what is neither recycled, re-used nor recovered for energy; it does not depend on A, so the CFF, 0:100 and 50:50 share it.');
+  return { energy: energy.id, disposal: disposal.id };
+}
+
+export function circularFootprint(ctx: CalcContext, graph: FigureGraph, inv: Inventory, cut: CutoffResult, shared: CffSharedParts, method: CffMethod): CffResult {
+  const factor = (id: string): ResolvedFactor => {
+    const resolved = ctx.factor(id);
+    resolved.ensure(graph);
+    return resolved;
+  };
+  // A per method preset, else per material (its cff_a cell or the default): one term each, shared by its lines.
+  const allocations = new Map<string, { a: number; term: Term }>();
   const allocation = (line: LineFlows): { a: number; term: Term } => {
-    if (method !== 'cff') {
-      const a = PRESET_A[method];
-      const id = `reference/method/${method}/A`;
-      if (!graph.get(id)) graph.add({ kind: 'scalar', id, value: a, unit: 'share', formula: `A = ${a}`, description: `The ${method === 'eol-recycling' ? 'end-of-life recycling (0:100)' : '50:50'} method: the Circular Footprint Formula with A = ${a} for every material.`, terms: [] });
-      return { a, term: figureTerm(id, 'A') };
-    }
-    const material = line.material.value;
-    if (material.cff_a !== undefined) return { a: material.cff_a, term: cellTerm(ctx.cell(ctx.project.materials, line.material, 'cff_a'), 'A') };
-    const a = defaultA(material.family);
-    const id = `reference/method/cff/default-A/${material.family === 'metal' ? 'metal' : 'other'}`;
-    if (!graph.get(id)) graph.add({ kind: 'scalar', id, value: a, unit: 'share', formula: `A = ${a}`, description: material.family === 'metal' ? 'Default allocation factor for metals, Recommendation (EU) 2021/2279 Annex C.' : 'Default allocation factor where materials.csv gives none (from memory of the PEF default).', terms: [] });
-    return { a, term: figureTerm(id, 'A') };
+    const key = method === 'cff' ? line.line.material : method;
+    let found = allocations.get(key);
+    if (!found) allocations.set(key, (found = allocationOf(ctx, graph, method, line)));
+    return found;
   };
   const eolOf = new Map<string, MaterialEol>(inv.materials.map((m) => [m.materialId, m]));
   const materialIds: string[] = [];
-  const energyIds: string[] = [];
-  const disposalIds: string[] = [];
 
   for (const line of inv.lines) {
     const material = line.material.value;
@@ -88,11 +121,6 @@ export function circularFootprint(ctx: CalcContext, graph: FigureGraph, inv: Inv
         );
         formula += ' + (M·R2 + scrap·yield)·(1−A)·(ErecEoL − E*v·Qsout/Qp)';
       }
-      // The energy and disposal parts do not depend on A (B = 0): one figure serves all three methods.
-      if (!graph.get(`cff/disposal/${line.key}`)) {
-        energyIds.push(...energyPart(ctx, graph, line, m, factor));
-        disposalIds.push(disposalPart(ctx, graph, line, m, factor));
-      }
     }
     const id = `${method}/material/${line.key}`;
     vectorFigure(graph, id, values, formula, `${method === 'cff' ? 'Circular Footprint Formula' : method} material part for ${line.line.component} (${material.material}).`, terms);
@@ -100,18 +128,16 @@ export function circularFootprint(ctx: CalcContext, graph: FigureGraph, inv: Inv
   }
 
   const materialPart = sumFigure(graph, `${method}/material`, materialIds, 'Σ lines material part', 'Material part: production of the inputs with the recycled-content credit shared by A, and the end-of-life recycling credit shared by 1 − A.');
-  const energyPartId = graph.get('cff/energy') ?? sumFigure(graph, 'cff/energy', energyIds, 'Σ lines (1−B)·R3·M·(EER − LHV·X_heat·E_heat − LHV·X_el·E_el), B = 0', 'Energy part: incineration with energy recovery, minus the energy it replaces; it does not depend on A, so the CFF, 0:100 and 50:50 share it.');
-  const disposalPart_ = graph.get('cff/disposal') ?? sumFigure(graph, 'cff/disposal', disposalIds, 'Σ lines M·(1 − R2 − R3 − reuse)·ED', 'Disposal part: what is neither recycled, re-used nor recovered for energy; it does not depend on A, so the CFF, 0:100 and 50:50 share it.');
   const others = [cut.parts.a2, cut.parts.a3Activities, cut.parts.a3ScrapDisposal, ...(cut.parts.a4 ? [cut.parts.a4] : []), ...(cut.parts.a5 ? [cut.parts.a5] : []), cut.parts.c1, cut.parts.c2, cut.parts.c3Processing];
   const total = sumFigure(
     graph,
     `${method}/total`,
-    [materialPart.id, energyPartId.id, disposalPart_.id, ...others],
+    [materialPart.id, shared.energy, shared.disposal, ...others],
     'total = material + energy + disposal + A2 + A3 activities + A3 scrap disposal + C1 + C2 + C3 processing',
     'Method total over the life cycle; the disposal part replaces C4 and the energy part replaces incineration with energy recovery in C3.',
     (child) => child.replace(/^cutoff\//, ''),
   );
-  return { parts: { material: materialPart.id, energy: energyPartId.id, disposal: disposalPart_.id }, total: total.id };
+  return { parts: { material: materialPart.id, energy: shared.energy, disposal: shared.disposal }, total: total.id };
 }
 
 function energyPart(ctx: CalcContext, graph: FigureGraph, line: LineFlows, m: MaterialEol, factor: (id: string) => ResolvedFactor): string[] {

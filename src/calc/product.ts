@@ -1,7 +1,7 @@
 import type { ProductRows } from '../model/by-product.ts';
 import type { Method } from '../schema/declaration.ts';
 import { FigureGraph } from '../trace/graph.ts';
-import { circularFootprint, type CffMethod, type CffResult } from './cff.ts';
+import { cffSharedParts, circularFootprint, type CffMethod, type CffResult } from './cff.ts';
 import type { CalcContext } from './context.ts';
 import { cutoff, type CutoffResult } from './cutoff.ts';
 import { flows, type FlowsResult } from './flows.ts';
@@ -30,6 +30,8 @@ export function calculateProduct(ctx: CalcContext, rows: ProductRows): ProductRe
   const modules = Object.keys(cut.modules);
   const flowResult = flows(ctx, graph, inv, modules, modules.filter((m) => m !== 'A1-A3' && m !== 'D'));
   const methods: ProductResult['methods'] = {};
-  for (const method of reportedMethods(ctx)) methods[method] = circularFootprint(ctx, graph, inv, cut, method);
+  const chosen = reportedMethods(ctx);
+  const shared = chosen.length > 0 ? cffSharedParts(ctx, graph, inv) : undefined;
+  for (const method of chosen) methods[method] = circularFootprint(ctx, graph, inv, cut, shared!, method);
   return { productId: rows.product.value.product_id, declaredUnit: rows.product.value.declared_unit, graph, cutoff: cut, flows: flowResult, methods };
 }

@@ -1,6 +1,5 @@
 import { parse, CsvError } from 'csv-parse/sync';
 import type { Problem } from '../problems.ts';
-import { readText } from './text.ts';
 
 /** One data record with the physical lines it spans in the file (1-based). */
 export interface CsvRecord {
@@ -9,17 +8,25 @@ export interface CsvRecord {
   fields: string[];
 }
 
-export interface CsvFile {
+/** A CSV file as read, without its records (they are handed over one at a time). */
+export interface CsvSource {
   file: string;
   delimiter: ',' | ';';
   /** Header cells as written (trimmed), with their line. */
   header: { names: string[]; line: number };
-  records: CsvRecord[];
-  /** The file's text, kept so a row can be shown exactly as it appears. */
+  /** The file's text (one line ending throughout), kept so a row can be shown exactly as it appears. */
   text: string;
-  bytes: Buffer;
 }
 
+/** A CSV file with all its records, for callers that want them at once (tests, small files). */
+export interface CsvFile extends CsvSource {
+  records: CsvRecord[];
+}
+
+/** Receives the source once its header is read, and returns what takes each data record. */
+export type CsvSink = (source: CsvSource) => (record: CsvRecord) => void;
+
+export type CsvRead = { ok: true; source: CsvSource; problems: Problem[] } | { ok: false; problems: Problem[] };
 export type CsvLoad = { ok: true; csv: CsvFile; problems: Problem[] } | { ok: false; problems: Problem[] };
 
 /**
@@ -28,7 +35,7 @@ export type CsvLoad = { ok: true; csv: CsvFile; problems: Problem[] } | { ok: fa
  * else comma.
  */
 export function detectDelimiter(text: string): ',' | ';' {
-  for (const rawLine of text.split(/\r?\n/)) {
+  for (const rawLine of text.split(/\r?\n/, 200)) {
     const line = rawLine.trim();
     if (line === '' || line.startsWith('#')) continue;
     let commas = 0;
@@ -50,31 +57,22 @@ const countNewlines = (field: string): number => {
   return n;
 };
 
-interface ParsedRecord {
-  record: string[];
-  info: { lines: number };
-}
-
 /**
  * Reads a CSV as users write it: UTF-8 with or without BOM, comma or semicolon, CRLF or
  * LF, quoted fields, blank lines skipped, `#` at the start of a line a comment.
+ * Records are handed to the sink as csv-parse produces them and are not collected, so a
+ * large file's records never pile up in memory beside the rows made from them.
  */
-export async function loadCsv(dir: string, file: string): Promise<CsvLoad> {
-  const read = await readText(dir, file);
-  if (!read.ok) return { ok: false, problems: [read.problem] };
-  return parseCsvText(file, read.text, read.bytes);
-}
-
-export function parseCsvText(file: string, original: string, bytes: Buffer = Buffer.from(original)): CsvLoad {
+export function readCsvText(file: string, original: string, sink: CsvSink): CsvRead {
   // One line ending throughout, so that csv-parse's line count is the physical line.
   const text = original.replace(/^\ufeff/, '').replace(/\r\n?/g, '\n');
   const delimiter = detectDelimiter(text);
   const problems: Problem[] = [];
-  let parsed: ParsedRecord[];
+  let source: CsvSource | undefined;
+  let take: ((record: CsvRecord) => void) | undefined;
   try {
-    parsed = parse(text, {
+    parse(text, {
       delimiter,
-      info: true,
       comment: '#',
       comment_no_infix: true,
       skip_empty_lines: true,
@@ -84,25 +82,37 @@ export function parseCsvText(file: string, original: string, bytes: Buffer = Buf
       on_skip: (error: CsvError | undefined) => {
         if (error) problems.push(csvSyntaxProblem(file, error));
       },
-    }) as unknown as ParsedRecord[];
+      // Each record is handled here and dropped (returning nothing keeps it out of csv-parse's result).
+      on_record: (fields: string[], context: { lines: number }) => {
+        // A line of only delimiters (";;;" as spreadsheets export) is blank too.
+        if (!fields.some((field) => field.trim() !== '')) return undefined;
+        const lineEnd = context.lines;
+        let line = lineEnd;
+        for (const field of fields) line -= countNewlines(field);
+        if (!take) {
+          source = { file, delimiter, header: { names: fields.map((name) => name.trim()), line }, text };
+          take = sink(source);
+        } else {
+          take({ line, lineEnd, fields });
+        }
+        return undefined;
+      },
+    });
   } catch (error) {
     if (error instanceof CsvError) return { ok: false, problems: [...problems, csvSyntaxProblem(file, error)] };
     throw error;
   }
-  const records: CsvRecord[] = parsed
-    .map(({ record, info }) => {
-      const lineEnd = info.lines;
-      const line = lineEnd - record.reduce((n, field) => n + countNewlines(field), 0);
-      return { line, lineEnd, fields: record };
-    })
-    // A line of only delimiters (";;;" as spreadsheets export) is blank too.
-    .filter((record) => record.fields.some((field) => field.trim() !== ''));
-  const [headerRecord, ...dataRecords] = records;
-  if (!headerRecord) {
+  if (!source) {
     return { ok: false, problems: [...problems, { severity: 'error', code: 'COLUMN_MISSING', file, line: 1, message: `${file} has no header row`, expected: 'a header row naming the columns' }] };
   }
-  const header = { names: headerRecord.fields.map((name) => name.trim()), line: headerRecord.line };
-  return { ok: true, csv: { file, delimiter, header, records: dataRecords, text, bytes }, problems };
+  return { ok: true, source, problems };
+}
+
+/** All records at once (tests, small files). */
+export function parseCsvText(file: string, original: string): CsvLoad {
+  const records: CsvRecord[] = [];
+  const read = readCsvText(file, original, () => (record) => records.push(record));
+  return read.ok ? { ok: true, csv: { ...read.source, records }, problems: read.problems } : read;
 }
 
 function csvSyntaxProblem(file: string, error: CsvError): Problem {

@@ -1,12 +1,14 @@
 import path from 'node:path';
-import { loadCsv, type CsvFile } from '../load/csv.ts';
+import { readCsvText } from '../load/csv.ts';
+import { readText } from '../load/text.ts';
 import { loadJson, locate, jsonPath, type JsonFile } from '../load/json.ts';
 import { sortProblems, type Problem } from '../problems.ts';
 import { FACTOR_INDICATOR_CODES, INDICATORS, findIndicator, inReportingOrder } from '../reference/indicators.ts';
 import { CSV_FILES, DECLARATION_FILE, productsCsv, bomCsv, materialsCsv, eolCsv, activitiesCsv, transportCsv, factorsCsv } from '../schema/index.ts';
 import { declarationSchema, DECLARATION_KEYS, type Declaration } from '../schema/declaration.ts';
 import { describeIssue } from '../schema/issues.ts';
-import { parseTable, indicatorHeaderName } from '../schema/table.ts';
+import { tableReader, indicatorHeaderName, type Table, type TableOptions, type TableReader } from '../schema/table.ts';
+import type { CsvFileSchema, RowOf } from '../schema/csv-file.ts';
 import { nearestName } from '../reference/nearest.ts';
 import { crossFileChecks } from './checks.ts';
 
@@ -26,13 +28,11 @@ export async function loadProject(dirArgument: string): Promise<ProjectLoad> {
   const dir = path.resolve(dirArgument);
   const problems: Problem[] = [];
 
-  const [declarationLoad, ...csvLoads] = await Promise.all([loadJson(dir, DECLARATION_FILE), ...CSV_FILES.map((schema) => loadCsv(dir, schema.file))]);
-  const csv = new Map<string, CsvFile>();
-  csvLoads.forEach((load, index) => {
-    problems.push(...load.problems);
-    if (load.ok) csv.set(CSV_FILES[index]!.file, load.csv);
-  });
-  csvLoads.length = 0;
+  // Files are read together; their records are then validated one file at a time, each
+  // record as csv-parse produces it, so no file's raw records are ever held in memory.
+  const [declarationLoad, ...texts] = await Promise.all([loadJson(dir, DECLARATION_FILE), ...CSV_FILES.map((schema) => readText(dir, schema.file))]);
+  const text = new Map(CSV_FILES.map((schema, index) => [schema.file, texts[index]!]));
+  texts.length = 0;
 
   let declaration: Declaration | undefined;
   let declarationFile: JsonFile | undefined;
@@ -45,12 +45,21 @@ export async function loadProject(dirArgument: string): Promise<ProjectLoad> {
     problems.push(...declarationLoad.problems);
   }
 
-  const tableOf = <S extends (typeof CSV_FILES)[number]>(schema: S, options = {}) => {
-    const file = csv.get(schema.file);
-    if (!file) return undefined;
-    // Once parsed into rows, a file's raw records are not needed: let them go before the next file.
-    csv.delete(schema.file);
-    const { table, problems: found } = parseTable(file, schema, options);
+  const tableOf = <S extends CsvFileSchema>(schema: S, options: TableOptions = {}): Table<RowOf<S>> | undefined => {
+    const read = text.get(schema.file)!;
+    text.delete(schema.file);
+    if (!read.ok) {
+      problems.push(read.problem);
+      return undefined;
+    }
+    let reader: TableReader<RowOf<S>> | undefined;
+    const csv = readCsvText(schema.file, read.text, (source) => {
+      reader = tableReader(source, schema, options);
+      return reader.add;
+    });
+    problems.push(...csv.problems);
+    if (!csv.ok || !reader) return undefined;
+    const { table, problems: found } = reader.finish();
     problems.push(...found);
     return table;
   };

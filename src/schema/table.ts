@@ -1,4 +1,4 @@
-import type { CsvFile } from '../load/csv.ts';
+import type { CsvFile, CsvRecord, CsvSource } from '../load/csv.ts';
 import type { Problem } from '../problems.ts';
 import { nearestName } from '../reference/nearest.ts';
 import { findIndicator } from '../reference/indicators.ts';
@@ -25,7 +25,7 @@ export interface Table<T> {
   /** Every data record's cells as written (valid or not), for reference checks. */
   written: Array<{ line: number; raw: Record<string, string> }>;
   /** The file as read (its text, to show rows as written); the parsed records are not kept. */
-  csv: Pick<CsvFile, 'file' | 'delimiter' | 'header' | 'text' | 'bytes'>;
+  csv: CsvSource;
 }
 
 export interface TableOptions {
@@ -35,12 +35,18 @@ export interface TableOptions {
   ignored?: (canonical: string) => string | undefined;
 }
 
+/** Turns records into validated rows one at a time; `finish` returns the table and every problem. */
+export interface TableReader<T> {
+  add: (record: CsvRecord) => void;
+  finish: () => { table: Table<T>; problems: Problem[] };
+}
+
 /**
- * Applies a file's zod row schema to its records: matches header names to the contract's
+ * Applies a file's zod row schema to its records, as they are read: matches header names to the contract's
  * column names (case-insensitively, after trimming), reports missing, duplicate and
  * unknown columns, and turns every cell issue into a located problem.
  */
-export function parseTable<S extends CsvFileSchema>(csv: CsvFile, schema: S, options: TableOptions = {}): { table: Table<RowOf<S>>; problems: Problem[] } {
+export function tableReader<S extends CsvFileSchema>(csv: CsvSource, schema: S, options: TableOptions = {}): TableReader<RowOf<S>> {
   const problems: Problem[] = [];
   const file = csv.file;
   const known = columnsOf(schema);
@@ -82,11 +88,14 @@ export function parseTable<S extends CsvFileSchema>(csv: CsvFile, schema: S, opt
     }
   }
 
+  const columnEntries = Object.entries(columns);
   const rowSchema = schema.row({ decimalComma: csv.delimiter === ';' });
   const rows: Row<RowOf<S>>[] = [];
   const written: Table<RowOf<S>>['written'] = [];
   const headerWidth = csv.header.names.length;
-  for (const record of csv.records) {
+  let records = 0;
+  const add = (record: CsvRecord): void => {
+    records++;
     if (record.fields.length > headerWidth && record.fields.slice(headerWidth).some((field) => field.trim() !== '')) {
       problems.push({
         severity: 'error', code: 'FIELD_COUNT', file, line: record.line, columnIndex: headerWidth + 1,
@@ -94,10 +103,10 @@ export function parseTable<S extends CsvFileSchema>(csv: CsvFile, schema: S, opt
         message: `has ${record.fields.length} fields, the header ${headerWidth}`,
         expected: `at most ${headerWidth} fields (a decimal comma in a comma-separated file needs quotes, or save with semicolons)`,
       });
-      continue;
+      return;
     }
     const raw: Record<string, string> = {};
-    for (const [name, position] of Object.entries(columns)) {
+    for (const [name, position] of columnEntries) {
       const field = record.fields[position - 1];
       if (field !== undefined) raw[name] = field;
     }
@@ -105,7 +114,7 @@ export function parseTable<S extends CsvFileSchema>(csv: CsvFile, schema: S, opt
     const result = rowSchema.safeParse(raw);
     if (result.success) {
       rows.push({ line: record.line, lineEnd: record.lineEnd, value: result.data as RowOf<S>, raw });
-      continue;
+      return;
     }
     for (const issue of result.error.issues) {
       const column = String(issue.path[0] ?? '');
@@ -125,12 +134,22 @@ export function parseTable<S extends CsvFileSchema>(csv: CsvFile, schema: S, opt
         ...(described.hint ? { hint: described.hint } : {}),
       });
     }
-  }
-  if (schema.needsRows && csv.records.length === 0) {
-    problems.push({ severity: 'error', code: 'NO_ROWS', file, line: headerLine, message: `${file} has a header but no rows`, expected: 'at least one row' });
-  }
-  const source = { file, delimiter: csv.delimiter, header: csv.header, text: csv.text, bytes: csv.bytes };
-  return { table: { file, delimiter: csv.delimiter, columns, rows, written, csv: source }, problems };
+  };
+  const finish = () => {
+    if (schema.needsRows && records === 0) {
+      problems.push({ severity: 'error', code: 'NO_ROWS', file, line: headerLine, message: `${file} has a header but no rows`, expected: 'at least one row' });
+    }
+    const source: CsvSource = { file, delimiter: csv.delimiter, header: csv.header, text: csv.text };
+    return { table: { file, delimiter: csv.delimiter, columns, rows, written, csv: source }, problems };
+  };
+  return { add, finish };
+}
+
+/** parseTable over records already read (tests, small files). */
+export function parseTable<S extends CsvFileSchema>(csv: CsvFile, schema: S, options: TableOptions = {}): { table: Table<RowOf<S>>; problems: Problem[] } {
+  const reader = tableReader(csv, schema, options);
+  for (const record of csv.records) reader.add(record);
+  return reader.finish();
 }
 
 /** factors.csv headers: indicator codes match whatever their case. */

@@ -62,8 +62,9 @@ export class FigureGraph {
   ) {}
 
   add<N extends FigureNode>(node: N): N {
-    if (this.nodes.has(node.id)) throw new Error(`figure ${node.id} defined twice`);
+    const size = this.nodes.size;
     this.nodes.set(node.id, node);
+    if (this.nodes.size === size) throw new Error(`figure ${node.id} defined twice`);
     return node;
   }
 
