@@ -9,6 +9,7 @@ import { renderSite } from '../render/site.ts';
 import { EXIT, type Io } from './io.ts';
 import { writeResults } from '../render/results-files.ts';
 import { printProblems } from './report-problems.ts';
+import { copyInputs, hashInputs, writeManifest } from '../render/verification.ts';
 
 export interface BuildOptions {
   data: string;
@@ -34,8 +35,10 @@ export async function runBuild(options: BuildOptions, io: Io): Promise<number> {
   let missingPdfs: string[] = [];
   let productCount = 0;
   await withStagedOutput(options.out, async (staging) => {
+    const inputs = await hashInputs(project.dir);
+    await copyInputs(project.dir, staging, inputs);
     const results = await writeResults(project, staging);
-    const view = buildSiteView(project, problems, results);
+    const view = buildSiteView(project, problems, results, inputs);
     productCount = view.products.length;
     await renderSite(view, staging);
     const jobs = view.products.map((product) => ({
@@ -50,6 +53,7 @@ export async function runBuild(options: BuildOptions, io: Io): Promise<number> {
     } else if (options.pdf === 'auto') {
       missingPdfs = view.products.map((product) => product.pdf);
     }
+    await writeManifest(staging, inputs);
   });
   if (missingPdfs.length > 0) {
     io.err(`no browser found (PUPPETEER_EXECUTABLE_PATH, chromium/chrome on the PATH, puppeteer’s cache): HTML written, these PDFs were not:\n${missingPdfs.map((pdf) => `  ${pdf}`).join('\n')}`);

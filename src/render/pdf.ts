@@ -58,6 +58,18 @@ async function openPage(browser: Browser, root: string): Promise<Page> {
 async function printOne(page: Page, job: PdfJob, browser: Browser, root: string): Promise<void> {
   const attempt = async (target: Page) => {
     await target.goto(pathToFileURL(job.html).href, { waitUntil: 'load', timeout: TIMEOUT_MS });
+    // Links inside the build folder would become file:// links to the staging folder in the
+    // PDF (broken once published, and not reproducible): the PDF keeps their text only. The
+    // derivation of every figure is in the HTML audit trail, named by the same figure ids.
+    await target.evaluate(() => {
+      for (const link of Array.from(document.querySelectorAll('a[href]'))) {
+        if (/^https?:/i.test(link.getAttribute('href') ?? '')) continue;
+        const span = document.createElement('span');
+        span.className = link.className;
+        while (link.firstChild) span.appendChild(link.firstChild);
+        link.replaceWith(span);
+      }
+    });
     await target.pdf({
       path: job.pdf,
       format: 'A4',

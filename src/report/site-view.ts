@@ -6,7 +6,9 @@ import { findGas, GWP_SOURCES } from '../reference/ghg.ts';
 import { findIndicator } from '../reference/indicators.ts';
 import { TOOL_NAME, TOOL_VERSION } from '../reference/tool.ts';
 import { formatInput, formatScientific, formatShare } from './format.ts';
-import type { ResultsSummary } from './results.ts';
+import type { ProductReport } from '../render/results-files.ts';
+import type { AuditView } from './audit-view.ts';
+import type { DeclarationResultsView } from './declaration-view.ts';
 
 /**
  * View models for the site: everything a template prints, already formatted, so the
@@ -37,13 +39,6 @@ export interface TableView {
   empty: string;
 }
 
-export interface ResultsView {
-  modules: Array<{ code: string; moduleD: boolean }>;
-  rows: Array<{ code: string; name: string; unit: string; cells: Array<{ text: string; moduleD: boolean }> }>;
-  methods: Array<{ name: string; rewards: string; total: string; note: string }>;
-  indicator: string;
-}
-
 export interface ProductView {
   id: string;
   name: string;
@@ -56,7 +51,10 @@ export interface ProductView {
   pdf: string;
   lineCount: number;
   tables: TableView[];
-  results?: ResultsView;
+  results?: DeclarationResultsView;
+  audit?: AuditView;
+  /** Data sources this product's figures rest on (the dataset column of the factor rows it reaches). */
+  datasets: string[];
   resultsJson: string;
   resultsCsv: string;
 }
@@ -73,6 +71,8 @@ export interface SiteView {
     issued: string;
     validUntil: string;
     status: string;
+    /** The status as a reader needs it: who verified and when, or that nobody has. */
+    statusText: string;
     draft: boolean;
     verifier: string;
     verificationDate: string;
@@ -81,7 +81,11 @@ export interface SiteView {
     illustrative: boolean;
   };
   cautions: string[];
+  methodology: Array<{ title: string; paragraphs: string[] }>;
   products: ProductView[];
+  verification: { inputs: Array<{ file: string; sha256: string; bytes: number }>; datasets: Array<{ name: string; rows: number }> };
+  /** The products that have an audit trail page (those with results). */
+  audits: ProductView[];
   /** Every factor row once, on its own page; product pages link to it. */
   factors: TableView;
   warnings: string[];
@@ -115,36 +119,9 @@ const num = (value: number): Cell => ({ text: formatInput(value), numeric: true 
 const pct = (value: number): Cell => ({ text: formatShare(value), numeric: true });
 const txt = (value: string | undefined): Cell => ({ text: value ?? '' });
 
-/** One sentence per method: what it rewards. */
-export const METHOD_SENTENCES: Record<string, { name: string; rewards: string }> = {
-  cutoff: { name: 'Cut-off, with module D (EN 15804+A2)', rewards: 'Rewards recycled content: secondary input carries only its reprocessing; the net benefit of recycling at end of life is shown apart, in module D, and is not in the total.' },
-  cff: { name: 'Circular Footprint Formula', rewards: 'Shares the benefit of recycling between the user of recycled material and the supplier of recyclable material by the allocation factor A (0.2 for metals, Recommendation (EU) 2021/2279).' },
-  'eol-recycling': { name: 'End-of-life recycling, 0:100', rewards: 'Rewards recycling at end of life: recycled input carries the virgin burden, and material recycled at end of life earns the virgin production it avoids.' },
-  'fifty-fifty': { name: '50:50', rewards: 'Splits the burden and the benefit of recycling equally between the recycled input and the recyclable output.' },
-};
-
-const sci = (value: number | null | undefined): string => (value === null || value === undefined ? 'n/a' : formatScientific(value, 3));
-
-function resultsView(results: ResultsSummary): ResultsView {
-  const modules = Object.keys(results.methods.cutoff.modules).map((code) => ({ code, moduleD: code === 'D' }));
-  const rows = results.indicators.map((indicator) => ({
-    code: indicator.code,
-    name: indicator.name,
-    unit: indicator.unit,
-    cells: modules.map((m) => ({ text: sci(results.methods.cutoff.modules[m.code]?.[indicator.code]), moduleD: m.moduleD })),
-  }));
-  const code = 'GWP-total';
-  const methods = Object.entries(results.methods).map(([method, values]) => ({
-    ...METHOD_SENTENCES[method]!,
-    total: sci(values.total[code]),
-    note: method === 'cutoff' ? `A1–C4; module D ${sci(results.methods.cutoff.modules.D?.[code])} reported apart` : 'life cycle, as the method defines it',
-  }));
-  return { modules, rows, methods, indicator: code };
-}
-
-export function buildSiteView(project: Project, problems: readonly Problem[], results: readonly ResultsSummary[] = []): SiteView {
+export function buildSiteView(project: Project, problems: readonly Problem[], reports: readonly ProductReport[] = [], inputs: SiteView['verification']['inputs'] = []): SiteView {
   const d = project.declaration;
-  return {
+  const view: SiteView = {
     tool: { name: TOOL_NAME, version: TOOL_VERSION },
     declaration: {
       owner: d.owner.name,
@@ -156,6 +133,7 @@ export function buildSiteView(project: Project, problems: readonly Problem[], re
       issued: d.issued,
       validUntil: d.valid_until,
       status: d.verification.status,
+      statusText: d.verification.status === 'verified' ? `verified by ${d.verification.verifier ?? ''} on ${d.verification.date ?? ''}` : 'draft — not verified',
       draft: d.verification.status !== 'verified',
       verifier: d.verification.verifier ?? '',
       verificationDate: d.verification.date ?? '',
@@ -164,7 +142,10 @@ export function buildSiteView(project: Project, problems: readonly Problem[], re
       illustrative: d.illustrative,
     },
     cautions: CAUTIONS,
-    products: productViews(project, new Map(results.map((r) => [r.product_id, r]))),
+    products: productViews(project, new Map(reports.map((r) => [r.summary.product_id, r]))),
+    methodology: methodology(project),
+    audits: [],
+    verification: { inputs: [...inputs], datasets: datasetCounts(project) },
     factors: factorTable(project, project.factors.rows),
     warnings: problems.filter((p) => p.severity === 'warning').map(formatProblem),
     indicators: project.indicators.map((code) => {
@@ -172,6 +153,8 @@ export function buildSiteView(project: Project, problems: readonly Problem[], re
       return { code, name: indicator.name, unit: indicator.unit };
     }),
   };
+  view.audits = view.products.filter((product) => product.audit !== undefined);
+  return view;
 }
 
 /** A fragment id for a factor row (ids may hold characters that are awkward in URLs). */
@@ -202,12 +185,12 @@ function factorTable(project: Project, rows: Project['factors']['rows']): TableV
 }
 
 /** Rows grouped by product once (and scenarios by name), so building every page is linear in the catalogue. */
-function productViews(project: Project, results: Map<string, ResultsSummary>): ProductView[] {
+function productViews(project: Project, results: Map<string, ProductReport>): ProductView[] {
   const scenarios = groupBy(project.eol.rows, (row) => row.value.scenario);
   return rowsByProduct(project).map((rows) => productView(project, rows, scenarios, results.get(rows.product.value.product_id)));
 }
 
-function productView(project: Project, rows: ProductRows, scenarios: Map<string, Project['eol']['rows']>, results: ResultsSummary | undefined): ProductView {
+function productView(project: Project, rows: ProductRows, scenarios: Map<string, Project['eol']['rows']>, report: ProductReport | undefined): ProductView {
   const productRow = rows.product;
   const product = productRow.value;
   const lines = rows.bom;
@@ -314,8 +297,66 @@ function productView(project: Project, rows: ProductRows, scenarios: Map<string,
     pdf: `${product.product_id}/declaration.pdf`,
     lineCount: lines.length,
     tables,
-    ...(results ? { results: resultsView(results) } : {}),
+    ...(report ? { results: report.results, audit: report.audit } : {}),
+    datasets: [...new Set(factors.map((row) => row.value.dataset).filter((d): d is string => Boolean(d)))].sort(),
     resultsJson: 'results.json',
     resultsCsv: 'results.csv',
   };
+}
+
+/**
+ * The methodology statements every declaration page and the verification pack print: how
+ * the figures were made, where the standards leave a choice, and which choice was made.
+ */
+export function methodology(project: Project): Array<{ title: string; paragraphs: string[] }> {
+  const d = project.declaration;
+  const methods = d.methods ?? ['cutoff', 'cff', 'eol-recycling', 'fifty-fifty'];
+  return [
+    {
+      title: 'System boundary',
+      paragraphs: [
+        'Cradle to gate with end of life: modules A1–A3 (raw material supply, transport to the manufacturer, manufacturing including packaging production), C1–C4 (end of life) and module D (benefits and loads beyond the system boundary). A4 and A5 are declared only where the inputs hold activities or transport for them; the use stage (B1–B7) is not declared. A module not declared is marked so, never shown as zero.',
+        'Module D is reported beside A–C and is never added to a total (EN 15804+A2).',
+      ],
+    },
+    {
+      title: 'Cut-off and completeness',
+      paragraphs: [
+        'EN 15804+A2 cut-off rule: a flow may be left out only if it is below 1 % of the mass and of the primary energy of its unit process, and all flows left out together stay below 5 % per module. The inputs list every flow that was included; flows left out are the practitioner’s statement in the inputs, not the tool’s.',
+      ],
+    },
+    {
+      title: 'Allocation and recycling',
+      paragraphs: [
+        'A1–C4 follow the cut-off (polluter pays) rule: recycled input carries only its reprocessing (factor “recycled”); process scrap sent to recycling leaves A3 free of burden and is reported as MFR; process scrap landfilled or incinerated is charged to A3.',
+        'Module D (EN 15804+A2 Annex D), per material: D = (M_MR,out − M_MR,in) · (E_MR,after EoW,out − E_VMSub,out · Q_R,out/Q_Sub). Only the net flow earns a credit; a negative net flow gives a load. M_MR,out includes process scrap sent to recycling, after the recycling yield.',
+        'Besides cut-off, the Circular Footprint Formula (Commission Recommendation (EU) 2021/2279; A from materials.csv, else 0.2 for metals; B = 0) and its presets 0:100 (A = 0) and 50:50 (A = 0.5) are shown for comparison where the declaration asks for them' + ` (${methods.join(', ')}).` + ' Under these, process scrap sent to recycling earns the same end-of-life term as the product, scrap · yield · (1 − A) · (E_recEoL − E*v · Q_out); disposed scrap is charged as in A3.',
+        'Incineration with energy recovery is charged to C3; the exported energy is credited in module D' + (d.energy_recovery ? ` at an electrical efficiency of ${d.energy_recovery.electricity_efficiency} and a thermal efficiency of ${d.energy_recovery.heat_efficiency} (declaration.json energy_recovery).` : ' where declaration.json gives the plant efficiencies (energy_recovery).'),
+      ],
+    },
+    {
+      title: 'Data sources and data quality',
+      paragraphs: [
+        `Background data: ${d.background_data.map((b) => `${b.name}, version ${b.version}`).join('; ')}. Each factor row names its dataset; each input row its source. Reference year of the inventory: ${d.reference_year}.`,
+        `Direct greenhouse-gas emissions are characterised with GWP-100 values from ${GWP_SOURCES[d.gwp_set]}.`,
+        'Data quality ratings (pedigree scores) are not part of the inputs of this version; the source column of each input row and the dataset of each factor row are shown instead, and the verifier judges their representativeness.',
+      ],
+    },
+    {
+      title: 'Assumptions',
+      paragraphs: [
+        'Gross input of a BOM line G = m / (1 − scrap rate); recycled content R1 = pre- + post-consumer share (ISO 14021: rework and regrind reclaimed within the same process is not recycled content).',
+        'An A2 transport leg without a BOM line carries the gross input of the product’s own lines; legs in A4 and C2 carry the net mass.',
+        'Biogenic carbon not given is zero for metals, minerals and polymers; 1 kg C corresponds to 44/12 kg CO2.',
+        'A value a factor row lacks is “n/a” (not available), never zero, and every figure that depends on it is n/a too.',
+        'Results are rounded for display only; every sum is computed from unrounded values.',
+      ],
+    },
+  ];
+}
+
+function datasetCounts(project: Project): Array<{ name: string; rows: number }> {
+  const counts = new Map<string, number>();
+  for (const row of project.factors.rows) counts.set(row.value.dataset, (counts.get(row.value.dataset) ?? 0) + 1);
+  return [...counts].sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0)).map(([name, rows]) => ({ name, rows }));
 }

@@ -79,6 +79,17 @@ export const declarationSchema = z
       })
       .optional()
       .meta({ description: 'Energy recovery beyond the system boundary (module D, CFF energy part); needed when a product material goes to energy recovery and has a heating value.' }),
+    report: z
+      .object({
+        significant_figures: z.int().min(2).max(6).default(3).meta({ description: 'Significant figures of the results in the declaration tables (scientific notation); totals are always computed from unrounded values.' }),
+        compare_indicators: z
+          .array(indicatorCode)
+          .min(1)
+          .default(['GWP-total'])
+          .meta({ description: 'Indicators shown side by side under every recycling method in the method comparison; default GWP-total.' }),
+      })
+      .default({ significant_figures: 3, compare_indicators: ['GWP-total'] })
+      .meta({ description: 'How the declaration pages present the results.' }),
     illustrative: z
       .boolean()
       .default(false)
@@ -107,6 +118,7 @@ export const DECLARATION_KEYS: Record<string, readonly string[]> = {
   verification: ['status', 'verifier', 'date'],
   'background_data[]': ['name', 'version', 'licence'],
   energy_recovery: ['electricity_efficiency', 'heat_efficiency', 'electricity_factor', 'heat_factor'],
+  report: ['significant_figures', 'compare_indicators'],
 };
 
 export const declarationExample = {

@@ -1,6 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { execFileSync } from 'node:child_process';
 import { readFile, stat } from 'node:fs/promises';
+import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { findBrowser } from '../../src/render/browser.ts';
 import { DEMO, demoCopy, editFile, removeDir, runCli, tempDir } from '../helpers.ts';
@@ -67,7 +68,11 @@ describe('PDF in a real Chromium', async () => {
     expect(text).toContain('Draft — not verified.');
     expect(text).toContain('Illustrative data.');
     expect(text).toContain('Copper busbar 10 × 100 mm');
-    expect(text).toContain('bom.csv:6');
+    // The printed results table is results.json rounded to three significant figures.
+    const results = JSON.parse(readFileSync(path.join(out, 'KV-CU-BB10', 'results.json'), 'utf8'));
+    for (const module of ['A1', 'A1-A3', 'C4', 'D']) expect(text).toContain(results.methods.cutoff.modules[module]['GWP-total'].toExponential(2));
     expect(text).toMatch(/page 1 of \d/);
+    // No link in the PDF points into the build folder (it would be a file:// path of this machine).
+    expect(readFileSync(path.join(out, 'KV-CU-BB10', 'declaration.pdf'), 'latin1')).not.toContain('file://');
   });
 });

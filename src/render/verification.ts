@@ -1,0 +1,64 @@
+import { createHash } from 'node:crypto';
+import { copyFile, mkdir, readdir, readFile, writeFile } from 'node:fs/promises';
+import path from 'node:path';
+import { CSV_FILES, DECLARATION_FILE } from '../schema/index.ts';
+import { TOOL_NAME, TOOL_VERSION } from '../reference/tool.ts';
+import { OUTPUT_MARKER } from './output.ts';
+
+/**
+ * The verification pack, `out/verification/`: a copy of every input file, and
+ * `manifest.json` with the SHA-256 of every input, of the configuration and of every
+ * output, so a verifier can confirm later that a published file came from given inputs.
+ */
+export const VERIFICATION_DIR = 'verification';
+export const MANIFEST_FILE = 'manifest.json';
+
+export interface HashedFile {
+  file: string;
+  sha256: string;
+  bytes: number;
+}
+
+const sha256 = (bytes: Buffer): string => createHash('sha256').update(bytes).digest('hex');
+
+/** The input files, in contract order, with their checksums (declaration.json first: it is also the configuration). */
+export async function hashInputs(dataDir: string): Promise<HashedFile[]> {
+  const files = [DECLARATION_FILE, ...CSV_FILES.map((schema) => schema.file)];
+  return Promise.all(
+    files.map(async (file) => {
+      const bytes = await readFile(path.join(dataDir, file));
+      return { file, sha256: sha256(bytes), bytes: bytes.length };
+    }),
+  );
+}
+
+export async function copyInputs(dataDir: string, outDir: string, inputs: readonly HashedFile[]): Promise<void> {
+  const dir = path.join(outDir, VERIFICATION_DIR, 'inputs');
+  await mkdir(dir, { recursive: true });
+  for (const input of inputs) await copyFile(path.join(dataDir, input.file), path.join(dir, input.file));
+}
+
+async function listFiles(root: string, dir = ''): Promise<string[]> {
+  const entries = await readdir(path.join(root, dir), { withFileTypes: true });
+  const files: string[] = [];
+  for (const entry of entries) {
+    const relative = dir ? `${dir}/${entry.name}` : entry.name;
+    if (entry.isDirectory()) files.push(...(await listFiles(root, relative)));
+    else files.push(relative);
+  }
+  return files;
+}
+
+/** Written last: every other output exists by then. Paths are relative and sorted, so the manifest is reproducible. */
+export async function writeManifest(outDir: string, inputs: readonly HashedFile[]): Promise<void> {
+  const self = `${VERIFICATION_DIR}/${MANIFEST_FILE}`;
+  const outputs: HashedFile[] = [];
+  for (const file of (await listFiles(outDir)).filter((f) => f !== self && f !== OUTPUT_MARKER).sort()) {
+    const bytes = await readFile(path.join(outDir, file));
+    outputs.push({ file, sha256: sha256(bytes), bytes: bytes.length });
+  }
+  const configuration = inputs.find((input) => input.file === DECLARATION_FILE)!;
+  const manifest = { tool: { name: TOOL_NAME, version: TOOL_VERSION }, algorithm: 'SHA-256', configuration, inputs, outputs };
+  await mkdir(path.join(outDir, VERIFICATION_DIR), { recursive: true });
+  await writeFile(path.join(outDir, self), `${JSON.stringify(manifest, null, 1)}\n`);
+}

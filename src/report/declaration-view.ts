@@ -1,0 +1,173 @@
+import type { CalcContext } from '../calc/context.ts';
+import type { ProductResult } from '../calc/product.ts';
+import type { ProductRows } from '../model/by-product.ts';
+import { findIndicator, type IndicatorGroup } from '../reference/indicators.ts';
+import { LIFE_CYCLE_MODULES } from '../reference/modules.ts';
+import { barChart, type ChartDatum, type ChartView } from './charts.ts';
+import { figureHref } from './figure-links.ts';
+import { formatScientific, formatShare } from './format.ts';
+import type { ResultsJson } from './results.ts';
+
+/**
+ * What a declaration page shows of the results, formatted, every number with the link to
+ * its figure in the audit trail. Built per product while its figure graph is alive.
+ */
+export interface FigureCell {
+  text: string;
+  href?: string;
+  moduleD?: boolean;
+}
+
+export interface ResultsTableView {
+  title: string;
+  caption: string;
+  rows: Array<{ code: string; name: string; unit: string; cells: FigureCell[] }>;
+}
+
+export interface DeclarationResultsView {
+  significantFigures: number;
+  boundary: Array<{ code: string; stage: string; name: string; declared: boolean }>;
+  modules: Array<{ code: string; moduleD: boolean }>;
+  tables: ResultsTableView[];
+  recycledContent: Array<{ label: string; cell: FigureCell }>;
+  biogenic: Array<{ label: string; carbon: FigureCell; co2: FigureCell }>;
+  comparison: { indicators: Array<{ code: string; unit: string }>; rows: Array<{ method: string; name: string; rewards: string; scope: string; cells: FigureCell[] }> };
+  charts: ChartView[];
+  /** Headline figures for the catalogue. */
+  headline: { a1a3: FigureCell; moduleD: FigureCell; recycledContent: FigureCell; a1a3Value: string; moduleDValue: string; recycledValue: string };
+}
+
+const GROUPS: Array<{ group: IndicatorGroup; title: string; caption: string }> = [
+  { group: 'core', title: 'Core environmental impact indicators', caption: 'EN 15804+A2 core impact indicators.' },
+  { group: 'additional', title: 'Additional environmental impact indicators', caption: 'EN 15804+A2 additional impact indicators.' },
+  { group: 'resource', title: 'Use of resources', caption: 'Resource use; SM is the product’s own secondary material input.' },
+  { group: 'waste', title: 'Waste categories', caption: 'Waste disposed of.' },
+  { group: 'output', title: 'Output flows', caption: 'CRU, MFR and MER are the product’s own mass flows, not factors.' },
+];
+
+/** One sentence per method: what it rewards. */
+export const METHOD_SENTENCES: Record<string, { name: string; rewards: string; scope: string }> = {
+  cutoff: {
+    name: 'Cut-off, with module D (EN 15804+A2)',
+    rewards: 'Rewards recycled content: secondary input carries only its reprocessing; the net benefit of recycling at end of life is shown apart, in module D, and is not in the total.',
+    scope: 'A1–C4; module D apart',
+  },
+  cff: {
+    name: 'Circular Footprint Formula',
+    rewards: 'Shares the benefit of recycling between the user of recycled material and the supplier of recyclable material by the allocation factor A (0.2 for metals, Recommendation (EU) 2021/2279).',
+    scope: 'life cycle, credits included',
+  },
+  'eol-recycling': {
+    name: 'End-of-life recycling, 0:100',
+    rewards: 'Rewards recycling at end of life: recycled input carries the virgin burden, and material recycled at end of life earns the virgin production it avoids.',
+    scope: 'life cycle, credits included',
+  },
+  'fifty-fifty': {
+    name: '50:50',
+    rewards: 'Splits the burden and the benefit of recycling equally between the recycled input and the recyclable output.',
+    scope: 'life cycle, credits included',
+  },
+};
+
+export function declarationResultsView(ctx: CalcContext, rows: ProductRows, result: ProductResult, json: ResultsJson): DeclarationResultsView {
+  const report = ctx.project.declaration.report;
+  const digits = report.significant_figures;
+  const sci = (value: number | null | undefined): string => (value === null || value === undefined ? 'n/a' : formatScientific(value, digits));
+  const cell = (value: number | null | undefined, figureId: string, moduleD = false): FigureCell => ({ text: sci(value), href: figureHref(figureId), ...(moduleD ? { moduleD } : {}) });
+  const cutoff = json.methods.cutoff;
+  const moduleCodes = Object.keys(cutoff.modules);
+  const modules = moduleCodes.map((code) => ({ code, moduleD: code === 'D' }));
+  const figureOf = (module: string, code: string): string => (findIndicator(code)?.basis === 'flows' ? result.flows.moduleFlows[module]![code]! : `${result.cutoff.modules[module as 'A1']}/${code}`);
+
+  const tables: ResultsTableView[] = [];
+  for (const { group, title, caption } of GROUPS) {
+    const codes = json.indicators.filter((i) => findIndicator(i.code)?.group === group);
+    if (codes.length === 0) continue;
+    tables.push({
+      title,
+      caption,
+      rows: codes.map((indicator) => ({
+        code: indicator.code,
+        name: indicator.name,
+        unit: indicator.unit,
+        cells: moduleCodes.map((module) => cell(cutoff.modules[module]?.[indicator.code], figureOf(module, indicator.code), module === 'D')),
+      })),
+    });
+  }
+
+  const boundary = LIFE_CYCLE_MODULES.map((m) => ({ ...m, declared: moduleCodes.includes(m.code) }));
+
+  const rc = json.flows.recycled_content;
+  const recycledContent = [
+    { label: 'Pre-consumer (ISO 14021)', cell: { text: formatShare(rc.pre), href: figureHref(result.flows.recycledContent.pre) } },
+    { label: 'Post-consumer (ISO 14021)', cell: { text: formatShare(rc.post), href: figureHref(result.flows.recycledContent.post) } },
+    { label: 'Total recycled content', cell: { text: formatShare(rc.total), href: figureHref(result.flows.recycledContent.total) } },
+  ];
+  const bio = json.flows;
+  const biogenic = [
+    { label: 'In the product', carbon: cell(bio.biogenic_carbon_kg.product, result.flows.biogenicCarbon.product), co2: cell(bio.biogenic_co2_kg.product, result.flows.biogenicCarbon.productCo2) },
+    { label: 'In the accompanying packaging', carbon: cell(bio.biogenic_carbon_kg.packaging, result.flows.biogenicCarbon.packaging), co2: cell(bio.biogenic_co2_kg.packaging, result.flows.biogenicCarbon.packagingCo2) },
+  ];
+
+  const compared = report.compare_indicators.filter((code) => ctx.indicators.includes(code));
+  const comparison = {
+    indicators: compared.map((code) => ({ code, unit: findIndicator(code)!.unit })),
+    rows: [
+      { method: 'cutoff', ...METHOD_SENTENCES.cutoff!, cells: compared.map((code) => cell(cutoff.total[code], `${result.cutoff.total}/${code}`)) },
+      ...Object.entries(result.methods).map(([method, r]) => ({
+        method,
+        ...METHOD_SENTENCES[method]!,
+        cells: compared.map((code) => cell(json.methods[method as 'cff']!.total[code], `${r!.total}/${code}`)),
+      })),
+    ],
+  };
+  const moduleDRow = compared.length > 0 ? compared.map((code) => cell(cutoff.modules.D?.[code], `${result.cutoff.modules.D}/${code}`, true)) : [];
+
+  const headlineCode = 'GWP-total';
+  const hasHeadline = ctx.indicators.includes(headlineCode);
+  const headline = {
+    a1a3: hasHeadline ? cell(cutoff.modules['A1-A3']?.[headlineCode], `${result.cutoff.modules['A1-A3']}/${headlineCode}`) : { text: 'n/a' },
+    moduleD: hasHeadline ? cell(cutoff.modules.D?.[headlineCode], `${result.cutoff.modules.D}/${headlineCode}`, true) : { text: 'n/a' },
+    recycledContent: recycledContent[2]!.cell,
+    a1a3Value: String(cutoff.modules['A1-A3']?.[headlineCode] ?? ''),
+    moduleDValue: String(cutoff.modules.D?.[headlineCode] ?? ''),
+    recycledValue: String(rc.total),
+  };
+
+  const charts = hasHeadline ? chartsOf(ctx, rows, result, json, headlineCode, sci) : [];
+  return { significantFigures: digits, boundary, modules, tables, recycledContent, biogenic, comparison: { ...comparison, rows: [...comparison.rows, ...(moduleDRow.length ? [{ method: 'cutoff-d', name: 'Module D (beside cut-off)', rewards: 'Net benefit and load of recycling and recovery beyond the system boundary; not added to any total.', scope: 'module D', cells: moduleDRow }] : [])] }, charts, headline };
+}
+
+function chartsOf(ctx: CalcContext, rows: ProductRows, result: ProductResult, json: ResultsJson, code: string, sci: (v: number | null | undefined) => string): ChartView[] {
+  const unit = findIndicator(code)!.unit;
+  const { graph } = result;
+  const index = ctx.indicators.indexOf(code);
+  const valueOf = (id: string): number => graph.vector(id).values[index]!;
+  const tableOf = (data: ChartDatum[], first: string) => ({ headers: [first, 'Group', `${code} (${unit})`], rows: data.map((d) => [d.label, d.group, sci(d.value)]) });
+  const finite = (data: ChartDatum[]) => data.filter((d) => Number.isFinite(d.value));
+
+  const byModule = finite(
+    Object.entries(result.cutoff.modules)
+      .filter(([module]) => module !== 'A1-A3')
+      .map(([module, id]) => ({ label: module, group: module === 'D' ? 'Module D (reported apart)' : 'A–C (in the total)', value: valueOf(id!) })),
+  );
+
+  const components = new Map(rows.bom.map((row) => [`${row.value.role === 'packaging' ? 'packaging' : 'line'}:${row.value.line_id}`, `${row.value.component} (${row.value.material})`]));
+  const a1 = graph.vector(result.cutoff.modules.A1!);
+  const a3 = graph.vector(result.cutoff.modules.A3!);
+  const contributions: ChartDatum[] = [];
+  for (const term of a1.terms) if (term.kind === 'figure') contributions.push({ label: `A1 ${components.get(term.symbol) ?? term.symbol}`, group: 'A1 raw materials', value: valueOf(term.id) });
+  contributions.push({ label: 'A2 transport of inputs', group: 'A2 transport', value: valueOf(result.cutoff.modules.A2!) });
+  for (const term of a3.terms) if (term.kind === 'figure') contributions.push({ label: `A3 ${components.get(term.symbol) ?? term.symbol.replace(/-/g, ' ')}`, group: 'A3 manufacturing', value: valueOf(term.id) });
+
+  const methods: ChartDatum[] = [{ label: 'Cut-off (A1–C4)', group: 'Method total', value: json.methods.cutoff.total[code] ?? Number.NaN }];
+  for (const method of Object.keys(result.methods)) methods.push({ label: METHOD_SENTENCES[method]!.name, group: 'Method total', value: json.methods[method as 'cff']!.total[code] ?? Number.NaN });
+  methods.push({ label: 'Module D (beside cut-off)', group: 'Module D (reported apart)', value: json.methods.cutoff.modules.D?.[code] ?? Number.NaN });
+
+  const charts: Array<Omit<ChartView, 'spec' | 'table'> & { first: string; groups: string[] }> = [
+    { id: 'chart-modules', title: `${code} by module`, alt: `Bar chart of ${code} per declared unit for each module, ${byModule.map((d) => `${d.label} ${sci(d.value)}`).join(', ')} ${unit}; module D is reported apart and not added to A–C.`, unit, data: byModule, first: 'Module', groups: ['A–C (in the total)', 'Module D (reported apart)'] },
+    { id: 'chart-contributions', title: `${code} of A1-A3 by BOM line and step`, alt: `Bar chart of the contributions to ${code} in A1-A3: ${finite(contributions).map((d) => `${d.label} ${sci(d.value)}`).join(', ')} ${unit}.`, unit, data: finite(contributions), first: 'Contribution', groups: ['A1 raw materials', 'A2 transport', 'A3 manufacturing'] },
+    { id: 'chart-methods', title: `${code} under each recycling method`, alt: `Bar chart of ${code} under each method: ${finite(methods).map((d) => `${d.label} ${sci(d.value)}`).join(', ')} ${unit}.`, unit, data: finite(methods), first: 'Method', groups: ['Method total', 'Module D (reported apart)'] },
+  ];
+  return charts.map(({ first, groups, ...chart }) => ({ ...chart, table: tableOf(chart.data, first), spec: barChart(chart.data, `${code} (${unit})`, groups) }));
+}
