@@ -38,7 +38,7 @@ export async function runBuild(options: BuildOptions, io: Io): Promise<number> {
     const inputs = await hashInputs(project.dir);
     await copyInputs(project.dir, staging, inputs);
     const results = await writeResults(project, staging);
-    const view = buildSiteView(project, problems, results, inputs);
+    const view = buildSiteView(project, problems, results, inputs, browser !== undefined);
     productCount = view.products.length;
     await renderSite(view, staging);
     const jobs = view.products.map((product) => ({

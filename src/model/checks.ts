@@ -343,6 +343,19 @@ function factorCompleteness(ctx: CheckContext): void {
       });
     }
   }
+  // The method comparison can only show indicators the declaration computes from factors.
+  const compared = p.declaration?.report.compare_indicators ?? [];
+  if (p.declarationFile) {
+    compared.forEach((code, index) => {
+      if (asked.includes(code)) return;
+      const where = locate(p.declarationFile!, ['report', 'compare_indicators', index]);
+      ctx.problems.push({
+        severity: 'warning', code: 'INDICATOR_NO_DATA', file: p.declarationFile!.file, line: where.line, column: 'report.compare_indicators', columnIndex: where.column, value: code,
+        message: `is asked for in the method comparison, but the declaration does not report ${code} from factors.csv; the comparison leaves it out`,
+        expected: `an indicator reported from factors.csv (${asked.slice(0, 3).join(', ')}, …)`,
+      });
+    });
+  }
   const used = usedFactors(ctx);
   for (const row of p.factors.rows) {
     const where = used.get(row.value.factor_id);

@@ -81,6 +81,8 @@ export interface SiteView {
     illustrative: boolean;
   };
   cautions: string[];
+  /** Whether this build prints PDFs (pages link to them only then). */
+  pdfs: boolean;
   methodology: Array<{ title: string; paragraphs: string[] }>;
   products: ProductView[];
   verification: { inputs: Array<{ file: string; sha256: string; bytes: number }>; datasets: Array<{ name: string; rows: number }> };
@@ -119,7 +121,7 @@ const num = (value: number): Cell => ({ text: formatInput(value), numeric: true 
 const pct = (value: number): Cell => ({ text: formatShare(value), numeric: true });
 const txt = (value: string | undefined): Cell => ({ text: value ?? '' });
 
-export function buildSiteView(project: Project, problems: readonly Problem[], reports: readonly ProductReport[] = [], inputs: SiteView['verification']['inputs'] = []): SiteView {
+export function buildSiteView(project: Project, problems: readonly Problem[], reports: readonly ProductReport[] = [], inputs: SiteView['verification']['inputs'] = [], pdfs = false): SiteView {
   const d = project.declaration;
   const view: SiteView = {
     tool: { name: TOOL_NAME, version: TOOL_VERSION },
@@ -142,6 +144,7 @@ export function buildSiteView(project: Project, problems: readonly Problem[], re
       illustrative: d.illustrative,
     },
     cautions: CAUTIONS,
+    pdfs,
     products: productViews(project, new Map(reports.map((r) => [r.summary.product_id, r]))),
     methodology: methodology(project),
     audits: [],

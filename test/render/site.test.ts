@@ -72,7 +72,30 @@ describe('PDF in a real Chromium', async () => {
     const results = JSON.parse(readFileSync(path.join(out, 'KV-CU-BB10', 'results.json'), 'utf8'));
     for (const module of ['A1', 'A1-A3', 'C4', 'D']) expect(text).toContain(results.methods.cutoff.modules[module]['GWP-total'].toExponential(2));
     expect(text).toMatch(/page 1 of \d/);
+    // The draft status is in the running head of every page (pdftotext separates pages with form feeds).
+    const pages = text.split('\f').filter((page) => page.trim() !== '');
+    expect(pages.length).toBeGreaterThan(1);
+    for (const page of pages) expect(page).toContain('DRAFT — not verified');
     // No link in the PDF points into the build folder (it would be a file:// path of this machine).
     expect(readFileSync(path.join(out, 'KV-CU-BB10', 'declaration.pdf'), 'latin1')).not.toContain('file://');
+  });
+});
+
+describe('declaration.json report settings', () => {
+  it('prints the declared number of significant figures and compares the chosen indicators under every method', async () => {
+    const data = await demoCopy();
+    dirs.push(path.dirname(data));
+    await editFile(path.join(data, 'declaration.json'), (t) => t.replace('"illustrative": true', '"report": { "significant_figures": 4, "compare_indicators": ["GWP-total", "AP", "SM"] },\n  "illustrative": true'));
+    const out = path.join(path.dirname(data), 'out');
+    const result = await runCli(['build', '--data', data, '--out', out, '--no-pdf']);
+    expect(result.code, result.stderr).toBe(0);
+    // SM comes from mass flows, not factors: the comparison leaves it out, with a warning at its place in the file.
+    expect(result.stderr).toMatch(/declaration\.json:\d+: report\.compare_indicators "SM": .*\[INDICATOR_NO_DATA\]/);
+    const page = await readFile(path.join(out, 'KV-EXT-6060', 'index.html'), 'utf8');
+    const results = JSON.parse(await readFile(path.join(out, 'KV-EXT-6060', 'results.json'), 'utf8'));
+    // Four significant figures: toExponential(3) (ECMA-262 Number.prototype.toExponential).
+    expect(page).toContain(`>${results.methods.cutoff.modules.A1['GWP-total'].toExponential(3)}<`);
+    expect(page).toContain('AP (mol H+ eq.)');
+    for (const method of ['cff', 'eol-recycling', 'fifty-fifty']) expect(page).toContain(`>${results.methods[method].total.AP.toExponential(3)}<`);
   });
 });

@@ -1,0 +1,225 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { mkdir, readdir, readFile } from 'node:fs/promises';
+import { createRequire } from 'node:module';
+import path from 'node:path';
+import { pathToFileURL } from 'node:url';
+import puppeteer, { type Browser, type Page } from 'puppeteer';
+import { CHROMIUM_ARGS, findBrowser } from '../../src/render/browser.ts';
+import { DEMO, ROOT, demoCopy, editFile, removeDir, runCli, tempDir } from '../helpers.ts';
+
+/**
+ * The built site in a real Chromium: every page opens without console errors or failed
+ * requests, every number on a declaration page leads to its figure in the audit trail and
+ * shows results.json rounded as declared, the audit trail has no dangling link, axe-core
+ * finds no serious or critical accessibility violation, and hostile input text stays text.
+ */
+const axeSource = (createRequire(import.meta.url)('axe-core') as { source: string }).source;
+const PRODUCTS = ['KV-EXT-6060', 'KV-CU-BB10', 'KV-BR-40'];
+const ARTIFACTS = path.join(ROOT, 'test', 'artifacts');
+
+const found = await findBrowser();
+if (!found) console.warn('\n*** SKIPPING BROWSER TESTS: no Chromium or Chrome found (PUPPETEER_EXECUTABLE_PATH, PATH, puppeteer cache). .ci/run installs Debian’s chromium. ***\n');
+
+const dirs: string[] = [];
+let browser: Browser | undefined;
+let out = '';
+
+beforeAll(async () => {
+  if (!found) return;
+  const dir = await tempDir();
+  dirs.push(dir);
+  out = path.join(dir, 'out');
+  const result = await runCli(['build', '--data', DEMO, '--out', out, '--pdf']);
+  expect(result.code, result.stderr).toBe(0);
+  browser = await puppeteer.launch({ executablePath: found.executablePath, headless: true, args: CHROMIUM_ARGS });
+  await mkdir(ARTIFACTS, { recursive: true });
+});
+afterAll(async () => {
+  await browser?.close();
+  await Promise.all(dirs.map(removeDir));
+});
+
+interface Opened {
+  page: Page;
+  errors: string[];
+}
+
+/** Opens a page of the build from disk, recording console errors, page errors and failed requests. */
+async function open(file: string, root = out): Promise<Opened> {
+  const page = await browser!.newPage();
+  const errors: string[] = [];
+  page.on('console', (message) => {
+    if (message.type() === 'error') errors.push(`console: ${message.text()}`);
+  });
+  page.on('pageerror', (error) => errors.push(`page error: ${(error as Error).message}`));
+  page.on('requestfailed', (request) => errors.push(`request failed: ${request.url()} ${request.failure()?.errorText ?? ''}`));
+  page.on('dialog', (dialog) => {
+    errors.push(`dialog: ${dialog.message()}`);
+    void dialog.dismiss();
+  });
+  await page.setViewport({ width: 1200, height: 900 });
+  await page.goto(pathToFileURL(path.join(root, file)).href, { waitUntil: 'load' });
+  return { page, errors };
+}
+
+async function htmlPages(root: string): Promise<string[]> {
+  const pages: string[] = [];
+  const walk = async (dir: string) => {
+    for (const entry of await readdir(path.join(root, dir), { withFileTypes: true })) {
+      const relative = dir ? `${dir}/${entry.name}` : entry.name;
+      if (entry.isDirectory()) await walk(relative);
+      else if (entry.name.endsWith('.html')) pages.push(relative);
+    }
+  };
+  await walk('');
+  return pages.sort();
+}
+
+/** Three significant figures in scientific notation, as the declaration prints by default (declaration.json report.significant_figures). */
+const declared = (value: number | null): string => (value === null ? 'n/a' : value.toExponential(2));
+
+describe.skipIf(!found)('the site in a real Chromium', () => {
+  it('opens every page with no console error, page error or failed request', async () => {
+    const pages = await htmlPages(out);
+    // catalogue, factor table, verification pack, and a declaration and an audit trail per product
+    expect(pages).toEqual(['KV-BR-40/audit.html', 'KV-BR-40/index.html', 'KV-CU-BB10/audit.html', 'KV-CU-BB10/index.html', 'KV-EXT-6060/audit.html', 'KV-EXT-6060/index.html', 'factors/index.html', 'index.html', 'verification/index.html']);
+    for (const file of pages) {
+      const { page, errors } = await open(file);
+      // Every link inside the build points at a file that exists.
+      const targets = await page.$$eval('a[href]', (links) => links.map((a) => (a as HTMLAnchorElement).href).filter((href) => href.startsWith('file:')));
+      for (const target of new Set(targets.map((t) => decodeURIComponent(new URL(t).pathname)))) {
+        await expect(readFile(target), `${file} links to ${target}`).resolves.toBeDefined();
+      }
+      await page.close();
+      expect(errors, file).toEqual([]);
+    }
+  });
+
+  it.each(PRODUCTS)('every number on the %s declaration links to its figure in the audit trail and equals results.json as rounded', async (id) => {
+    const results = JSON.parse(await readFile(path.join(out, id, 'results.json'), 'utf8')) as { figures: Record<string, { value: number | null; unit: string }> };
+    const { page } = await open(`${id}/index.html`);
+    const links = await page.$$eval('a.fig', (anchors) => anchors.map((a) => ({ href: a.getAttribute('href')!, text: a.textContent!.trim() })));
+    await page.close();
+    expect(links.length).toBeGreaterThan(100);
+    const audit = await open(`${id}/audit.html`);
+    for (const link of links) {
+      const [file, hash] = link.href.split('#');
+      expect(file).toBe('audit.html');
+      const figureId = decodeURIComponent(hash!);
+      const figure = results.figures[figureId];
+      expect(figure, `${figureId} is in results.json`).toBeDefined();
+      const anchored = await audit.page.evaluate((anchor) => document.getElementById(anchor) !== null, figureId);
+      expect(anchored, `${figureId} has an anchor in the audit trail`).toBe(true);
+      // Shares print as percentages (ISO 14021 recycled content); everything else in scientific notation.
+      const expected = link.text.endsWith('%') ? `${Number((figure!.value! * 100).toFixed(3))} %` : declared(figure!.value);
+      expect(link.text, figureId).toBe(expected);
+    }
+    await audit.page.close();
+  });
+
+  it.each(PRODUCTS)('the %s audit trail has no dangling link and walks from A1-A3 down to a CSV cell', async (id) => {
+    const { page, errors } = await open(`${id}/audit.html`);
+    const dangling = await page.$$eval('a[href^="#"]', (links) => links.map((a) => decodeURIComponent(a.getAttribute('href')!.slice(1))).filter((anchor) => document.getElementById(anchor) === null));
+    expect(dangling).toEqual([]);
+    // Follow the first link down from each figure until an input row is reached.
+    let anchor = 'cutoff/A1-A3/GWP-total';
+    const walked: string[] = [anchor];
+    for (let step = 0; step < 12 && !anchor.startsWith('input:'); step++) {
+      anchor = await page.evaluate((current) => {
+        const element = document.getElementById(current)!;
+        const section = element.tagName === 'TR' ? element.closest('article')! : element;
+        const row = element.tagName === 'TR' ? element : null;
+        // A per-indicator term value in the row, else the first term of the figure.
+        const link = (row?.querySelector('td a') ?? section.querySelector('ul.terms a')) as HTMLAnchorElement;
+        return decodeURIComponent(link.getAttribute('href')!.slice(1));
+      }, anchor);
+      walked.push(anchor);
+    }
+    expect(anchor, walked.join(' → ')).toMatch(/^input:(bom|factors|activities|transport|eol|materials|products)\.csv:\d+$/);
+    const row = await page.evaluate((current) => document.getElementById(current)!.querySelector('pre')!.textContent, anchor);
+    const [, file, line] = /^input:(.+):(\d+)$/.exec(anchor)!;
+    const written = (await readFile(path.join(DEMO, file!), 'utf8')).split(/\r?\n/)[Number(line) - 1];
+    expect(row).toBe(written);
+    await page.close();
+    expect(errors).toEqual([]);
+  });
+
+  it.each(['index.html', 'KV-CU-BB10/index.html', 'KV-CU-BB10/audit.html', 'verification/index.html'])('axe-core finds no serious or critical violation on %s', async (file) => {
+    const { page } = await open(file);
+    await page.addScriptTag({ content: axeSource });
+    const violations = await page.evaluate(async () => {
+      const axe = (window as unknown as { axe: { run: (context: Document, options: object) => Promise<{ violations: Array<{ id: string; impact: string; nodes: unknown[] }> }> } }).axe;
+      const result = await axe.run(document, { resultTypes: ['violations'] });
+      return result.violations.map((v) => ({ id: v.id, impact: v.impact, nodes: v.nodes.length }));
+    });
+    await page.close();
+    expect(violations.filter((v) => v.impact === 'serious' || v.impact === 'critical')).toEqual([]);
+  });
+
+  it('charts are SVG in the HTML with a text alternative and their data as a table', async () => {
+    const { page } = await open('KV-EXT-6060/index.html');
+    const charts = await page.$$eval('figure.chart', (figures) =>
+      figures.map((f) => ({ svg: f.querySelector('.chart-svg > svg') !== null, alt: f.querySelector('.chart-svg')!.getAttribute('aria-label') ?? '', rows: f.querySelectorAll('.chart-data tbody tr').length, bars: f.querySelectorAll('.chart-svg svg .mark-rect path').length })),
+    );
+    await page.close();
+    expect(charts).toHaveLength(3);
+    for (const chart of charts) {
+      expect(chart.svg).toBe(true);
+      expect(chart.alt.length).toBeGreaterThan(40);
+      expect(chart.rows).toBeGreaterThan(1);
+      expect(chart.bars).toBe(chart.rows);
+    }
+  });
+
+  it('the catalogue sorts and filters with its script, and is a complete table without it', async () => {
+    const { page, errors } = await open('index.html');
+    await page.screenshot({ path: path.join(ARTIFACTS, 'catalogue.png'), fullPage: true });
+    const order = () => page.$$eval('#catalogue tbody tr:not([hidden]) td:first-child', (cells) => cells.map((c) => c.textContent!.trim()));
+    const gwp = () => page.$$eval('#catalogue tbody tr td:nth-child(4)', (cells) => cells.map((c) => Number(c.getAttribute('data-sort'))));
+    await page.click('#catalogue thead th:nth-child(4) button');
+    const ascending = await gwp();
+    expect(ascending).toEqual([...ascending].sort((a, b) => a - b));
+    await page.click('#catalogue thead th:nth-child(4) button');
+    const descending = await gwp();
+    expect(descending).toEqual([...ascending].reverse());
+    await page.type('#catalogue-filter', 'busbar');
+    expect(await order()).toEqual(['KV-CU-BB10']);
+    await page.close();
+    expect(errors).toEqual([]);
+
+    const plain = await browser!.newPage();
+    await plain.setJavaScriptEnabled(false);
+    await plain.goto(pathToFileURL(path.join(out, 'index.html')).href);
+    expect(await plain.$$eval('#catalogue tbody tr', (rows) => rows.length)).toBe(3);
+    expect(await plain.$eval('#catalogue-tools', (tools) => (tools as HTMLElement).hidden)).toBe(true);
+    await plain.close();
+  });
+
+  it('writes screenshots of the catalogue and a declaration for a person to look at', async () => {
+    const { page } = await open('KV-EXT-6060/index.html');
+    await page.screenshot({ path: path.join(ARTIFACTS, 'declaration-KV-EXT-6060.png'), fullPage: true });
+    await page.close();
+    for (const name of ['catalogue.png', 'declaration-KV-EXT-6060.png']) expect((await readFile(path.join(ARTIFACTS, name))).subarray(1, 4).toString()).toBe('PNG');
+  });
+
+  it('hostile input text stays text on the declaration, its charts and its audit trail (nothing runs)', async () => {
+    const data = await demoCopy();
+    dirs.push(path.dirname(data));
+    await editFile(path.join(data, 'products.csv'), (t) => t.replace('"Angle bracket 40 mm, hot-dip galvanised steel"', '"<script>alert(1)</script> ""><img src=x onerror=alert(2)> {{ 7*7 }}"'));
+    await editFile(path.join(data, 'bom.csv'), (t) => t.replace('Steel blank', '<img src=x onerror=alert(3)>'));
+    const hostileOut = path.join(path.dirname(data), 'out');
+    const result = await runCli(['build', '--data', data, '--out', hostileOut, '--no-pdf']);
+    expect(result.code, result.stderr).toBe(0);
+    for (const file of ['index.html', 'KV-BR-40/index.html', 'KV-BR-40/audit.html']) {
+      const { page, errors } = await open(file, hostileOut);
+      const injected = await page.evaluate(() => document.querySelectorAll('script:not([src]), img').length);
+      await page.close();
+      expect(injected, file).toBe(0);
+      expect(errors, file).toEqual([]);
+    }
+    const { page } = await open('KV-BR-40/index.html', hostileOut);
+    expect(await page.$eval('h1', (h) => h.textContent)).toBe('<script>alert(1)</script> "><img src=x onerror=alert(2)> {{ 7*7 }}');
+    expect(await page.$eval('#chart-contributions svg', (svg) => svg.textContent)).toContain('<img src=x onerror=alert(3)>');
+    await page.close();
+  });
+});
