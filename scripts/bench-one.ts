@@ -46,11 +46,11 @@ if (flag === '--calc') {
 }
 let renderMs = 0;
 if (flag === '--build') {
-  const { buildSiteView } = await import('../src/report/site-view.ts');
-  const { renderSite } = await import('../src/render/site.ts');
+  const { buildSite } = await import('../src/render/build-site.ts');
   const { withStagedOutput } = await import('../src/render/output.ts');
   const renderStart = performance.now();
-  await withStagedOutput(out!, async (staging) => renderSite(buildSiteView(project, problems), staging));
+  // Calculation, results.json/csv, declaration and audit pages, catalogue: the build without PDFs.
+  await withStagedOutput(out!, async (staging) => buildSite(project, problems, staging, { inputs: [], pdfs: false }));
   renderMs = performance.now() - renderStart;
 }
 process.stdout.write(

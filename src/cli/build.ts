@@ -1,13 +1,11 @@
 import path from 'node:path';
 import { loadProject } from '../model/project.ts';
 import { hasErrors } from '../problems.ts';
-import { buildSiteView } from '../report/site-view.ts';
 import { findBrowser } from '../render/browser.ts';
 import { checkOutputDir, withStagedOutput } from '../render/output.ts';
 import { printPdfs } from '../render/pdf.ts';
-import { renderSite } from '../render/site.ts';
+import { buildSite } from '../render/build-site.ts';
 import { EXIT, type Io } from './io.ts';
-import { writeResults } from '../render/results-files.ts';
 import { printProblems } from './report-problems.ts';
 import { copyInputs, hashInputs, writeManifest } from '../render/verification.ts';
 
@@ -37,21 +35,20 @@ export async function runBuild(options: BuildOptions, io: Io): Promise<number> {
   await withStagedOutput(options.out, async (staging) => {
     const inputs = await hashInputs(project.dir);
     await copyInputs(project.dir, staging, inputs);
-    const results = await writeResults(project, staging);
-    const view = buildSiteView(project, problems, results, inputs, browser !== undefined);
-    productCount = view.products.length;
-    await renderSite(view, staging);
-    const jobs = view.products.map((product) => ({
+    const catalogue = await buildSite(project, problems, staging, { inputs, pdfs: browser !== undefined });
+    productCount = catalogue.length;
+    const verification = project.declaration.verification;
+    const jobs = catalogue.map((product) => ({
       html: path.join(staging, product.id, 'index.html'),
-      pdf: path.join(staging, product.pdf),
+      pdf: path.join(staging, product.id, 'declaration.pdf'),
       title: `${product.name} (${product.id})`,
-      status: view.declaration.draft ? 'DRAFT — not verified' : `verified ${view.declaration.verificationDate}`,
+      status: verification.status === 'verified' ? `verified ${verification.date ?? ''}` : 'DRAFT — not verified',
     }));
     if (browser) {
       io.err(`PDF: using ${browser.executablePath} (found via ${browser.how})`);
       await printPdfs(browser, staging, jobs);
     } else if (options.pdf === 'auto') {
-      missingPdfs = view.products.map((product) => product.pdf);
+      missingPdfs = catalogue.map((product) => `${product.id}/declaration.pdf`);
     }
     await writeManifest(staging, inputs);
   });

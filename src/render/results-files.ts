@@ -2,7 +2,7 @@ import { mkdir, writeFile } from 'node:fs/promises';
 import path from 'node:path';
 import { CalcContext } from '../calc/context.ts';
 import { calculateProduct } from '../calc/product.ts';
-import { rowsByProduct } from '../model/by-product.ts';
+import type { ProductRows } from '../model/by-product.ts';
 import type { Project } from '../model/types.ts';
 import { resultsCsv } from '../report/results-csv.ts';
 import { resultsJson, type ResultsSummary } from '../report/results.ts';
@@ -20,28 +20,39 @@ export interface ProductReport {
 /**
  * Writes `<product_id>/results.json` (with its figure graph) and `results.csv` per product,
  * then `results.json` and `results.csv` for the whole catalogue. Products are computed one
- * at a time and their graphs dropped once written, so memory does not grow with the
- * catalogue; the catalogue-wide JSON carries the results without the figure graphs.
+ * at a time and their graphs dropped once written and viewed, so memory does not grow with
+ * the catalogue; the catalogue-wide JSON carries the results without the figure graphs.
  */
-export async function writeResults(project: Project, outDir: string): Promise<ProductReport[]> {
-  const ctx = new CalcContext(project);
-  const summaries: ResultsSummary[] = [];
-  const reports: ProductReport[] = [];
-  for (const rows of rowsByProduct(project)) {
+export class ResultsWriter {
+  private readonly ctx: CalcContext;
+  private readonly summaries: ResultsSummary[] = [];
+
+  constructor(
+    project: Project,
+    private readonly outDir: string,
+  ) {
+    this.ctx = new CalcContext(project);
+  }
+
+  async product(rows: ProductRows): Promise<ProductReport> {
+    const ctx = this.ctx;
     const product = calculateProduct(ctx, rows);
     const results = resultsJson(ctx, product);
-    const dir = path.join(outDir, results.product_id);
+    const dir = path.join(this.outDir, results.product_id);
     await mkdir(dir, { recursive: true });
     // Compact: a product's figure graph runs to thousands of figures (see docs/performance.md).
     await writeFile(path.join(dir, 'results.json'), `${JSON.stringify(results)}\n`);
     await writeFile(path.join(dir, 'results.csv'), resultsCsv([results]));
     const { figures: _figures, ...summary } = results;
-    summaries.push(summary);
+    this.summaries.push(summary);
     const view = declarationResultsView(ctx, rows, product, results);
     for (const chart of view.charts) chart.svg = await renderChartSvg(chart);
-    reports.push({ summary, results: view, audit: auditView(project, product) });
+    return { summary, results: view, audit: auditView(ctx.project, product) };
   }
-  await writeFile(path.join(outDir, 'results.json'), `${JSON.stringify({ products: summaries }, null, 1)}\n`);
-  await writeFile(path.join(outDir, 'results.csv'), resultsCsv(summaries));
-  return reports;
+
+  async finish(): Promise<ResultsSummary[]> {
+    await writeFile(path.join(this.outDir, 'results.json'), `${JSON.stringify({ products: this.summaries }, null, 1)}\n`);
+    await writeFile(path.join(this.outDir, 'results.csv'), resultsCsv(this.summaries));
+    return this.summaries;
+  }
 }

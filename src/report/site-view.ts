@@ -88,6 +88,10 @@ export interface SiteView {
   verification: { inputs: Array<{ file: string; sha256: string; bytes: number }>; datasets: Array<{ name: string; rows: number }> };
   /** The products that have an audit trail page (those with results). */
   audits: ProductView[];
+  /** Every product of the catalogue (in the render that writes the catalogue pages). */
+  catalogue: CatalogueEntry[];
+  /** [1] in the render that writes the catalogue-wide pages, else []: those templates paginate over it. */
+  cataloguePages: number[];
   /** Every factor row once, on its own page; product pages link to it. */
   factors: TableView;
   warnings: string[];
@@ -121,8 +125,43 @@ const num = (value: number): Cell => ({ text: formatInput(value), numeric: true 
 const pct = (value: number): Cell => ({ text: formatShare(value), numeric: true });
 const txt = (value: string | undefined): Cell => ({ text: value ?? '' });
 
-export function buildSiteView(project: Project, problems: readonly Problem[], reports: readonly ProductReport[] = [], inputs: SiteView['verification']['inputs'] = [], pdfs = false): SiteView {
+/** A catalogue row: what the catalogue shows of a product. */
+export interface CatalogueEntry {
+  id: string;
+  name: string;
+  declaredUnit: string;
+  url: string;
+  headline?: DeclarationResultsView['headline'];
+}
+
+export interface SiteViewOptions {
+  /** The products whose pages this render writes (a shard of the catalogue), with their reports. */
+  products?: ReadonlyArray<{ rows: ProductRows; report?: ProductReport }>;
+  /** Given for the render that writes the catalogue-wide pages (catalogue, factor table, verification pack). */
+  catalogue?: CatalogueEntry[];
+  inputs?: SiteView['verification']['inputs'];
+  /** Whether this build prints PDFs (pages link to them only then). */
+  pdfs?: boolean;
+}
+
+export const catalogueEntry = (product: ProductView): CatalogueEntry => ({
+  id: product.id,
+  name: product.name,
+  declaredUnit: product.declaredUnit,
+  url: product.url,
+  ...(product.results ? { headline: product.results.headline } : {}),
+});
+
+/**
+ * The view of one render. A build renders its products in shards (each with its own
+ * product and audit pages), then the catalogue-wide pages once, so memory does not grow
+ * with the catalogue.
+ */
+export function buildSiteView(project: Project, problems: readonly Problem[], options: SiteViewOptions = {}): SiteView {
   const d = project.declaration;
+  const shard: ReadonlyArray<{ rows: ProductRows; report?: ProductReport }> = options.products ?? rowsByProduct(project).map((rows) => ({ rows }));
+  const products = shard.map(({ rows, report }) => productView(project, rows, report));
+  const catalogue = options.catalogue;
   const view: SiteView = {
     tool: { name: TOOL_NAME, version: TOOL_VERSION },
     declaration: {
@@ -144,19 +183,20 @@ export function buildSiteView(project: Project, problems: readonly Problem[], re
       illustrative: d.illustrative,
     },
     cautions: CAUTIONS,
-    pdfs,
-    products: productViews(project, new Map(reports.map((r) => [r.summary.product_id, r]))),
+    pdfs: options.pdfs ?? false,
+    products,
     methodology: methodology(project),
-    audits: [],
-    verification: { inputs: [...inputs], datasets: datasetCounts(project) },
-    factors: factorTable(project, project.factors.rows),
+    audits: products.filter((product) => product.audit !== undefined),
+    catalogue: catalogue ?? [],
+    cataloguePages: catalogue ? [1] : [],
+    verification: { inputs: [...(options.inputs ?? [])], datasets: catalogue ? datasetCounts(project) : [] },
+    factors: catalogue ? factorTable(project, project.factors.rows) : { title: '', caption: '', headers: [], rows: [], empty: '' },
     warnings: problems.filter((p) => p.severity === 'warning').map(formatProblem),
     indicators: project.indicators.map((code) => {
       const indicator = findIndicator(code)!;
       return { code, name: indicator.name, unit: indicator.unit };
     }),
   };
-  view.audits = view.products.filter((product) => product.audit !== undefined);
   return view;
 }
 
@@ -187,13 +227,16 @@ function factorTable(project: Project, rows: Project['factors']['rows']): TableV
   };
 }
 
-/** Rows grouped by product once (and scenarios by name), so building every page is linear in the catalogue. */
-function productViews(project: Project, results: Map<string, ProductReport>): ProductView[] {
-  const scenarios = groupBy(project.eol.rows, (row) => row.value.scenario);
-  return rowsByProduct(project).map((rows) => productView(project, rows, scenarios, results.get(rows.product.value.product_id)));
+/** Scenario rows by name, grouped once per project (not once per product). */
+const scenarioCache = new WeakMap<Project, Map<string, Project['eol']['rows']>>();
+function scenariosOf(project: Project): Map<string, Project['eol']['rows']> {
+  let scenarios = scenarioCache.get(project);
+  if (!scenarios) scenarioCache.set(project, (scenarios = groupBy(project.eol.rows, (row) => row.value.scenario)));
+  return scenarios;
 }
 
-function productView(project: Project, rows: ProductRows, scenarios: Map<string, Project['eol']['rows']>, report: ProductReport | undefined): ProductView {
+function productView(project: Project, rows: ProductRows, report: ProductReport | undefined): ProductView {
+  const scenarios = scenariosOf(project);
   const productRow = rows.product;
   const product = productRow.value;
   const lines = rows.bom;
