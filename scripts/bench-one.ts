@@ -1,5 +1,5 @@
 // One benchmark measurement in a fresh process, so peak memory belongs to it alone.
-// usage: bench-one.ts DATA_DIR [--build OUT_DIR]
+// usage: bench-one.ts DATA_DIR [--calc | --build OUT_DIR]   (BENCH_PDFS=N: also print N PDFs, tool vs floor)
 import { readFile } from 'node:fs/promises';
 import path from 'node:path';
 import { parse } from 'csv-parse/sync';
@@ -45,6 +45,10 @@ if (flag === '--calc') {
   jsonMs = (performance.now() - jsonStart) / Math.min(100, all.length);
 }
 let renderMs = 0;
+let peakBeforePdf = 0;
+let outBytes = 0;
+let auditBytesPerProduct = 0;
+let pdf = { count: 0, toolMs: 0, floorMs: 0 };
 if (flag === '--build') {
   const { buildSite } = await import('../src/render/build-site.ts');
   const { withStagedOutput } = await import('../src/render/output.ts');
@@ -52,6 +56,54 @@ if (flag === '--build') {
   // Calculation, results.json/csv, declaration and audit pages, catalogue: the build without PDFs.
   await withStagedOutput(out!, async (staging) => buildSite(project, problems, staging, { inputs: [], pdfs: false }));
   renderMs = performance.now() - renderStart;
+  peakBeforePdf = process.resourceUsage().maxRSS / 1024;
+  const sizes = await outputSizes(out!);
+  outBytes = sizes.total;
+  auditBytesPerProduct = sizes.audit / project.products.rows.length;
+  const pdfCount = Math.min(Number(process.env.BENCH_PDFS ?? 0), project.products.rows.length);
+  if (pdfCount > 0) pdf = await measurePdfs(out!, project.products.rows.slice(0, pdfCount).map((row) => row.value.product_id));
+}
+
+/** Bytes of the whole output and of the audit pages. */
+async function outputSizes(dir: string): Promise<{ total: number; audit: number }> {
+  const { readdir, stat } = await import('node:fs/promises');
+  let total = 0;
+  let audit = 0;
+  for (const entry of await readdir(dir, { withFileTypes: true, recursive: true })) {
+    if (!entry.isFile()) continue;
+    const size = (await stat(path.join(entry.parentPath, entry.name))).size;
+    total += size;
+    if (entry.name === 'audit.html') audit += size;
+  }
+  return { total, audit };
+}
+
+/**
+ * PDF throughput: the tool's printer (one browser, page pool, network blocked, links
+ * unwrapped, one retry) against a floor measured in the same run — the same HTML files
+ * printed by a bare puppeteer loop with the same page settings and nothing else.
+ */
+async function measurePdfs(dir: string, ids: string[]): Promise<{ count: number; toolMs: number; floorMs: number }> {
+  const { findBrowser, CHROMIUM_ARGS } = await import('../src/render/browser.ts');
+  const { printPdfs } = await import('../src/render/pdf.ts');
+  const puppeteer = (await import('puppeteer')).default;
+  const { pathToFileURL } = await import('node:url');
+  const found = await findBrowser();
+  if (!found) return { count: 0, toolMs: 0, floorMs: 0 };
+  const jobs = ids.map((id) => ({ html: path.join(dir, id, 'index.html'), pdf: path.join(dir, id, 'declaration.pdf'), title: id, status: 'DRAFT — not verified' }));
+  const toolStart = performance.now();
+  await printPdfs(found, dir, jobs);
+  const toolMs = performance.now() - toolStart;
+  const floorStart = performance.now();
+  const browser = await puppeteer.launch({ executablePath: found.executablePath, headless: true, args: CHROMIUM_ARGS });
+  const page = await browser.newPage();
+  for (const job of jobs) {
+    await page.goto(pathToFileURL(job.html).href, { waitUntil: 'load' });
+    await page.pdf({ path: `${job.pdf}.floor.pdf`, format: 'A4', printBackground: true, displayHeaderFooter: true, margin: { top: '16mm', bottom: '16mm', left: '12mm', right: '12mm' } });
+  }
+  await browser.close();
+  const floorMs = performance.now() - floorStart;
+  return { count: ids.length, toolMs, floorMs };
 }
 process.stdout.write(
   JSON.stringify({
@@ -63,6 +115,10 @@ process.stdout.write(
     figuresPerProduct: figures / Math.min(100, project.products.rows.length),
     jsonBytesPerProduct: jsonBytes / Math.min(100, project.products.rows.length),
     renderMs,
+    buildPeakRssMb: peakBeforePdf,
+    outBytes,
+    auditBytesPerProduct,
+    pdf,
     totalMs: performance.now() - started,
     peakRssMb: process.resourceUsage().maxRSS / 1024,
     rows: project.bom.rows.length + project.products.rows.length + project.factors.rows.length,

@@ -23,13 +23,20 @@ interface Measurement {
   loadMs: number;
   floorMs: number;
   renderMs: number;
+  buildPeakRssMb: number;
+  outBytes: number;
+  auditBytesPerProduct: number;
+  pdf: { count: number; toolMs: number; floorMs: number };
   totalMs: number;
   peakRssMb: number;
   rows: number;
 }
 
 // With the V8 flags bin/loopsheet.js runs the tool with.
-const once = (args: string[]): Measurement => JSON.parse(execFileSync(process.execPath, ['--max-semi-space-size=64', runTs, 'scripts/bench-one.ts', ...args], { encoding: 'utf8', maxBuffer: 1 << 20 })) as Measurement;
+const once = (args: string[], env: NodeJS.ProcessEnv = {}): Measurement =>
+  JSON.parse(execFileSync(process.execPath, ['--max-semi-space-size=64', runTs, 'scripts/bench-one.ts', ...args], { encoding: 'utf8', maxBuffer: 1 << 20, env: { ...process.env, ...env } })) as Measurement;
+/** PDFs printed in the build measurement of the smallest rendered size (tool against the bare-loop floor). */
+const pdfCount = Number(process.env.BENCH_PDFS ?? 40);
 
 /**
  * Allocation-heavy phases vary between runs on this machine (the same load of 10 000
@@ -52,6 +59,9 @@ const range = ([a, b]: [number, number]) => `${(a / 1000).toFixed(1)}–${(b / 1
 
 const rows: string[] = [];
 const calcRows: string[] = [];
+const buildRows: string[] = [];
+const pdfRows: string[] = [];
+let pdfMeasured = false;
 try {
   for (const products of sizes) {
     const dir = path.join(root, `p${products}`);
@@ -63,15 +73,20 @@ try {
     calcRows.push(
       `| ${products.toLocaleString('en')} | ${seconds(calc.calcMs)} (${range(calc.range.calcMs)}) | ${calc.peakRssMb.toFixed(0)} MB | ${calc.nodesPerProduct.toFixed(0)} | ${calc.figuresPerProduct.toFixed(0)} | ${(calc.jsonBytesPerProduct / 1e6).toFixed(2)} MB | ${calc.jsonMsPerProduct.toFixed(1)} ms |`,
     );
-    let render = '—';
-    let renderRss = '—';
     if (renderSizes.has(products)) {
-      const built = once([dir, '--build', path.join(root, `out${products}`)]);
-      render = `${(built.renderMs / 1000).toFixed(2)} s`;
-      renderRss = `${built.peakRssMb.toFixed(0)} MB`;
+      const withPdfs = !pdfMeasured && pdfCount > 0;
+      const built = once([dir, '--build', path.join(root, `out${products}`)], withPdfs ? { BENCH_PDFS: String(pdfCount) } : {});
+      buildRows.push(
+        `| ${products.toLocaleString('en')} | ${seconds(built.renderMs)} | ${(built.renderMs / products).toFixed(0)} ms | ${built.buildPeakRssMb.toFixed(0)} MB | ${(built.outBytes / 1e6).toFixed(0)} MB | ${(built.auditBytesPerProduct / 1e6).toFixed(2)} MB |`,
+      );
+      if (withPdfs && built.pdf.count > 0) {
+        pdfMeasured = true;
+        const rate = (ms: number) => (built.pdf.count / (ms / 1000)).toFixed(2);
+        pdfRows.push(`| ${built.pdf.count} | ${seconds(built.pdf.toolMs)} | ${rate(built.pdf.toolMs)} /s | ${seconds(built.pdf.floorMs)} | ${rate(built.pdf.floorMs)} /s | ${(built.pdf.toolMs / built.pdf.floorMs).toFixed(2)}× |`);
+      }
     }
     rows.push(
-      `| ${products.toLocaleString('en')} | ${check.rows.toLocaleString('en')} | ${seconds(check.loadMs)} (${range(check.range.loadMs)}) | ${(check.floorMs / 1000).toFixed(2)} s | ${(check.loadMs / check.floorMs).toFixed(1)}× | ${check.peakRssMb.toFixed(0)} MB | ${render} | ${renderRss} |`,
+      `| ${products.toLocaleString('en')} | ${check.rows.toLocaleString('en')} | ${seconds(check.loadMs)} (${range(check.range.loadMs)}) | ${(check.floorMs / 1000).toFixed(2)} s | ${(check.loadMs / check.floorMs).toFixed(1)}× | ${check.peakRssMb.toFixed(0)} MB |`,
     );
     process.stderr.write(`bench: ${products} products generated in ${(genMs / 1000).toFixed(1)} s, measured\n`);
   }
@@ -82,8 +97,8 @@ try {
 process.stdout.write(`
 loopsheet bench — ${os.cpus().length} cores, Node ${process.version}, 40 BOM lines × 25 indicators per product, best of ${repeat} runs (range)
 
-| products | rows read | load + validate | floor: csv-parse alone | ratio | peak RSS (check) | render inputs site (HTML) | peak RSS (build) |
-|---:|---:|---:|---:|---:|---:|---:|---:|
+| products | rows read | load + validate | floor: csv-parse alone | ratio | peak RSS (check) |
+|---:|---:|---:|---:|---:|---:|
 ${rows.join('\n')}
 
 Calculation (all methods, every indicator, full figure graph per product; peak RSS includes load):
@@ -91,4 +106,16 @@ Calculation (all methods, every indicator, full figure graph per product; peak R
 | products | calc | peak RSS | graph nodes / product | figures / product | results.json / product | results.json serialise / product |
 |---:|---:|---:|---:|---:|---:|---:|
 ${calcRows.join('\n')}
+
+Build without PDFs (calculation, results.json/csv, declaration and audit pages, catalogue; Eleventy in shards):
+
+| products | HTML + JSON | per product | peak RSS | out/ size | audit page / product |
+|---:|---:|---:|---:|---:|---:|
+${buildRows.join('\n')}
+
+PDF throughput (declarations of the smallest rendered catalogue; tool: one browser, page pool of 2, network blocked, links unwrapped; floor: the same HTML printed by a bare sequential puppeteer loop):
+
+| PDFs | tool | tool rate | floor | floor rate | tool / floor |
+|---:|---:|---:|---:|---:|---:|
+${pdfRows.join('\n')}
 `);

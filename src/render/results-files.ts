@@ -5,7 +5,7 @@ import { calculateProduct } from '../calc/product.ts';
 import type { ProductRows } from '../model/by-product.ts';
 import type { Project } from '../model/types.ts';
 import { resultsCsv } from '../report/results-csv.ts';
-import { resultsJson, type ResultsSummary } from '../report/results.ts';
+import { resultsJsonText, resultsSummary, type ResultsSummary } from '../report/results.ts';
 import { auditView, type AuditView } from '../report/audit-view.ts';
 import { declarationResultsView, type DeclarationResultsView } from '../report/declaration-view.ts';
 import { renderChartSvg } from './charts.ts';
@@ -37,15 +37,14 @@ export class ResultsWriter {
   async product(rows: ProductRows): Promise<ProductReport> {
     const ctx = this.ctx;
     const product = calculateProduct(ctx, rows);
-    const results = resultsJson(ctx, product);
-    const dir = path.join(this.outDir, results.product_id);
+    const summary = resultsSummary(ctx, product);
+    const dir = path.join(this.outDir, summary.product_id);
     await mkdir(dir, { recursive: true });
     // Compact: a product's figure graph runs to thousands of figures (see docs/performance.md).
-    await writeFile(path.join(dir, 'results.json'), `${JSON.stringify(results)}\n`);
-    await writeFile(path.join(dir, 'results.csv'), resultsCsv([results]));
-    const { figures: _figures, ...summary } = results;
+    await writeFile(path.join(dir, 'results.json'), `${resultsJsonText(ctx, product, summary)}\n`);
+    await writeFile(path.join(dir, 'results.csv'), resultsCsv([summary]));
     this.summaries.push(summary);
-    const view = declarationResultsView(ctx, rows, product, results);
+    const view = declarationResultsView(ctx, rows, product, summary);
     for (const chart of view.charts) chart.svg = await renderChartSvg(chart);
     return { summary, results: view, audit: auditView(ctx.project, product) };
   }

@@ -1,6 +1,5 @@
 import type { Project } from '../model/types.ts';
 import type { ProductResult } from '../calc/product.ts';
-import { findIndicator } from '../reference/indicators.ts';
 import type { FigureGraph, FigureNode, Term } from '../trace/graph.ts';
 import { fragment, inputAnchor } from './figure-links.ts';
 import { formatInput } from './format.ts';
@@ -34,7 +33,7 @@ export interface AuditNode {
   unit?: string;
   terms: AuditTerm[];
   /** Vector figures: one row per indicator, anchored `<node id>/<code>`. */
-  rows?: Array<{ anchor: string; code: string; unit: string; value: string; cells: Array<{ text: string; href?: string }> }>;
+  rows?: Array<{ anchor: string; code: string; value: string; cells: Array<{ text: string; href?: string }> }>;
   /** Column heads of the per-indicator term values (symbols), when shown. */
   termColumns?: string[];
   usedBy: AuditLink[];
@@ -136,12 +135,12 @@ function nodeView(graph: FigureGraph, node: FigureNode, usedBy: AuditLink[]): Au
   const rows = graph.indicators.map((code, i) => ({
     anchor: `${node.id}/${code}`,
     code,
-    unit: findIndicator(code)?.unit ?? '',
     value: show(node.values[i]!),
     cells: columns.map((term) => {
       if (term.kind === 'factor') {
+        // The factor row is linked once, in the terms list; here its cell as written.
         const written = term.factor.raw[code] ?? '';
-        return { text: written === '' ? 'n/a' : written, href: local(inputAnchor(term.factor.file, term.factor.line)) };
+        return { text: written === '' ? 'n/a' : written };
       }
       const target = graph.vector((term as Extract<Term, { kind: 'figure' }>).id);
       return { text: show(target.values[i]!), href: local(`${target.id}/${code}`) };

@@ -6,7 +6,7 @@ import { LIFE_CYCLE_MODULES } from '../reference/modules.ts';
 import { barChart, type ChartDatum, type ChartView } from './charts.ts';
 import { figureHref } from './figure-links.ts';
 import { formatScientific, formatShare } from './format.ts';
-import type { ResultsJson } from './results.ts';
+import type { ResultsSummary } from './results.ts';
 
 /**
  * What a declaration page shows of the results, formatted, every number with the link to
@@ -69,7 +69,7 @@ export const METHOD_SENTENCES: Record<string, { name: string; rewards: string; s
   },
 };
 
-export function declarationResultsView(ctx: CalcContext, rows: ProductRows, result: ProductResult, json: ResultsJson): DeclarationResultsView {
+export function declarationResultsView(ctx: CalcContext, rows: ProductRows, result: ProductResult, json: ResultsSummary): DeclarationResultsView {
   const report = ctx.project.declaration.report;
   const digits = report.significant_figures;
   const sci = (value: number | null | undefined): string => (value === null || value === undefined ? 'n/a' : formatScientific(value, digits));
@@ -138,7 +138,7 @@ export function declarationResultsView(ctx: CalcContext, rows: ProductRows, resu
   return { significantFigures: digits, boundary, modules, tables, recycledContent, biogenic, comparison: { ...comparison, rows: [...comparison.rows, ...(moduleDRow.length ? [{ method: 'cutoff-d', name: 'Module D (beside cut-off)', rewards: 'Net benefit and load of recycling and recovery beyond the system boundary; not added to any total.', scope: 'module D', cells: moduleDRow }] : [])] }, charts, headline };
 }
 
-function chartsOf(ctx: CalcContext, rows: ProductRows, result: ProductResult, json: ResultsJson, code: string, sci: (v: number | null | undefined) => string): ChartView[] {
+function chartsOf(ctx: CalcContext, rows: ProductRows, result: ProductResult, json: ResultsSummary, code: string, sci: (v: number | null | undefined) => string): ChartView[] {
   const unit = findIndicator(code)!.unit;
   const { graph } = result;
   const index = ctx.indicators.indexOf(code);

@@ -63,6 +63,16 @@ function vectorValues(ctx: CalcContext, graph: FigureGraph, id: string, flowIds?
 const scalarValue = (graph: FigureGraph, id: string) => toNullable(graph.scalar(id).value);
 
 export function resultsJson(ctx: CalcContext, result: ProductResult): ResultsJson {
+  return { ...resultsSummary(ctx, result), figures: figuresJson(result.graph) };
+}
+
+/** results.json as text, exactly `JSON.stringify(resultsJson(…))`, written straight from the graph (no figure objects built). */
+export function resultsJsonText(ctx: CalcContext, result: ProductResult, summary = resultsSummary(ctx, result)): string {
+  return `${JSON.stringify(summary).slice(0, -1)},"figures":${figuresJsonText(result.graph)}}`;
+}
+
+/** A product's results without its figure graph. */
+export function resultsSummary(ctx: CalcContext, result: ProductResult): ResultsSummary {
   const { graph } = result;
   const modules: Record<string, IndicatorValues> = {};
   for (const [module, id] of Object.entries(result.cutoff.modules)) modules[module] = vectorValues(ctx, graph, id, result.flows.moduleFlows[module]);
@@ -84,7 +94,6 @@ export function resultsJson(ctx: CalcContext, result: ProductResult): ResultsJso
       biogenic_carbon_kg: { product: scalarValue(graph, f.biogenicCarbon.product), packaging: scalarValue(graph, f.biogenicCarbon.packaging) },
       biogenic_co2_kg: { product: scalarValue(graph, f.biogenicCarbon.productCo2), packaging: scalarValue(graph, f.biogenicCarbon.packagingCo2) },
     },
-    figures: figuresJson(graph),
   };
 }
 
@@ -125,4 +134,36 @@ export function termJson(graph: FigureGraph, term: Term, code: string | undefine
       return { file: term.factor.file, line: term.factor.line, column, value: term.factor.raw[column] ?? '' };
     }
   }
+}
+
+const numberText = (value: number): string => (Number.isFinite(value) ? JSON.stringify(value) : 'null');
+
+/**
+ * The `figures` object as text, the same bytes as `JSON.stringify(figuresJson(graph))`: the
+ * parts of a vector node that do not vary by indicator (formula, description, symbols,
+ * terms that are scalar figures or cells) are serialised once per node, not once per
+ * indicator. A product's figures run to megabytes (docs/performance.md).
+ */
+export function figuresJsonText(graph: FigureGraph): string {
+  const parts: string[] = [];
+  const units = graph.indicators.map((code) => JSON.stringify(findIndicator(code)!.unit));
+  for (const node of graph.nodes.values()) {
+    const tail = `,"formula":${JSON.stringify(node.formula)},"description":${JSON.stringify(node.description)}`;
+    const symbols = `,"symbols":${JSON.stringify(node.terms.map((t) => t.symbol))}}`;
+    if (node.kind === 'scalar') {
+      parts.push(`${JSON.stringify(node.id)}:{"value":${numberText(node.value)},"unit":${JSON.stringify(node.unit)}${tail},"terms":${JSON.stringify(node.terms.map((t) => termJson(graph, t, undefined)))}${symbols}`);
+      continue;
+    }
+    // Per term: its text for each indicator, or one text for all.
+    const terms = node.terms.map((term): string | ((code: string) => string) => {
+      if (term.kind === 'figure') return graph.get(term.id)?.kind === 'vector' ? (code: string) => JSON.stringify(`${term.id}/${code}`) : JSON.stringify(term.id);
+      if (term.kind === 'cell') return JSON.stringify(term.cell);
+      return (code: string) => JSON.stringify(termJson(graph, term, code));
+    });
+    graph.indicators.forEach((code, i) => {
+      const termText = terms.map((t) => (typeof t === 'string' ? t : t(code))).join(',');
+      parts.push(`${JSON.stringify(`${node.id}/${code}`)}:{"value":${numberText(node.values[i]!)},"unit":${units[i]}${tail},"terms":[${termText}]${symbols}`);
+    });
+  }
+  return `{${parts.join(',')}}`;
 }
