@@ -43,6 +43,7 @@ export async function runBuild(options: BuildOptions, io: Io): Promise<number> {
       pdf: path.join(staging, product.id, 'declaration.pdf'),
       title: `${product.name} (${product.id})`,
       status: verification.status === 'verified' ? `verified ${verification.date ?? ''}` : 'DRAFT — not verified',
+      ...(project.declaration.illustrative ? { footnote: 'Illustrative data: invented values, not a real dataset' } : {}),
     }));
     if (browser) {
       io.err(`PDF: using ${browser.executablePath} (found via ${browser.how})`);

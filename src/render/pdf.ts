@@ -10,6 +10,8 @@ export interface PdfJob {
   /** For the page header. */
   title: string;
   status: string;
+  /** For the page footer of every page, e.g. that the data are illustrative. */
+  footnote?: string;
 }
 
 const PAGE_POOL = 2;
@@ -76,7 +78,7 @@ async function printOne(page: Page, job: PdfJob, browser: Browser, root: string)
       printBackground: true,
       displayHeaderFooter: true,
       headerTemplate: `<div style="font-size:7pt;width:100%;padding:0 12mm;color:#4a5663;display:flex;justify-content:space-between"><span>${escapeHtml(job.title)}</span><span>${escapeHtml(job.status)}</span></div>`,
-      footerTemplate: '<div style="font-size:7pt;width:100%;padding:0 12mm;color:#4a5663;text-align:right">page <span class="pageNumber"></span> of <span class="totalPages"></span></div>',
+      footerTemplate: `<div style="font-size:7pt;width:100%;padding:0 12mm;color:#4a5663;display:flex;justify-content:space-between"><span>${escapeHtml(job.footnote ?? '')}</span><span>page <span class="pageNumber"></span> of <span class="totalPages"></span></span></div>`,
       margin: { top: '16mm', bottom: '16mm', left: '12mm', right: '12mm' },
       timeout: TIMEOUT_MS,
     });
