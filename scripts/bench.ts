@@ -16,6 +16,7 @@ const runTs = path.resolve('bin/run-ts.js');
 
 interface Measurement {
   calcMs: number;
+  calcPeakRssMb: number;
   jsonMsPerProduct: number;
   nodesPerProduct: number;
   figuresPerProduct: number;
@@ -52,7 +53,7 @@ function measure(args: string[]): Ranged {
   const key: 'loadMs' | 'calcMs' = args.includes('--calc') ? 'calcMs' : 'loadMs';
   const best = runs.reduce((a, b) => (b[key] < a[key] ? b : a));
   const span = (k: 'loadMs' | 'calcMs'): [number, number] => [Math.min(...runs.map((r) => r[k])), Math.max(...runs.map((r) => r[k]))];
-  return { ...best, peakRssMb: Math.max(...runs.map((r) => r.peakRssMb)), range: { loadMs: span('loadMs'), calcMs: span('calcMs') } };
+  return { ...best, peakRssMb: Math.max(...runs.map((r) => r.peakRssMb)), calcPeakRssMb: Math.max(...runs.map((r) => r.calcPeakRssMb)), range: { loadMs: span('loadMs'), calcMs: span('calcMs') } };
 }
 const seconds = (ms: number) => `${(ms / 1000).toFixed(2)} s`;
 const range = ([a, b]: [number, number]) => `${(a / 1000).toFixed(1)}–${(b / 1000).toFixed(1)} s`;
@@ -71,7 +72,7 @@ try {
     const check = measure([dir]);
     const calc = measure([dir, '--calc']);
     calcRows.push(
-      `| ${products.toLocaleString('en')} | ${seconds(calc.calcMs)} (${range(calc.range.calcMs)}) | ${calc.peakRssMb.toFixed(0)} MB | ${calc.nodesPerProduct.toFixed(0)} | ${calc.figuresPerProduct.toFixed(0)} | ${(calc.jsonBytesPerProduct / 1e6).toFixed(2)} MB | ${calc.jsonMsPerProduct.toFixed(1)} ms |`,
+      `| ${products.toLocaleString('en')} | ${seconds(calc.calcMs)} (${range(calc.range.calcMs)}) | ${calc.calcPeakRssMb.toFixed(0)} MB | ${calc.peakRssMb.toFixed(0)} MB | ${calc.nodesPerProduct.toFixed(0)} | ${calc.figuresPerProduct.toFixed(0)} | ${(calc.jsonBytesPerProduct / 1e6).toFixed(2)} MB | ${calc.jsonMsPerProduct.toFixed(1)} ms |`,
     );
     if (renderSizes.has(products)) {
       const withPdfs = !pdfMeasured && pdfCount > 0;
@@ -101,10 +102,10 @@ loopsheet bench — ${os.cpus().length} cores, Node ${process.version}, 40 BOM l
 |---:|---:|---:|---:|---:|---:|
 ${rows.join('\n')}
 
-Calculation (all methods, every indicator, full figure graph per product; peak RSS includes load):
+Calculation (all methods, every indicator, full figure graph per product; peak RSS includes load; the highest of the runs):
 
-| products | calc | peak RSS | graph nodes / product | figures / product | results.json / product | results.json serialise / product |
-|---:|---:|---:|---:|---:|---:|---:|
+| products | calc | peak RSS after calc | peak RSS after writing 100 results.json | graph nodes / product | figures / product | results.json / product | results.json text / product |
+|---:|---:|---:|---:|---:|---:|---:|---:|
 ${calcRows.join('\n')}
 
 Build without PDFs (calculation, results.json/csv, declaration and audit pages, catalogue; Eleventy in shards):
