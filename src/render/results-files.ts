@@ -18,14 +18,12 @@ export interface ProductReport {
 }
 
 /**
- * Writes `<product_id>/results.json` (with its figure graph) and `results.csv` per product,
- * then `results.json` and `results.csv` for the whole catalogue. Products are computed one
- * at a time and their graphs dropped once written and viewed, so memory does not grow with
- * the catalogue; the catalogue-wide JSON carries the results without the figure graphs.
+ * Writes `<product_id>/results.json` (with its figure graph) and `results.csv` per product.
+ * Products are computed one at a time and their graphs dropped once written and viewed, so
+ * memory does not grow with the catalogue.
  */
 export class ResultsWriter {
   private readonly ctx: CalcContext;
-  private readonly summaries: ResultsSummary[] = [];
 
   constructor(
     project: Project,
@@ -43,15 +41,15 @@ export class ResultsWriter {
     // Compact: a product's figure graph runs to thousands of figures (see docs/performance.md).
     await writeFile(path.join(dir, 'results.json'), `${resultsJsonText(ctx, product, summary)}\n`);
     await writeFile(path.join(dir, 'results.csv'), resultsCsv([summary]));
-    this.summaries.push(summary);
     const view = declarationResultsView(ctx, rows, product, summary);
     for (const chart of view.charts) chart.svg = await renderChartSvg(chart);
     return { summary, results: view, audit: auditView(ctx.project, product) };
   }
 
-  async finish(): Promise<ResultsSummary[]> {
-    await writeFile(path.join(this.outDir, 'results.json'), `${JSON.stringify({ products: this.summaries }, null, 1)}\n`);
-    await writeFile(path.join(this.outDir, 'results.csv'), resultsCsv(this.summaries));
-    return this.summaries;
-  }
+}
+
+/** The catalogue-wide `results.json` (every product's results, without figure graphs) and `results.csv`. */
+export async function writeCatalogueResults(outDir: string, summaries: readonly ResultsSummary[]): Promise<void> {
+  await writeFile(path.join(outDir, 'results.json'), `${JSON.stringify({ products: summaries }, null, 1)}\n`);
+  await writeFile(path.join(outDir, 'results.csv'), resultsCsv(summaries));
 }
