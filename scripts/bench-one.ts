@@ -50,6 +50,7 @@ if (flag === '--calc') {
 }
 let renderMs = 0;
 let peakBeforePdf = 0;
+let workerPeakRssMb = 0;
 let outBytes = 0;
 let auditBytesPerProduct = 0;
 let pdf = { count: 0, toolMs: 0, floorMs: 0 };
@@ -58,7 +59,7 @@ if (flag === '--build') {
   const { withStagedOutput } = await import('../src/render/output.ts');
   const renderStart = performance.now();
   // Calculation, results.json/csv, declaration and audit pages, catalogue: the build without PDFs.
-  await withStagedOutput(out!, async (staging) => buildSite(project, problems, staging, { inputs: [], pdfs: false }));
+  await withStagedOutput(out!, async (staging) => buildSite(project, problems, staging, { inputs: [], pdfs: false, onWorkerEnd: (mb) => (workerPeakRssMb = Math.max(workerPeakRssMb, mb)) }));
   renderMs = performance.now() - renderStart;
   peakBeforePdf = process.resourceUsage().maxRSS / 1024;
   const sizes = await outputSizes(out!);
@@ -121,6 +122,7 @@ process.stdout.write(
     jsonBytesPerProduct: jsonBytes / Math.min(100, project.products.rows.length),
     renderMs,
     buildPeakRssMb: peakBeforePdf,
+    workerPeakRssMb,
     outBytes,
     auditBytesPerProduct,
     pdf,

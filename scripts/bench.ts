@@ -8,6 +8,9 @@ import { mkdtemp, rm } from 'node:fs/promises';
 import os from 'node:os';
 import path from 'node:path';
 import { writeSyntheticProject } from './synthetic.ts';
+import { defaultWorkers } from '../src/render/build-site.ts';
+
+const workers = defaultWorkers();
 
 const sizes = (process.env.BENCH_SIZES ?? '100,1000,10000').split(',').map(Number);
 const renderSizes = new Set((process.env.BENCH_RENDER_SIZES ?? '100,1000').split(',').map(Number));
@@ -25,6 +28,7 @@ interface Measurement {
   floorMs: number;
   renderMs: number;
   buildPeakRssMb: number;
+  workerPeakRssMb: number;
   outBytes: number;
   auditBytesPerProduct: number;
   pdf: { count: number; toolMs: number; floorMs: number };
@@ -78,7 +82,7 @@ try {
       const withPdfs = !pdfMeasured && pdfCount > 0;
       const built = once([dir, '--build', path.join(root, `out${products}`)], withPdfs ? { BENCH_PDFS: String(pdfCount) } : {});
       buildRows.push(
-        `| ${products.toLocaleString('en')} | ${seconds(built.renderMs)} | ${(built.renderMs / products).toFixed(0)} ms | ${built.buildPeakRssMb.toFixed(0)} MB | ${(built.outBytes / 1e6).toFixed(0)} MB | ${(built.auditBytesPerProduct / 1e6).toFixed(2)} MB |`,
+        `| ${products.toLocaleString('en')} | ${seconds(built.renderMs)} | ${(built.renderMs / products).toFixed(0)} ms | ${built.buildPeakRssMb.toFixed(0)} MB | ${built.workerPeakRssMb > 0 ? `${built.workerPeakRssMb.toFixed(0)} MB` : '—'} | ${(built.outBytes / 1e6).toFixed(0)} MB | ${(built.auditBytesPerProduct / 1e6).toFixed(2)} MB |`,
       );
       if (withPdfs && built.pdf.count > 0) {
         pdfMeasured = true;
@@ -108,10 +112,10 @@ Calculation (all methods, every indicator, full figure graph per product; peak R
 |---:|---:|---:|---:|---:|---:|---:|---:|
 ${calcRows.join('\n')}
 
-Build without PDFs (calculation, results.json/csv, declaration and audit pages, catalogue; Eleventy in shards):
+Build without PDFs (calculation, results.json/csv, declaration and audit pages, catalogue; Eleventy in shards of 25 products, built by ${workers} worker processes):
 
-| products | HTML + JSON | per product | peak RSS | out/ size | audit page / product |
-|---:|---:|---:|---:|---:|---:|
+| products | HTML + JSON | per product | peak RSS (main) | peak RSS (each worker) | out/ size | audit page / product |
+|---:|---:|---:|---:|---:|---:|---:|
 ${buildRows.join('\n')}
 
 PDF throughput (declarations of the smallest rendered catalogue; tool: one browser, page pool of 2, network blocked, links unwrapped; floor: the same HTML printed by a bare sequential puppeteer loop):

@@ -31,6 +31,8 @@ export interface SiteBuildOptions {
   workers?: number;
   /** Called after each shard, with the products done so far (progress). */
   onShard?: (done: number, total: number) => void;
+  /** Called as each worker process ends, with its peak resident memory (benchmark). */
+  onWorkerEnd?: (peakRssMb: number) => void;
 }
 
 /** What a shard leaves for the catalogue: per product, its catalogue row and results summary. */
@@ -66,7 +68,7 @@ export async function buildSite(project: Project, problems: readonly Problem[], 
     }
   } else {
     const results = await Promise.all(
-      Array.from({ length: workers }, (_, worker) => runWorker(project.dir, outDir, { shardSize: size, worker, workers, pdfs: options.pdfs }, progress)),
+      Array.from({ length: workers }, (_, worker) => runWorker(project.dir, outDir, { shardSize: size, worker, workers, pdfs: options.pdfs }, progress, options.onWorkerEnd)),
     );
     outcomes.push(...results.flat());
   }
@@ -94,10 +96,10 @@ export interface WorkerTask {
   pdfs: boolean;
 }
 
-export type WorkerMessage = { kind: 'shard'; products: number } | { kind: 'done'; outcomes: ShardOutcome[] } | { kind: 'failed'; message: string };
+export type WorkerMessage = { kind: 'shard'; products: number } | { kind: 'done'; outcomes: ShardOutcome[]; peakRssMb: number } | { kind: 'failed'; message: string };
 
 /** A shard worker: a process of its own that loads the project and builds every `workers`-th shard. */
-function runWorker(dataDir: string, outDir: string, task: WorkerTask, progress: (count: number) => void): Promise<ShardOutcome[]> {
+function runWorker(dataDir: string, outDir: string, task: WorkerTask, progress: (count: number) => void, onEnd?: (peakRssMb: number) => void): Promise<ShardOutcome[]> {
   return new Promise((resolve, reject) => {
     const child = fork(path.join(PACKAGE_ROOT, 'bin', 'run-ts.js'), [path.join(PACKAGE_ROOT, 'src', 'render', 'shard-worker.ts'), dataDir, outDir, JSON.stringify(task)], {
       execArgv: ['--max-semi-space-size=64'],
@@ -107,7 +109,10 @@ function runWorker(dataDir: string, outDir: string, task: WorkerTask, progress: 
     let failure: string | undefined;
     child.on('message', (message: WorkerMessage) => {
       if (message.kind === 'shard') progress(message.products);
-      else if (message.kind === 'done') outcomes = message.outcomes;
+      else if (message.kind === 'done') {
+        outcomes = message.outcomes;
+        onEnd?.(message.peakRssMb);
+      }
       else failure = message.message;
     });
     child.on('error', reject);

@@ -20,7 +20,7 @@ try {
     outcomes.push(...(await buildShard(project, problems, outDir!, shard, task.pdfs)));
     await send({ kind: 'shard', products: shard.length });
   }
-  await send({ kind: 'done', outcomes });
+  await send({ kind: 'done', outcomes, peakRssMb: process.resourceUsage().maxRSS / 1024 });
   process.exit(0);
 } catch (error) {
   await send({ kind: 'failed', message: (error as Error).message });
