@@ -70,7 +70,13 @@ describe('PDF in a real Chromium', async () => {
     expect(text).toContain('Copper busbar 10 × 100 mm');
     // The printed results table is results.json rounded to three significant figures.
     const results = JSON.parse(readFileSync(path.join(out, 'KV-CU-BB10', 'results.json'), 'utf8'));
-    for (const module of ['A1', 'A1-A3', 'C4', 'D']) expect(text).toContain(results.methods.cutoff.modules[module]['GWP-total'].toExponential(2));
+    const modules = results.methods.cutoff.modules as Record<string, Record<string, number | null>>;
+    for (const [module, values] of Object.entries(modules)) {
+      for (const [code, value] of Object.entries(values)) expect(text, `${module} ${code}`).toContain(value === null ? 'n/a' : value.toExponential(2));
+    }
+    // Row by row: the GWP-total line of the printed table carries the modules in order, A1 … D.
+    const gwpLine = text.split('\n').find((line) => /^\s*GWP-total\s+kg CO2 eq\./.test(line))!;
+    expect(gwpLine.trim().split(/\s+/).slice(4)).toEqual(Object.values(modules).map((values) => values['GWP-total']!.toExponential(2)));
     expect(text).toMatch(/page 1 of \d/);
     // The draft status is in the running head of every page (pdftotext separates pages with form feeds).
     const pages = text.split('\f').filter((page) => page.trim() !== '');
@@ -98,5 +104,22 @@ describe('declaration.json report settings', () => {
     expect(page).toContain(`>${results.methods.cutoff.modules.A1['GWP-total'].toExponential(3)}<`);
     expect(page).toContain('AP (mol H+ eq.)');
     for (const method of ['cff', 'eol-recycling', 'fifty-fifty']) expect(page).toContain(`>${results.methods[method].total.AP.toExponential(3)}<`);
+  });
+});
+
+describe('a verified declaration', () => {
+  it('drops the draft banner and names the verifier and the date', async () => {
+    const data = await demoCopy();
+    dirs.push(path.dirname(data));
+    await editFile(path.join(data, 'declaration.json'), (t) => t.replace('"verification": { "status": "draft" }', '"verification": { "status": "verified", "verifier": "A. Verifier (fictional)", "date": "2026-04-01" }'));
+    const out = path.join(path.dirname(data), 'out');
+    const result = await runCli(['build', '--data', data, '--out', out, '--no-pdf']);
+    expect(result.code, result.stderr).toBe(0);
+    for (const page of ['index.html', 'KV-EXT-6060/index.html', 'KV-EXT-6060/audit.html', 'verification/index.html']) {
+      const html = await readFile(path.join(out, page), 'utf8');
+      expect(html, page).not.toContain('Draft — not verified');
+      expect(html, page).toContain('Illustrative data.');
+    }
+    expect(await readFile(path.join(out, 'KV-EXT-6060', 'index.html'), 'utf8')).toContain('verified by A. Verifier (fictional) on 2026-04-01');
   });
 });
