@@ -5,9 +5,9 @@ import { rowsByProduct, type ProductRows } from '../model/by-product.ts';
 import type { Project } from '../model/types.ts';
 import type { Problem } from '../problems.ts';
 import type { ResultsSummary } from '../report/results.ts';
-import { buildSiteView, catalogueEntry, type CatalogueEntry, type SiteView } from '../report/site-view.ts';
+import { buildSiteView, catalogueEntry, type CatalogueEntry, type ProductReport, type SiteView } from '../report/site-view.ts';
 import { PACKAGE_ROOT } from './paths.ts';
-import { ResultsWriter, writeCatalogueResults, type ProductReport } from './results-files.ts';
+import { ResultsWriter, writeCatalogueResults } from './results-files.ts';
 import { renderSite } from './site.ts';
 
 /**

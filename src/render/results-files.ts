@@ -6,16 +6,11 @@ import type { ProductRows } from '../model/by-product.ts';
 import type { Project } from '../model/types.ts';
 import { resultsCsv } from '../report/results-csv.ts';
 import { resultsJsonText, resultsSummary, type ResultsSummary } from '../report/results.ts';
-import { auditView, type AuditView } from '../report/audit-view.ts';
-import { declarationResultsView, type DeclarationResultsView } from '../report/declaration-view.ts';
+import { auditView } from '../report/audit-view.ts';
+import { declarationResultsView } from '../report/declaration-view.ts';
+import type { ProductReport } from '../report/site-view.ts';
 import { renderChartSvg } from './charts.ts';
 
-/** What the site shows of one product's results, taken while its figure graph is alive. */
-export interface ProductReport {
-  summary: ResultsSummary;
-  results: DeclarationResultsView;
-  audit: AuditView;
-}
 
 /**
  * Writes `<product_id>/results.json` (with its figure graph) and `results.csv` per product.

@@ -5,10 +5,17 @@ import { formatProblem, type Problem } from '../problems.ts';
 import { findGas, GWP_SOURCES } from '../reference/ghg.ts';
 import { findIndicator } from '../reference/indicators.ts';
 import { TOOL_NAME, TOOL_VERSION } from '../reference/tool.ts';
-import { formatInput, formatScientific, formatShare } from './format.ts';
-import type { ProductReport } from '../render/results-files.ts';
+import { formatInput, formatShare } from './format.ts';
 import type { AuditView } from './audit-view.ts';
 import type { DeclarationResultsView } from './declaration-view.ts';
+import type { ResultsSummary } from './results.ts';
+
+/** What the site shows of one product's results, taken while its figure graph is alive. */
+export interface ProductReport {
+  summary: ResultsSummary;
+  results: DeclarationResultsView;
+  audit: AuditView;
+}
 
 /**
  * View models for the site: everything a template prints, already formatted, so the
