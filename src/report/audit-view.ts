@@ -46,6 +46,7 @@ export interface AuditGroup {
 
 export interface AuditInputRow {
   anchor: string;
+  line: number;
   label: string;
   written: string;
   usedBy: AuditLink[];
@@ -110,6 +111,7 @@ export function auditView(project: Project, result: ProductResult): AuditView {
     if (!byFile.has(entry.file)) byFile.set(entry.file, []);
     byFile.get(entry.file)!.push({
       anchor,
+      line: entry.line,
       label: `${entry.file}:${entry.line}`,
       written: texts.get(entry.file)?.[entry.line - 1] ?? '',
       usedBy: entry.users.map((id) => ({ text: id, href: local(id) })),

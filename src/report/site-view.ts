@@ -9,6 +9,7 @@ import { formatInput, formatShare } from './format.ts';
 import type { AuditView } from './audit-view.ts';
 import type { DeclarationResultsView } from './declaration-view.ts';
 import type { ResultsSummary } from './results.ts';
+import { AUDIT_PAGE, fragment, inputAnchor } from './figure-links.ts';
 
 /** What the site shows of one product's results, taken while its figure graph is alive. */
 export interface ProductReport {
@@ -36,6 +37,8 @@ export interface Cell {
   numeric?: boolean;
   /** A link, relative to the page the cell is on. */
   href?: string;
+  /** Links after the text (e.g. the products that read a factor row). */
+  links?: Array<{ text: string; href: string }>;
 }
 
 export interface TableView {
@@ -139,6 +142,8 @@ export interface CatalogueEntry {
   declaredUnit: string;
   url: string;
   headline?: DeclarationResultsView['headline'];
+  /** The factors.csv lines this product's figures read (the catalogue-wide reverse index). */
+  factorLines: number[];
 }
 
 export interface SiteViewOptions {
@@ -157,7 +162,12 @@ export const catalogueEntry = (product: ProductView): CatalogueEntry => ({
   declaredUnit: product.declaredUnit,
   url: product.url,
   ...(product.results ? { headline: product.results.headline } : {}),
+  factorLines: product.audit?.inputs.find((input) => input.file === FACTORS_FILE)?.rows.map((row) => row.line) ?? [],
 });
+
+const FACTORS_FILE = 'factors.csv';
+/** Products linked by name beside a factor row; the rest are counted. */
+const LINKED_PRODUCTS = 8;
 
 /**
  * The view of one render. A build renders its products in shards (each with its own
@@ -197,7 +207,7 @@ export function buildSiteView(project: Project, problems: readonly Problem[], op
     catalogue: catalogue ?? [],
     cataloguePages: catalogue ? [1] : [],
     verification: { inputs: [...(options.inputs ?? [])], datasets: catalogue ? datasetCounts(project) : [] },
-    factors: catalogue ? factorTable(project, project.factors.rows) : { title: '', caption: '', headers: [], rows: [], empty: '' },
+    factors: catalogue ? factorTable(project, project.factors.rows, catalogue) : { title: '', caption: '', headers: [], rows: [], empty: '' },
     warnings: problems.filter((p) => p.severity === 'warning').map(formatProblem),
     indicators: project.indicators.map((code) => {
       const indicator = findIndicator(code)!;
@@ -210,12 +220,27 @@ export function buildSiteView(project: Project, problems: readonly Problem[], op
 /** A fragment id for a factor row (ids may hold characters that are awkward in URLs). */
 export const factorAnchor = (factorId: string) => `f-${encodeURIComponent(factorId).replace(/%/g, '_')}`;
 
-function factorTable(project: Project, rows: Project['factors']['rows']): TableView {
+function factorTable(project: Project, rows: Project['factors']['rows'], catalogue: readonly CatalogueEntry[]): TableView {
   const codes = project.indicators.filter((code) => project.factorIndicators.includes(code));
+  const readers = new Map<number, CatalogueEntry[]>();
+  for (const entry of catalogue) {
+    for (const line of entry.factorLines) {
+      if (!readers.has(line)) readers.set(line, []);
+      readers.get(line)!.push(entry);
+    }
+  }
+  const readBy = (line: number): Cell => {
+    const products = readers.get(line) ?? [];
+    const rest = products.length - LINKED_PRODUCTS;
+    return {
+      text: products.length === 0 ? 'none' : `${products.length} product${products.length === 1 ? '' : 's'}${rest > 0 ? `, ${rest} not listed` : ''}:`,
+      links: products.slice(0, LINKED_PRODUCTS).map((product) => ({ text: product.id, href: `../${product.id}/${AUDIT_PAGE}#${fragment(inputAnchor(FACTORS_FILE, line))}` })),
+    };
+  };
   return {
     title: 'Factor table',
-    caption: 'Every row of factors.csv, values per row unit. An empty cell is “not available”, never zero.',
-    headers: [{ text: 'Factor' }, { text: 'Name' }, { text: 'Per' }, { text: 'Dataset' }, ...codes.map((code) => ({ text: code, numeric: true }))],
+    caption: 'Every row of factors.csv, values per row unit. An empty cell is “not available”, never zero. “Read by”: the products whose figures read the row, each linked to the row in its audit trail.',
+    headers: [{ text: 'Factor' }, { text: 'Name' }, { text: 'Per' }, { text: 'Dataset' }, { text: 'Read by' }, ...codes.map((code) => ({ text: code, numeric: true }))],
     rows: rows.map((row) => ({
       anchor: factorAnchor(row.value.factor_id),
       source: sourceOf(project.factors, row),
@@ -224,6 +249,7 @@ function factorTable(project: Project, rows: Project['factors']['rows']): TableV
         txt(row.value.name),
         txt(row.value.unit),
         txt(row.value.dataset),
+        readBy(row.line),
         ...codes.map((code) => {
           const value = indicatorValue(row.value, code);
           return value === null ? txt('n/a') : num(value);

@@ -144,7 +144,24 @@ describe.skipIf(!found)('the site in a real Chromium', () => {
     expect(errors).toEqual([]);
   });
 
-  it.each(['index.html', 'KV-CU-BB10/index.html', 'KV-CU-BB10/audit.html', 'verification/index.html'])('axe-core finds no serious or critical violation on %s', async (file) => {
+  it('the factor table names, per row, the products that read it, each link landing on the row in that audit trail', async () => {
+    const { page } = await open('factors/index.html');
+    const links = await page.$$eval('a[href*="audit.html#input:factors.csv:"]', (anchors) => anchors.map((a) => a.getAttribute('href')!));
+    const rows = await page.$$eval('#main tbody tr', (trs) => trs.length);
+    await page.close();
+    // The demo's factor rows are read by at least one product each, bar the unused ones (count from the file).
+    expect(links.length).toBeGreaterThan(rows / 2);
+    for (const href of links) {
+      const [file, hash] = href.split('#');
+      const audit = await open(path.posix.join('factors', file!));
+      const line = Number(/:(\d+)$/.exec(hash!)![1]);
+      const written = await audit.page.evaluate((anchor) => document.getElementById(anchor)?.querySelector('pre')?.textContent, decodeURIComponent(hash!));
+      await audit.page.close();
+      expect(written, href).toBe((await readFile(path.join(DEMO, 'factors.csv'), 'utf8')).split(/\r?\n/)[line - 1]);
+    }
+  });
+
+  it.each(['index.html', 'KV-CU-BB10/index.html', 'KV-CU-BB10/audit.html', 'factors/index.html', 'verification/index.html'])('axe-core finds no serious or critical violation on %s', async (file) => {
     const { page } = await open(file);
     await page.addScriptTag({ content: axeSource });
     const violations = await page.evaluate(async () => {
