@@ -146,7 +146,11 @@ const numberText = (value: number): string => (Number.isFinite(value) ? JSON.str
  */
 export function figuresJsonText(graph: FigureGraph): string {
   const parts: string[] = [];
-  const units = graph.indicators.map((code) => JSON.stringify(findIndicator(code)!.unit));
+  const codes = graph.indicators;
+  const units = codes.map((code) => JSON.stringify(findIndicator(code)!.unit));
+  // JSON escapes character by character, so an escaped id followed by an escaped "/code" is the escaped "id/code".
+  const slashCode = codes.map((code) => JSON.stringify(`/${code}`).slice(1));
+  const codeText = codes.map((code) => JSON.stringify(code));
   for (const node of graph.nodes.values()) {
     const tail = `,"formula":${JSON.stringify(node.formula)},"description":${JSON.stringify(node.description)}`;
     const symbols = `,"symbols":${JSON.stringify(node.terms.map((t) => t.symbol))}}`;
@@ -154,16 +158,28 @@ export function figuresJsonText(graph: FigureGraph): string {
       parts.push(`${JSON.stringify(node.id)}:{"value":${numberText(node.value)},"unit":${JSON.stringify(node.unit)}${tail},"terms":${JSON.stringify(node.terms.map((t) => termJson(graph, t, undefined)))}${symbols}`);
       continue;
     }
-    // Per term: its text for each indicator, or one text for all.
-    const terms = node.terms.map((term): string | ((code: string) => string) => {
-      if (term.kind === 'figure') return graph.get(term.id)?.kind === 'vector' ? (code: string) => JSON.stringify(`${term.id}/${code}`) : JSON.stringify(term.id);
+    // Per term: one text for all indicators, or the text for indicator i.
+    const terms = node.terms.map((term): string | ((i: number) => string) => {
+      if (term.kind === 'figure') {
+        if (graph.get(term.id)?.kind !== 'vector') return JSON.stringify(term.id);
+        const open = JSON.stringify(term.id).slice(0, -1);
+        return (i) => open + slashCode[i]!;
+      }
       if (term.kind === 'cell') return JSON.stringify(term.cell);
-      return (code: string) => JSON.stringify(termJson(graph, term, code));
+      // termJson's key order: file, line, column (the indicator's column), value (as written).
+      const { factor } = term;
+      const head = `{"file":${JSON.stringify(factor.file)},"line":${JSON.stringify(factor.line)},"column":`;
+      return (i) => `${head}${codeText[i]},"value":${JSON.stringify(factor.raw[codes[i]!] ?? '')}}`;
     });
-    graph.indicators.forEach((code, i) => {
-      const termText = terms.map((t) => (typeof t === 'string' ? t : t(code))).join(',');
-      parts.push(`${JSON.stringify(`${node.id}/${code}`)}:{"value":${numberText(node.values[i]!)},"unit":${units[i]}${tail},"terms":[${termText}]${symbols}`);
-    });
+    const open = JSON.stringify(node.id).slice(0, -1);
+    for (let i = 0; i < codes.length; i++) {
+      let termText = '';
+      for (let k = 0; k < terms.length; k++) {
+        const t = terms[k]!;
+        termText += (k === 0 ? '' : ',') + (typeof t === 'string' ? t : t(i));
+      }
+      parts.push(`${open}${slashCode[i]}:{"value":${numberText(node.values[i]!)},"unit":${units[i]}${tail},"terms":[${termText}]${symbols}`);
+    }
   }
   return `{${parts.join(',')}}`;
 }
