@@ -59,6 +59,29 @@ cff/total/GWP-total, flows/recycled_content/total.
       return (await import('./explain.ts')).runExplain({ data: str(values.data) ?? 'data', product: positionals[0]!, figure: positionals[1]!, depth }, io);
     },
   },
+  chem: {
+    summary: 'balance and weigh a reaction (molar masses, mass ratios, atom economy)',
+    usage: `loopsheet chem "REACTION" [--per SPECIES] [--unit kg|t] [--json]
+
+Reads a reaction such as "2Al2O3 + 3C -> 4Al + 3CO2", checks that every element and the
+charge balance (and says which do not), and prints each species' molar mass from the IUPAC
+standard atomic weights and its mass per kg (or tonne) of the chosen species, with the
+atom economy. Formulas may hold parentheses, hydrates (CuSO4·5H2O) and charges (Al^3+,
+SO4^2-, Na+, e-). Separate species with " + " (spaces around the plus).
+
+  --per SPECIES   the species the masses are given per (default: the first product)
+  --unit kg|t     label the ratios per kg or per tonne (the same numbers)
+  --json          print the result as JSON on stdout
+
+Exit 0 when the reaction balances, 1 when it does not, 2 when it cannot be read.`,
+    options: { per: { type: 'string' }, unit: { type: 'string' }, json: { type: 'boolean' } },
+    positionals: { min: 1, max: 1 },
+    run: async (values, positionals, io) => {
+      const unit = str(values.unit) ?? 'kg';
+      if (unit !== 'kg' && unit !== 't') throw new UsageError(`--unit ${unit}: expected kg or t`);
+      return (await import('./chem.ts')).runChem({ reaction: positionals[0]!, per: str(values.per), unit, json: values.json === true }, io);
+    },
+  },
   init: {
     summary: 'scaffold a new data folder',
     usage: `loopsheet init DIR [--force]

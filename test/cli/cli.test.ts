@@ -12,7 +12,7 @@ const scratch = async () => {
 };
 
 describe('loopsheet usage', () => {
-  it.each(['check', 'build', 'explain', 'init', 'schema'])('%s --help prints its usage and exits 0', async (command) => {
+  it.each(['check', 'build', 'explain', 'chem', 'init', 'schema'])('%s --help prints its usage and exits 0', async (command) => {
     const result = await runCli([command, '--help']);
     expect(result.code).toBe(0);
     expect(result.stdout).toContain(`loopsheet ${command}`);
@@ -247,5 +247,39 @@ describe('loopsheet build', () => {
     const required = await runCli(['build', '--data', DEMO, '--out', path.join(cwd, 'out2'), '--pdf'], { env });
     expect(required.code).toBe(1);
     await expect(stat(path.join(cwd, 'out2'))).rejects.toThrow();
+  });
+});
+
+describe('loopsheet chem', () => {
+  it('weighs a balanced reaction per kg of the chosen species (exit 0)', async () => {
+    const result = await runCli(['chem', '2Al2O3 + 3C -> 4Al + 3CO2', '--per', 'Al']);
+    expect(result.code, result.stderr).toBe(0);
+    expect(result.stdout).toContain('balanced: every element and the charge');
+    // Per kg Al: 1.889 kg Al2O3, 0.3339 kg C, 1.223 kg CO2 (field guide §4, from the equation).
+    expect(result.stdout).toMatch(/Al2O3\s+reactant\s+2\s+101\.96\d*\s+1\.889/);
+    expect(result.stdout).toMatch(/CO2\s+product\s+3\s+44\.009\s+1\.223/);
+    expect(result.stdout).toContain('atom economy (Al of all reactants): 45.0 %');
+  });
+
+  it('names what does not balance (exit 1), and prints JSON on request', async () => {
+    const result = await runCli(['chem', 'Al2O3 + C -> Al + CO2', '--json']);
+    expect(result.code).toBe(1);
+    const json = JSON.parse(result.stdout);
+    expect(json.balanced).toBe(false);
+    expect(json.imbalances).toEqual([
+      { what: 'Al', reactants: 2, products: 1 },
+      { what: 'O', reactants: 3, products: 2 },
+    ]);
+    expect(json.species.map((s: { formula: string }) => s.formula)).toEqual(['Al2O3', 'C', 'Al', 'CO2']);
+  });
+
+  it('points at what it cannot read (exit 2)', async () => {
+    const result = await runCli(['chem', '2Al2O3 + 3Xq -> 4Al']);
+    expect(result.code).toBe(2);
+    expect(result.stderr).toContain('"Xq" is not an element with a standard atomic weight (did you mean "Xe"?)');
+    expect(result.stderr).toMatch(/2Al2O3 \+ 3Xq -> 4Al\n\s{12}\^/);
+    const per = await runCli(['chem', '2Al2O3 + 3C -> 4Al + 3CO2', '--per', 'Fe']);
+    expect(per.code).toBe(2);
+    expect(per.stderr).toContain('--per Fe: not a species of the reaction (Al2O3, C, Al, CO2)');
   });
 });
