@@ -44,6 +44,9 @@ export const PROBLEM_CODES = {
   GWP_SUM_MISMATCH: 'a factor row whose GWP-total differs from GWP-fossil + GWP-biogenic + GWP-luluc (EN 15804+A2)',
   SOURCE_MISSING: 'a row has no source (where the figure comes from)',
   BIOGENIC_CARBON_MISSING: 'a wood or paper material has no biogenic carbon content',
+  PARAMETER_UNKNOWN: 'a process.csv parameter that its kind does not have; the nearest known name is suggested',
+  PROCESS_KIND_MIXED: 'rows of one process in process.csv name different kinds',
+  PROCESS_INFEASIBLE: 'operating data that no real process can have (below a physical or stoichiometric floor)',
 } as const satisfies Record<string, string>;
 
 export type ProblemCode = keyof typeof PROBLEM_CODES;

@@ -4,7 +4,9 @@ import { readText } from '../load/text.ts';
 import { loadJson, locate, jsonPath, type JsonFile } from '../load/json.ts';
 import { sortProblems, type Problem } from '../problems.ts';
 import { FACTOR_INDICATOR_CODES, INDICATORS, findIndicator, inReportingOrder } from '../reference/indicators.ts';
-import { CSV_FILES, DECLARATION_FILE, productsCsv, bomCsv, materialsCsv, eolCsv, activitiesCsv, transportCsv, factorsCsv } from '../schema/index.ts';
+import { CSV_FILES, DECLARATION_FILE, productsCsv, bomCsv, materialsCsv, eolCsv, activitiesCsv, transportCsv, factorsCsv, processCsv } from '../schema/index.ts';
+import { columnsOf } from '../schema/csv-file.ts';
+import { readProcesses } from './processes.ts';
 import { declarationSchema, DECLARATION_KEYS, type Declaration } from '../schema/declaration.ts';
 import { describeIssue } from '../schema/issues.ts';
 import { tableReader, indicatorHeaderName, type Table, type TableOptions, type TableReader } from '../schema/table.ts';
@@ -46,8 +48,10 @@ export async function loadProject(dirArgument: string): Promise<ProjectLoad> {
   }
 
   const tableOf = <S extends CsvFileSchema>(schema: S, options: TableOptions = {}): Table<RowOf<S>> | undefined => {
-    const read = text.get(schema.file)!;
+    let read = text.get(schema.file)!;
     text.delete(schema.file);
+    // An optional file that is not there reads as its header alone: no rows, no problem.
+    if (!read.ok && schema.optional && read.problem.code === 'FILE_MISSING') read = { ok: true, text: `${columnsOf(schema).map((column) => column.name).join(',')}\n`, bytes: Buffer.alloc(0) };
     if (!read.ok) {
       problems.push(read.problem);
       return undefined;
@@ -74,13 +78,17 @@ export async function loadProject(dirArgument: string): Promise<ProjectLoad> {
     ignored: (name: string) => (findIndicator(name)?.basis === 'flows' ? `${name} ${FLOW_COLUMN_REASON}` : undefined),
   });
 
+  const process = tableOf(processCsv);
+  const processRead = process ? readProcesses(process) : undefined;
+  if (processRead) problems.push(...processRead.problems);
+
   const factorIndicators = factors ? inReportingOrder(Object.keys(factors.columns).filter((name) => FACTOR_INDICATOR_CODES.includes(name))) : [];
   // Default: every indicator factors.csv has a column for, and the flow indicators, which come from the product's own mass flows.
   const flowIndicators = INDICATORS.filter((i) => i.basis === 'flows').map((i) => i.code);
   const indicators = declaration?.indicators ? inReportingOrder(declaration.indicators) : inReportingOrder([...factorIndicators, ...flowIndicators]);
 
-  if (products && bom && materials && eol && activities && transport && factors) {
-    const tables = { dir, indicators, factorIndicators, products, bom, materials, eol, activities, transport, factors };
+  if (products && bom && materials && eol && activities && transport && factors && process && processRead) {
+    const tables = { dir, indicators, factorIndicators, products, bom, materials, eol, activities, transport, factors, process, processes: processRead.processes };
     // Cross-file rules run even when declaration.json is broken, so one run shows every problem.
     problems.push(...crossFileChecks({ ...tables, declaration, declarationFile }));
     const sorted = sortProblems(problems);

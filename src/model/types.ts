@@ -3,6 +3,7 @@ import type { productsCsv, bomCsv, materialsCsv, eolCsv, activitiesCsv, transpor
 import type { Declaration } from '../schema/declaration.ts';
 import type { JsonFile } from '../load/json.ts';
 import type { Table } from '../schema/table.ts';
+import type { ProcessDefinition, ProcessRow } from './processes.ts';
 
 /** Typed rows of each input file, inferred from the zod schemas (never written twice). */
 export type Product = RowOf<typeof productsCsv>;
@@ -36,4 +37,8 @@ export interface Project {
   activities: Table<Activity>;
   transport: Table<TransportLeg>;
   factors: Table<FactorRow>;
+  /** process.csv (optional): operating data of the declarant's own processes. */
+  process: Table<ProcessRow>;
+  /** Its processes, validated and checked against their physical floors. */
+  processes: ProcessDefinition[];
 }

@@ -23,13 +23,21 @@ const sha256 = (bytes: Buffer): string => createHash('sha256').update(bytes).dig
 
 /** The input files, in contract order, with their checksums (declaration.json first: it is also the configuration). */
 export async function hashInputs(dataDir: string): Promise<HashedFile[]> {
-  const files = [DECLARATION_FILE, ...CSV_FILES.map((schema) => schema.file)];
-  return Promise.all(
-    files.map(async (file) => {
-      const bytes = await readFile(path.join(dataDir, file));
+  const files = [{ file: DECLARATION_FILE, optional: false }, ...CSV_FILES.map((schema) => ({ file: schema.file, optional: schema.optional }))];
+  const hashed = await Promise.all(
+    files.map(async ({ file, optional }): Promise<HashedFile | undefined> => {
+      let bytes: Buffer;
+      try {
+        bytes = await readFile(path.join(dataDir, file));
+      } catch (error) {
+        // An optional input the project does not have is not part of the pack.
+        if (optional && (error as NodeJS.ErrnoException).code === 'ENOENT') return undefined;
+        throw error;
+      }
       return { file, sha256: sha256(bytes), bytes: bytes.length };
     }),
   );
+  return hashed.filter((input): input is HashedFile => input !== undefined);
 }
 
 export async function copyInputs(dataDir: string, outDir: string, inputs: readonly HashedFile[]): Promise<void> {

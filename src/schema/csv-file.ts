@@ -18,6 +18,8 @@ export interface CsvFileSchema<Shape extends z.ZodRawShape = z.ZodRawShape> {
   key: readonly string[];
   /** True when the project is incomplete without at least one row. */
   needsRows: boolean;
+  /** True when the file may be left out of the data folder (read as having no rows). */
+  optional: boolean;
 }
 
 export function defineCsv<Shape extends z.ZodRawShape>(definition: {
@@ -27,11 +29,13 @@ export function defineCsv<Shape extends z.ZodRawShape>(definition: {
   example: Record<string, string>;
   key: readonly string[];
   needsRows?: boolean;
+  optional?: boolean;
 }): CsvFileSchema<Shape> {
   const cache = new Map<boolean, z.ZodObject<Shape>>();
   return {
     ...definition,
     needsRows: definition.needsRows ?? false,
+    optional: definition.optional ?? false,
     row: (dialect) => {
       let schema = cache.get(dialect.decimalComma);
       if (!schema) {

@@ -6,9 +6,10 @@ import { eolCsv } from './eol.ts';
 import { activitiesCsv } from './activities.ts';
 import { transportCsv } from './transport.ts';
 import { factorsCsv } from './factors.ts';
+import { processCsv } from './process.ts';
 
 export const DECLARATION_FILE = 'declaration.json';
 
-export const CSV_FILES = [productsCsv, bomCsv, materialsCsv, eolCsv, activitiesCsv, transportCsv, factorsCsv] as const;
+export const CSV_FILES = [productsCsv, bomCsv, materialsCsv, eolCsv, activitiesCsv, transportCsv, factorsCsv, processCsv] as const;
 
-export { productsCsv, bomCsv, materialsCsv, eolCsv, activitiesCsv, transportCsv, factorsCsv };
+export { productsCsv, bomCsv, materialsCsv, eolCsv, activitiesCsv, transportCsv, factorsCsv, processCsv };

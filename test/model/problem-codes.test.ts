@@ -17,6 +17,9 @@ interface Case {
 }
 
 const at = (dir: string, file: string) => path.join(dir, file);
+/** process.csv is optional and the demo has none: these cases write one (header on line 1). */
+const processCsv = (d: string, rows: string[]) => writeFile(at(d, 'process.csv'), ['process_id,kind,parameter,value,unit,source', ...rows].join('\n') + '\n');
+const potline = ['potline-1,electrolysis-aluminium,technology,CWPB,,log', 'potline-1,electrolysis-aluminium,cell_voltage_v,4.2,V,log'];
 
 const cases: Case[] = [
   { code: 'FILE_MISSING', plant: (d) => rm(at(d, 'transport.csv')), expected: { file: 'transport.csv', severity: 'error' } },
@@ -72,6 +75,18 @@ const cases: Case[] = [
   },
   { code: 'GWP_SUM_MISMATCH', plant: (d) => editLine(at(d, 'factors.csv'), 26, 'illustrative),0.41,', 'illustrative),0.45,'), expected: { file: 'factors.csv', line: 26, column: 'GWP-total', value: '0.45', severity: 'warning' } },
   { code: 'SOURCE_MISSING', plant: (d) => editLine(at(d, 'transport.csv'), 3, 'Route planner (illustrative)', ''), expected: { file: 'transport.csv', line: 3, column: 'source', severity: 'warning' } },
+  {
+    code: 'PARAMETER_UNKNOWN',
+    plant: (d) => processCsv(d, [...potline, 'potline-1,electrolysis-aluminium,current_eficiency,95%,%,log']),
+    expected: { file: 'process.csv', line: 4, column: 'parameter', value: 'current_eficiency', hint: 'did you mean "current_efficiency"?' },
+  },
+  { code: 'PROCESS_KIND_MIXED', plant: (d) => processCsv(d, [...potline, 'potline-1,electrowinning,current_efficiency,95%,%,log']), expected: { file: 'process.csv', line: 4, column: 'kind', value: 'electrowinning' } },
+  {
+    // Faraday floor at 4.2 V and 100 % current efficiency: 2 980 Ah/kg × 4.2 V = 12 516 kWh/t (field guide §4).
+    code: 'PROCESS_INFEASIBLE',
+    plant: (d) => processCsv(d, [...potline, 'potline-1,electrolysis-aluminium,electricity_kwh_per_t,12000,kWh/t,meters']),
+    expected: { file: 'process.csv', line: 4, column: 'value', value: '12000', message: expect.stringMatching(/below the Faraday-law floor of 1251\d kWh\/t/) },
+  },
   { code: 'BIOGENIC_CARBON_MISSING', plant: (d) => editLine(at(d, 'materials.csv'), 8, ',14,0.42,', ',14,,'), expected: { file: 'materials.csv', line: 8, column: 'biogenic_c_kg_per_kg', severity: 'warning' } },
 ];
 

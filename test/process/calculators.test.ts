@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
-import { aluminiumSmelter, type AluminiumSmelter } from '../../src/calc/process/electrolysis-aluminium.ts';
-import { carbothermicReduction } from '../../src/calc/process/carbothermic-reduction.ts';
-import { electrowinning } from '../../src/calc/process/electrowinning.ts';
-import type { ProcessResult } from '../../src/calc/process/steps.ts';
+import { aluminiumSmelter, type AluminiumSmelter } from '../../src/process/electrolysis-aluminium.ts';
+import { carbothermicReduction } from '../../src/process/carbothermic-reduction.ts';
+import { electrowinning } from '../../src/process/electrowinning.ts';
+import type { ProcessResult } from '../../src/process/steps.ts';
 
 const value = (result: ProcessResult, id: string): number => {
   const step = result.steps.find((s) => s.id === id);

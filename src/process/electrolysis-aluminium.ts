@@ -1,7 +1,7 @@
-import { chargeAhPerKg } from '../../chem/electrochemistry.ts';
-import { molarMass, parseFormula } from '../../chem/formula.ts';
-import { findSpecies, massRatios, parseReaction } from '../../chem/reaction.ts';
-import { CO2_PER_C_IPCC, isPrebake, PFC_SLOPE_DEFAULTS, TIER1_CO2_T_PER_T, type CellTechnology } from '../../reference/smelting.ts';
+import { chargeAhPerKg } from '../chem/electrochemistry.ts';
+import { molarMass, parseFormula } from '../chem/formula.ts';
+import { findSpecies, massRatios, parseReaction } from '../chem/reaction.ts';
+import { CO2_PER_C_IPCC, isPrebake, PFC_SLOPE_DEFAULTS, TIER1_CO2_T_PER_T, type CellTechnology } from '../reference/smelting.ts';
 import { nonNegative, positive, share, StepRecorder, type ProcessResult } from './steps.ts';
 
 /** Operating data of a Hall–Héroult cell line, per tonne of aluminium (process.csv parameters). */

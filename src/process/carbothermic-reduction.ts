@@ -1,4 +1,4 @@
-import { ABOVE_CARBON, CO2_PER_C_IPCC } from '../../reference/smelting.ts';
+import { ABOVE_CARBON, CO2_PER_C_IPCC } from '../reference/smelting.ts';
 import { nonNegative, share, StepRecorder, type ProcessResult } from './steps.ts';
 
 /** A carbon carrier in or out of the furnace, per tonne of metal. */

@@ -1,5 +1,5 @@
-import { chargeAhPerKg } from '../../chem/electrochemistry.ts';
-import { ChemError, molarMass, parseFormula } from '../../chem/formula.ts';
+import { chargeAhPerKg } from '../chem/electrochemistry.ts';
+import { ChemError, molarMass, parseFormula } from '../chem/formula.ts';
 import { positive, share, StepRecorder, type ProcessResult } from './steps.ts';
 
 /** Operating data of an electrowinning tank house, per tonne of cathode metal. */

@@ -1,0 +1,159 @@
+import { z } from 'zod';
+import type { Problem } from '../problems.ts';
+import { nearestName } from '../reference/nearest.ts';
+import { choice, quantity, share, text } from '../schema/cells.ts';
+import { describeIssue } from '../schema/issues.ts';
+import type { Dialect } from '../schema/numbers.ts';
+import { PROCESS_KINDS, type ProcessKind, type processCsv } from '../schema/process.ts';
+import { PROCESS_PARAMETERS, type ParameterSpec } from '../schema/process-parameters.ts';
+import type { RowOf } from '../schema/csv-file.ts';
+import type { Row, Table } from '../schema/table.ts';
+import { runProcess } from '../process/run.ts';
+
+export type ProcessRow = RowOf<typeof processCsv>;
+
+/** One process of process.csv: its kind, its typed parameters, and the row each was read from. */
+export interface ProcessDefinition {
+  id: string;
+  kind: ProcessKind;
+  /** The first row of the process (where a missing parameter is reported). */
+  first: Row<ProcessRow>;
+  values: Record<string, number | string>;
+  /** Family parameters, `reagent:<factor>` → value. */
+  families: Record<string, Record<string, number>>;
+  rows: Map<string, Row<ProcessRow>>;
+}
+
+/** The cell schema of a parameter's value, from its spec (the same cells every input file uses). */
+function valueSchema(spec: ParameterSpec, dialect: Dialect): z.ZodType {
+  switch (spec.type) {
+    case 'number':
+    case 'percent':
+      return quantity(dialect, spec.description, spec.unit || 'the stated unit', { required: false, positive: spec.unit === 'V' });
+    case 'share':
+      return share(dialect, spec.description, { default: undefined });
+    case 'choice':
+      return choice(spec.description, spec.choices as readonly [string, ...string[]]);
+    case 'integer':
+      return quantity(dialect, spec.description, 'a whole number', { required: false }).refine((value) => value === undefined || Number.isInteger(value), { params: { problem: 'OUT_OF_RANGE', expected: 'a whole number' }, message: 'is not a whole number' });
+    default:
+      return text(spec.description, { required: true });
+  }
+}
+
+/** One zod schema per kind: its named parameters, unknown ones refused (families are read apart). */
+const kindSchemas = new Map<string, z.ZodObject>();
+export function kindSchema(kind: ProcessKind, dialect: Dialect): z.ZodObject {
+  const key = `${kind}|${dialect.decimalComma}`;
+  let schema = kindSchemas.get(key);
+  if (!schema) {
+    const shape: Record<string, z.ZodType> = {};
+    for (const [name, spec] of Object.entries(PROCESS_PARAMETERS[kind].parameters)) shape[name] = spec.required ? valueSchema(spec, dialect) : valueSchema(spec, dialect).optional();
+    schema = z.object(shape).strict();
+    kindSchemas.set(key, schema);
+  }
+  return schema;
+}
+
+const unitAccepted = (spec: ParameterSpec, written: string | undefined): boolean => {
+  const unit = (written ?? '').trim();
+  if (spec.type === 'share') return unit === '' || unit === 'share' || unit === '%';
+  if (spec.unit === '') return unit === '';
+  return unit === spec.unit;
+};
+
+/**
+ * Reads process.csv into processes: every row's parameter checked against its kind's
+ * schema (name, unit, value), a process with rows of two kinds refused, a required
+ * parameter missing reported on the process's first row.
+ */
+export function readProcesses(table: Table<ProcessRow>): { processes: ProcessDefinition[]; problems: Problem[] } {
+  const problems: Problem[] = [];
+  const file = table.file;
+  const dialect: Dialect = { decimalComma: table.delimiter === ';' };
+  const at = (row: Row<ProcessRow>, column: 'parameter' | 'value' | 'unit' | 'kind', problem: Omit<Problem, 'file' | 'line' | 'column' | 'columnIndex' | 'severity'> & { severity?: Problem['severity'] }) =>
+    problems.push({ severity: 'error', file, line: row.line, column, ...(table.columns[column] === undefined ? {} : { columnIndex: table.columns[column] }), ...problem });
+
+  const byProcess = new Map<string, Array<Row<ProcessRow>>>();
+  for (const row of table.rows) {
+    const list = byProcess.get(row.value.process_id) ?? [];
+    list.push(row);
+    byProcess.set(row.value.process_id, list);
+  }
+  const processes: ProcessDefinition[] = [];
+  for (const [id, rows] of byProcess) {
+    const first = rows[0]!;
+    const kind = first.value.kind;
+    const spec = PROCESS_PARAMETERS[kind];
+    const raw: Record<string, string> = {};
+    const rowOf = new Map<string, Row<ProcessRow>>();
+    const families: Record<string, Record<string, number>> = {};
+    let ok = true;
+    for (const row of rows) {
+      const name = row.value.parameter;
+      if (row.value.kind !== kind) {
+        at(row, 'kind', { code: 'PROCESS_KIND_MIXED', value: row.raw.kind ?? '', message: `process ${id} is ${kind} on line ${first.line}; one process has one kind`, expected: kind });
+        ok = false;
+        continue;
+      }
+      if (rowOf.has(name)) {
+        at(row, 'parameter', { code: 'DUPLICATE_ID', value: name, message: `repeats parameter ${name} of process ${id}`, expected: 'each parameter once per process', hint: `first given on line ${rowOf.get(name)!.line}` });
+        ok = false;
+        continue;
+      }
+      rowOf.set(name, row);
+      const colon = name.indexOf(':');
+      const familySpec = colon > 0 ? spec.families?.[name.slice(0, colon)] : undefined;
+      const parameterSpec = familySpec ?? spec.parameters[name];
+      if (!parameterSpec) {
+        const known = [...Object.keys(spec.parameters), ...Object.keys(spec.families ?? {}).map((family) => `${family}:<name>`)];
+        const near = nearestName(name, known);
+        at(row, 'parameter', { code: 'PARAMETER_UNKNOWN', value: name, message: `is not a parameter of ${kind}`, expected: `one of ${known.join(', ')}`, ...(near ? { hint: `did you mean "${near}"?` } : {}) });
+        ok = false;
+        continue;
+      }
+      if (!unitAccepted(parameterSpec, row.value.unit)) {
+        at(row, 'unit', { code: 'UNIT_MISMATCH', value: row.value.unit ?? '', message: `is not the unit ${name} is written in`, expected: parameterSpec.type === 'share' ? 'share or %' : parameterSpec.unit === '' ? 'empty (the value is a word or a count)' : parameterSpec.unit });
+        ok = false;
+      }
+      if (familySpec) {
+        const parsed = valueSchema(familySpec, dialect).safeParse(row.value.value);
+        if (!parsed.success) {
+          ok = false;
+          for (const issue of parsed.error.issues) cellProblem(at, row, issue);
+          continue;
+        }
+        const family = name.slice(0, colon);
+        (families[family] ??= {})[name.slice(colon + 1)] = parsed.data as number;
+      } else raw[name] = row.value.value;
+    }
+    const parsed = kindSchema(kind, dialect).safeParse(raw);
+    if (!parsed.success) {
+      ok = false;
+      for (const issue of parsed.error.issues) {
+        const name = String(issue.path[0] ?? '');
+        const row = rowOf.get(name);
+        if (row) cellProblem(at, row, issue);
+        else at(first, 'parameter', { code: 'VALUE_REQUIRED', value: name, message: `${kind} needs ${name}: ${PROCESS_PARAMETERS[kind].parameters[name]?.description ?? ''}`.trim(), expected: `a row ${id},${kind},${name},<value>,${PROCESS_PARAMETERS[kind].parameters[name]?.unit ?? ''}` });
+      }
+    }
+    if (!ok || !parsed.success) continue;
+    const definition: ProcessDefinition = { id, kind, first, values: parsed.data as Record<string, number | string>, families, rows: rowOf };
+    // Operating data below a physical or stoichiometric floor are refused here, at their row, not computed.
+    for (const problem of runProcess(definition).problems) {
+      const row = rowOf.get(problem.parameter);
+      if (row) at(row, 'value', { code: 'PROCESS_INFEASIBLE', value: row.value.value, message: problem.message, expected: problem.expected });
+      else at(first, 'parameter', { code: problem.value === '' ? 'VALUE_REQUIRED' : 'PROCESS_INFEASIBLE', value: problem.parameter, message: `${id} (${kind}): ${problem.parameter} ${problem.message}`, expected: problem.expected });
+      ok = false;
+    }
+    if (ok) processes.push(definition);
+  }
+  return { processes, problems };
+}
+
+function cellProblem(at: (row: Row<ProcessRow>, column: 'value', problem: Omit<Problem, 'file' | 'line' | 'column' | 'columnIndex' | 'severity'>) => void, row: Row<ProcessRow>, issue: z.core.$ZodIssue): void {
+  const described = describeIssue(issue);
+  at(row, 'value', { code: described.code, value: row.value.value, message: described.message, ...(described.expected ? { expected: described.expected } : {}), ...(described.hint ? { hint: described.hint } : {}) });
+}
+
+export { PROCESS_KINDS };
