@@ -5,7 +5,10 @@ import { findGas, GWP_SOURCES, type GwpSet } from '../reference/ghg.ts';
 import { findIndicator } from '../reference/indicators.ts';
 import { conversionFactor } from '../reference/units.ts';
 import { jsonPath, locate } from '../load/json.ts';
-import { factorTerm, figureTerm, type CellRef, type FigureGraph, type Term } from '../trace/graph.ts';
+import { cellTerm, factorTerm, figureTerm, type CellRef, type FigureGraph, type Term } from '../trace/graph.ts';
+import { flowFactor, runProcess } from '../process/run.ts';
+import { processReference } from '../process/references.ts';
+import { PROCESS_PREFIX } from '../schema/process-parameters.ts';
 import type { Vec } from './vector.ts';
 
 /** A factor resolved to an indicator vector, per one unit of `unit`. */
@@ -68,7 +71,7 @@ export class CalcContext {
   factor(id: string): ResolvedFactor {
     let resolved = this.factors.get(id);
     if (!resolved) {
-      resolved = findGas(id) ? this.gasFactor(id) : this.tableFactor(id);
+      resolved = findGas(id) ? this.gasFactor(id) : id.startsWith(PROCESS_PREFIX) ? this.processFactor(id) : this.tableFactor(id);
       this.factors.set(id, resolved);
     }
     return resolved;
@@ -115,6 +118,68 @@ export class CalcContext {
         });
       },
     };
+  }
+
+  /**
+   * A process of process.csv as a factor per kg of its metal: its calculator's steps become
+   * scalar figures whose terms are the process.csv cells and reference values, and the
+   * factor is Σ flows (amount per t / 1000 kg) · the flow's factor, over every indicator.
+   */
+  private processFactor(id: string): ResolvedFactor {
+    const processId = id.slice(PROCESS_PREFIX.length);
+    const definition = this.project.processes.find((process) => process.id === processId);
+    if (!definition) throw new Error(`process ${processId} not in the validated project`);
+    const result = runProcess(definition);
+    const base = `process/${processId}`;
+    const flows = result.inventory.map((flow) => {
+      const factorId = flowFactor(definition, flow.flow).factor!;
+      const factor = this.factor(factorId);
+      // Per kg of metal: the flow per tonne over 1000 kg, in the factor's unit.
+      const perKg = (flow.amount / 1000) * conversionFactor(flow.unit, factor.unit);
+      return { flow, factor, perKg };
+    });
+    const values: Vec = this.indicators.map((_, i) => flows.reduce((sum, f) => sum + f.perKg * f.factor.values[i]!, 0));
+    const factorNodeId = `${base}/factor`;
+    const project = this.project;
+    const ensure = (graph: FigureGraph) => {
+      if (graph.get(factorNodeId)) return;
+      for (const step of result.steps) {
+        const terms: Term[] = step.inputs.map((input) => {
+          if (input.startsWith('param:')) {
+            const name = input.slice('param:'.length);
+            const row = definition.rows.get(name);
+            if (!row) throw new Error(`process ${processId}: no row for ${name}`);
+            return cellTerm({ file: project.process.file, line: row.line, column: 'value', value: row.raw.value ?? '' }, name);
+          }
+          if (input.startsWith('ref:')) {
+            const name = input.slice('ref:'.length);
+            const refId = `${base}/reference/${name}`;
+            if (!graph.get(refId)) {
+              const ref = processReference(name, definition.values);
+              if (!ref) throw new Error(`process ${processId}: no reference value ${name}`);
+              graph.add({ kind: 'scalar', id: refId, value: ref.value, unit: ref.unit, formula: `${name} = ${ref.value}`, description: ref.description, terms: [] });
+            }
+            return figureTerm(refId, name);
+          }
+          return figureTerm(`${base}/${input}`, input);
+        });
+        graph.add({ kind: 'scalar', id: `${base}/${step.id}`, value: step.value, unit: step.unit, formula: step.formula, description: step.description, terms });
+      }
+      const terms: Term[] = [];
+      for (const { flow, factor } of flows) {
+        factor.ensure(graph);
+        terms.push(figureTerm(`${base}/${flow.step}`, flow.flow), factor.term(`F(${flow.flow})`));
+      }
+      graph.add({
+        kind: 'vector',
+        id: factorNodeId,
+        values,
+        formula: 'F = Σ flows (amount per t / 1000 kg)·F(flow)',
+        description: `Factor per kg of ${definition.kind === 'electrolysis-aluminium' ? 'aluminium' : String(definition.values.metal)} from the operating data of process ${processId} (${definition.kind})${result.notes.length ? `; ${result.notes.join(' ')}` : ''}.`,
+        terms,
+      });
+    };
+    return { id, unit: 'kg', values, term: (symbol) => figureTerm(factorNodeId, symbol), ensure };
   }
 
   private readonly netRecycling = new Map<string, Vec>();

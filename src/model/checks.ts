@@ -1,6 +1,7 @@
 import type { Problem, ProblemCode, Severity } from '../problems.ts';
 import { locate } from '../load/json.ts';
 import { findGas, GHG_FACTOR_IDS, GHG_PREFIX } from '../reference/ghg.ts';
+import { parameterSpec, PROCESS_PREFIX } from '../schema/process-parameters.ts';
 import { findIndicator } from '../reference/indicators.ts';
 import { nearestName } from '../reference/nearest.ts';
 import { convertible, dimensionOf, unitsOf, type Dimension } from '../reference/units.ts';
@@ -140,10 +141,19 @@ function references(ctx: CheckContext): void {
     check(p.bom, row, 'product_id', row.value.product_id, productIds, 'product_id in products.csv');
     check(p.bom, row, 'material', row.value.material, materialIds, 'material in materials.csv');
   }
+  // A process of process.csv stands for a factor per kg of its metal, wherever a factor id is accepted.
+  const processFactors = [...new Set(p.process.rows.map((row) => `${PROCESS_PREFIX}${row.value.process_id}`))];
   for (const row of p.materials.rows) {
     for (const column of ['virgin', 'recycled', 'eol_recycling', 'substituted', 'landfill', 'incineration'] as const) {
-      check(p.materials, row, column, row.value[column], factorIds, 'factor_id in factors.csv');
+      check(p.materials, row, column, row.value[column], factorIds, 'factor_id in factors.csv', processFactors);
     }
+  }
+  // The factor-id parameters of process.csv name rows of factors.csv.
+  for (const row of p.process.rows) {
+    const type = parameterSpec(row.value.kind, row.value.parameter)?.type;
+    if (type === 'factor') check(p.process, row, 'value', row.value.value, factorIds, 'factor_id in factors.csv');
+    // A reagent is named by its factor id: reagent:<factor_id>.
+    if (row.value.parameter.startsWith('reagent:')) check(p.process, row, 'parameter', row.value.parameter.slice('reagent:'.length), factorIds, 'factor_id in factors.csv');
   }
   for (const row of p.eol.rows) {
     if (row.value.material !== '*') check(p.eol, row, 'material', row.value.material, materialIds, 'material in materials.csv (or *)');
@@ -162,7 +172,7 @@ function references(ctx: CheckContext): void {
         });
       }
     } else {
-      check(p.activities, row, 'factor', factor, factorIds, 'factor_id in factors.csv');
+      check(p.activities, row, 'factor', factor, factorIds, 'factor_id in factors.csv', processFactors);
     }
   }
   const linesByProduct = new Map<string, Set<string>>();
@@ -289,12 +299,21 @@ function unitRules(ctx: CheckContext): void {
     perUnitOf(p.eol, row, 'processing_factor', row.value.processing_factor, 'mass', 'waste processing');
   }
   for (const row of p.transport.rows) perUnitOf(p.transport, row, 'factor', row.value.factor, 'transport', 'a transport leg');
+  // A process's electricity is in kWh, its materials in t or kg.
+  for (const row of p.process.rows) {
+    if (parameterSpec(row.value.kind, row.value.parameter)?.type !== 'factor') continue;
+    perUnitOf(p.process, row, 'value', row.value.value, row.value.parameter === 'electricity_factor' ? 'energy' : 'mass', `${row.value.parameter} of a process`);
+  }
   for (const row of p.activities.rows) {
     const { factor: factorId, unit } = row.value;
     if (factorId.startsWith(GHG_PREFIX)) {
       if (findGas(factorId) && dimensionOf(unit) !== 'mass') {
         ctx.at(p.activities, row.line, row.raw, 'unit', 'error', 'UNIT_MISMATCH', `is not a mass; ${factorId} is characterised per kg of gas emitted`, { expected: 'a mass unit: g, kg or t' });
       }
+      continue;
+    }
+    if (factorId.startsWith(PROCESS_PREFIX)) {
+      if (dimensionOf(unit) !== 'mass') ctx.at(p.activities, row.line, row.raw, 'unit', 'error', 'UNIT_MISMATCH', `is not a mass; ${factorId} is a factor per kg of the metal the process makes`, { expected: 'a mass unit: g, kg or t' });
       continue;
     }
     const factor = ctx.factor(factorId);
@@ -324,6 +343,7 @@ function usedFactors(ctx: CheckContext): Map<string, string> {
   }
   for (const row of p.activities.rows) use(row.value.factor, `activities.csv line ${row.line}`);
   for (const row of p.transport.rows) use(row.value.factor, `transport.csv line ${row.line}`);
+  for (const row of p.process.rows) if (parameterSpec(row.value.kind, row.value.parameter)?.type === 'factor') use(row.value.value, `process.csv line ${row.line}`);
   return used;
 }
 

@@ -8,7 +8,7 @@ import { PROCESS_KINDS, type ProcessKind, type processCsv } from '../schema/proc
 import { PROCESS_PARAMETERS, type ParameterSpec } from '../schema/process-parameters.ts';
 import type { RowOf } from '../schema/csv-file.ts';
 import type { Row, Table } from '../schema/table.ts';
-import { runProcess } from '../process/run.ts';
+import { flowFactor, runProcess } from '../process/run.ts';
 
 export type ProcessRow = RowOf<typeof processCsv>;
 
@@ -20,7 +20,7 @@ export interface ProcessDefinition {
   first: Row<ProcessRow>;
   values: Record<string, number | string>;
   /** Family parameters, `reagent:<factor>` → value. */
-  families: Record<string, Record<string, number>>;
+  families: Record<string, Record<string, number | string>>;
   rows: Map<string, Row<ProcessRow>>;
 }
 
@@ -87,7 +87,7 @@ export function readProcesses(table: Table<ProcessRow>): { processes: ProcessDef
     const spec = PROCESS_PARAMETERS[kind];
     const raw: Record<string, string> = {};
     const rowOf = new Map<string, Row<ProcessRow>>();
-    const families: Record<string, Record<string, number>> = {};
+    const families: Record<string, Record<string, number | string>> = {};
     let ok = true;
     for (const row of rows) {
       const name = row.value.parameter;
@@ -124,7 +124,7 @@ export function readProcesses(table: Table<ProcessRow>): { processes: ProcessDef
           continue;
         }
         const family = name.slice(0, colon);
-        (families[family] ??= {})[name.slice(colon + 1)] = parsed.data as number;
+        (families[family] ??= {})[name.slice(colon + 1)] = parsed.data as number | string;
       } else raw[name] = row.value.value;
     }
     const parsed = kindSchema(kind, dialect).safeParse(raw);
@@ -140,7 +140,15 @@ export function readProcesses(table: Table<ProcessRow>): { processes: ProcessDef
     if (!ok || !parsed.success) continue;
     const definition: ProcessDefinition = { id, kind, first, values: parsed.data as Record<string, number | string>, families, rows: rowOf };
     // Operating data below a physical or stoichiometric floor are refused here, at their row, not computed.
-    for (const problem of runProcess(definition).problems) {
+    const result = runProcess(definition);
+    for (const flow of result.inventory) {
+      const { factor, parameter } = flowFactor(definition, flow.flow);
+      if (factor === undefined) {
+        at(first, 'parameter', { code: 'FACTOR_REQUIRED', value: parameter, message: `${id} (${kind}) uses ${flow.flow} (${flow.amount.toPrecision(4)} ${flow.unit} per t) but names no factor for it`, expected: `a row ${id},${kind},${parameter},<factor id in factors.csv>` });
+        ok = false;
+      }
+    }
+    for (const problem of result.problems) {
       const row = rowOf.get(problem.parameter);
       if (row) at(row, 'value', { code: 'PROCESS_INFEASIBLE', value: row.value.value, message: problem.message, expected: problem.expected });
       else at(first, 'parameter', { code: problem.value === '' ? 'VALUE_REQUIRED' : 'PROCESS_INFEASIBLE', value: problem.parameter, message: `${id} (${kind}): ${problem.parameter} ${problem.message}`, expected: problem.expected });

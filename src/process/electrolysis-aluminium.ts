@@ -72,7 +72,7 @@ export function aluminiumSmelter(p: AluminiumSmelter): ProcessResult {
   rec.flow('electricity', 'energy', 'electricity_kwh_per_t', 'kWh');
 
   // Anode CO2
-  rec.step('carbon_floor_t_per_t', carbonFloor, 't C/t Al', 'C_min = 3·M_C / (4·M_Al)', `Stoichiometric carbon of ${HALL_HEROULT}.`, ['ref:reaction']);
+  rec.step('carbon_floor_t_per_t', carbonFloor, 't C/t Al', 'C_min = 3·M_C / (4·M_Al)', `Stoichiometric carbon of ${HALL_HEROULT}.`, ['ref:M_C', 'ref:M_Al']);
   if (isPrebake(p.technology) && p.net_anode_consumption_t_per_t !== undefined) {
     const nac = p.net_anode_consumption_t_per_t;
     const sulphur = p.anode_sulphur_pct ?? Number.NaN;
@@ -107,7 +107,7 @@ export function aluminiumSmelter(p: AluminiumSmelter): ProcessResult {
   }
 
   // Alumina
-  rec.step('alumina_floor_t_per_t', aluminaFloor, 't/t Al', 'Al2O3_min = 2·M_Al2O3 / (4·M_Al)', `Stoichiometric alumina of ${HALL_HEROULT}.`, ['ref:reaction']);
+  rec.step('alumina_floor_t_per_t', aluminaFloor, 't/t Al', 'Al2O3_min = 2·M_Al2O3 / (4·M_Al)', `Stoichiometric alumina of ${HALL_HEROULT}.`, ['ref:M_Al2O3', 'ref:M_Al']);
   if (p.alumina_t_per_t !== undefined) {
     if (positive(rec, 'alumina_t_per_t', p.alumina_t_per_t) && p.alumina_t_per_t < aluminaFloor) rec.problem('alumina_t_per_t', p.alumina_t_per_t, `${p.alumina_t_per_t} t/t is below the stoichiometric ${aluminaFloor.toFixed(3)} t alumina per t Al`, `at least ${aluminaFloor.toFixed(3)}`);
     rec.step('alumina_t_per_t', p.alumina_t_per_t, 't/t Al', 'Al2O3 = measured', 'Alumina consumed, as measured.', ['param:alumina_t_per_t']);

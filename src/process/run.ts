@@ -8,7 +8,7 @@ import { StepRecorder, type ProcessResult } from './steps.ts';
 export interface ProcessInput {
   kind: 'electrolysis-aluminium' | 'electrowinning' | 'carbothermic-reduction';
   values: Record<string, number | string>;
-  families: Record<string, Record<string, number>>;
+  families: Record<string, Record<string, number | string>>;
 }
 
 const numberOf = (values: ProcessInput['values'], name: string): number | undefined => (typeof values[name] === 'number' ? (values[name] as number) : undefined);
@@ -29,13 +29,13 @@ export function runProcess(input: ProcessInput): ProcessResult {
         cell_voltage_v: numberOf(v, 'cell_voltage_v') ?? Number.NaN,
         current_efficiency: numberOf(v, 'current_efficiency') ?? Number.NaN,
         ...(numberOf(v, 'auxiliary_share') === undefined ? {} : { auxiliary_share: numberOf(v, 'auxiliary_share')! }),
-        reagents: input.families.reagent ?? {},
+        reagents: (input.families.reagent ?? {}) as Record<string, number>,
       });
     case 'carbothermic-reduction': {
       const missing = new StepRecorder();
       const streams = (mass: string, carbon: string) =>
-        Object.entries(input.families[mass] ?? {}).map(([name, massTPerT]) => {
-          const share = input.families[carbon]?.[name];
+        Object.entries((input.families[mass] ?? {}) as Record<string, number>).map(([name, massTPerT]) => {
+          const share = input.families[carbon]?.[name] as number | undefined;
           if (share === undefined) missing.problem(`${carbon}:${name}`, undefined, `is required with ${mass}:${name}`, `a row ${carbon}:${name} with its carbon share`);
           return { name, mass_t_per_t: massTPerT, carbon_share: share ?? 0 };
         });
@@ -45,4 +45,31 @@ export function runProcess(input: ProcessInput): ProcessResult {
       return carbothermicReduction({ metal: String(v.metal), inputs, outputs });
     }
   }
+}
+
+/**
+ * The factor each inventory flow is charged with: the factor-id parameters of the process
+ * (factors.csv rows), or a built-in greenhouse gas for direct emissions. Undefined where
+ * the process names none: validation refuses that (FACTOR_REQUIRED).
+ */
+export function flowFactor(input: ProcessInput, flow: string): { factor?: string; parameter: string } {
+  const v = input.values;
+  const named = (parameter: string) => ({ parameter, ...(typeof v[parameter] === 'string' ? { factor: v[parameter] as string } : {}) });
+  switch (flow) {
+    case 'electricity':
+      return named('electricity_factor');
+    case 'alumina':
+      return named('alumina_factor');
+    case 'aluminium fluoride':
+      return named('aluminium_fluoride_factor');
+    case 'anode':
+      return named('anode_factor');
+    case 'CO2':
+    case 'CF4':
+    case 'C2F6':
+      return { factor: `ghg:${flow}`, parameter: '' };
+  }
+  if (input.kind === 'electrowinning') return { factor: flow, parameter: `reagent:${flow}` };
+  const factor = input.families.reductant_factor?.[flow];
+  return { parameter: `reductant_factor:${flow}`, ...(typeof factor === 'string' ? { factor } : {}) };
 }

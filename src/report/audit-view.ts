@@ -70,6 +70,7 @@ const GROUP_TITLES: Record<string, string> = {
   'fifty-fifty': '50:50',
   reference: 'Reference values and presets',
   flows: 'Recycled content and biogenic carbon',
+  process: 'Process models (process.csv)',
 };
 
 const show = (value: number): string => (Number.isNaN(value) ? 'n/a' : formatInput(value));

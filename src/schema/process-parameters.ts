@@ -81,6 +81,17 @@ export const PROCESS_PARAMETERS: Record<ProcessKind, KindSpec> = {
       reductant_carbon: shareOf('Carbon content of reductant <name>, named reductant_carbon:<name>.'),
       carbon_out: num('A product or by-product carrying carbon out, named carbon_out:<name>.', 't/t'),
       carbon_out_carbon: shareOf('Carbon content of carbon_out <name>, named carbon_out_carbon:<name>.'),
+      reductant_factor: factor('Factor id (factors.csv, per mass) of producing reductant <name>, named reductant_factor:<name>.'),
     },
   },
 };
+
+/** How a process is named where a factor id is accepted: `process:<process_id>`. */
+export const PROCESS_PREFIX = 'process:';
+
+/** The spec of a parameter of a kind, a family member's included (`reagent:acid` → reagent). */
+export function parameterSpec(kind: ProcessKind, parameter: string): ParameterSpec | undefined {
+  const spec = PROCESS_PARAMETERS[kind];
+  const colon = parameter.indexOf(':');
+  return (colon > 0 ? spec.families?.[parameter.slice(0, colon)] : undefined) ?? spec.parameters[parameter];
+}
