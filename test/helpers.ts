@@ -20,6 +20,15 @@ export async function demoCopy(): Promise<string> {
   return dir;
 }
 
+/** A copy of the demo without its process.csv, its materials back on factors.csv rows (for tests that write their own). */
+export async function demoWithoutProcesses(): Promise<string> {
+  const dir = await demoCopy();
+  await rm(path.join(dir, 'process.csv'));
+  const materials = path.join(dir, 'materials.csv');
+  await writeFile(materials, (await readFile(materials, 'utf8')).replace('process:glenmoor-potline', 'al-primary-ingot').replace('process:redcliff-tankhouse', 'cu-cathode-primary'));
+  return dir;
+}
+
 /** Rewrites one physical line (1-based) of a file; fails loudly if the text to replace is not there. */
 export async function editLine(file: string, line: number, from: string, to: string): Promise<void> {
   const text = await readFile(file, 'utf8');

@@ -153,7 +153,7 @@ export class CalcContext {
           }
           if (input.startsWith('ref:')) {
             const name = input.slice('ref:'.length);
-            const refId = `${base}/reference/${name}`;
+            const refId = `reference/process/${processId}/${name}`;
             if (!graph.get(refId)) {
               const ref = processReference(name, definition.values);
               if (!ref) throw new Error(`process ${processId}: no reference value ${name}`);
@@ -175,7 +175,7 @@ export class CalcContext {
         id: factorNodeId,
         values,
         formula: 'F = Σ flows (amount per t / 1000 kg)·F(flow)',
-        description: `Factor per kg of ${definition.kind === 'electrolysis-aluminium' ? 'aluminium' : String(definition.values.metal)} from the operating data of process ${processId} (${definition.kind})${result.notes.length ? `; ${result.notes.join(' ')}` : ''}.`,
+        description: `Factor per kg of ${definition.kind === 'electrolysis-aluminium' ? 'aluminium' : String(definition.values.metal)} from the operating data of process ${processId} (${definition.kind})${result.notes.length ? `; ${result.notes.map((note) => note.replace(/\.$/, '')).join('; ')}` : ''}.`,
         terms,
       });
     };

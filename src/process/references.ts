@@ -23,7 +23,7 @@ export function processReference(name: string, values: Record<string, number | s
       return molar('C');
     case 'M_Al2O3':
       return molar('Al2O3');
-    case '44/12':
+    case 'CO2_per_C':
       return { value: CO2_PER_C_IPCC, unit: 't CO2 per t C', description: 'CO2/C molar mass ratio as the IPCC 2006 Guidelines use it (44/12).' };
     case 'tier1':
       return technology ? { value: TIER1_CO2_T_PER_T[technology], unit: 't CO2/t Al', description: `IPCC Tier 1 default emission factor for ${technology}, ${SMELTING_SOURCE} (from memory of the table).` } : undefined;

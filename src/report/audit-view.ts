@@ -172,7 +172,7 @@ function fileLines(project: Project): Map<string, string[]> {
   if (cached) return cached;
   const lines = new Map<string, string[]>();
   linesCache.set(project, lines);
-  for (const table of [project.products, project.bom, project.materials, project.eol, project.activities, project.transport, project.factors]) lines.set(table.file, table.csv.text.split('\n'));
+  for (const table of [project.products, project.bom, project.materials, project.eol, project.activities, project.transport, project.factors, project.process]) lines.set(table.file, table.csv.text.split('\n'));
   lines.set(project.declarationFile.file, project.declarationFile.text.replace(/\r\n?/g, '\n').split('\n'));
   return lines;
 }

@@ -133,7 +133,10 @@ describe('the figure graph', () => {
     const bom = (await readFile(path.join(DEMO, 'bom.csv'), 'utf8')).split('\n')[2];
     expect(bom).toContain(',0.83,30%,45%,0.15,');
     const a1 = r.figures['cutoff/A1/line:L1/GWP-total']!;
-    expect(a1.terms).toContainEqual({ file: 'factors.csv', line: 3, column: 'GWP-total', value: '11.85' });
+    // Recycled share at al-remelted-ingot (factors.csv line 4); the virgin share comes from the demo smelter in process.csv.
+    expect(a1.terms).toContainEqual({ file: 'factors.csv', line: 4, column: 'GWP-total', value: (await readFile(path.join(DEMO, 'factors.csv'), 'utf8')).split('\n')[3]!.split(',')[5] });
+    expect(a1.terms).toContain('process/glenmoor-potline/factor/GWP-total');
+    expect(r.figures['process/glenmoor-potline/cell_voltage_v'] ?? r.figures['process/glenmoor-potline/dc_floor_kwh_per_t']!.terms).toContainEqual({ file: 'process.csv', line: 4, column: 'value', value: '4.25' });
   });
 });
 

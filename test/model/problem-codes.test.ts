@@ -54,7 +54,7 @@ const cases: Case[] = [
   { code: 'EOL_SCENARIO_GAP', plant: (d) => editLine(at(d, 'eol.csv'), 8, 'steel-construction,zinc', 'steel-construction,tin'), expected: { file: 'products.csv', line: 5, column: 'eol_scenario' } },
   { code: 'UNIT_MASS_MISMATCH', plant: (d) => editLine(at(d, 'products.csv'), 5, ',0.46,', ',0.5,'), expected: { file: 'products.csv', line: 5, column: 'unit_mass_kg', value: '0.5' } },
   { code: 'NO_BOM_LINES', plant: (d) => editFile(at(d, 'products.csv'), (t) => `${t}KV-NEW,New product,1 kg,1,building-metals,\n`), expected: { file: 'products.csv', line: 6, column: 'product_id' } },
-  { code: 'FACTOR_REQUIRED', plant: (d) => editLine(at(d, 'materials.csv'), 3, 'al-primary-ingot,al-remelted-ingot,', 'al-primary-ingot,,'), expected: { file: 'materials.csv', line: 3, column: 'recycled' } },
+  { code: 'FACTOR_REQUIRED', plant: (d) => editLine(at(d, 'materials.csv'), 3, 'process:glenmoor-potline,al-remelted-ingot,', 'process:glenmoor-potline,,'), expected: { file: 'materials.csv', line: 3, column: 'recycled' } },
   { code: 'FACTOR_VALUE_MISSING', plant: async () => undefined, expected: { file: 'factors.csv', line: 23, column: 'ODP', severity: 'warning' } },
   {
     code: 'INDICATOR_NO_DATA',

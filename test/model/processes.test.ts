@@ -3,14 +3,14 @@ import { writeFile } from 'node:fs/promises';
 import path from 'node:path';
 import { loadProject } from '../../src/model/project.ts';
 import type { Problem } from '../../src/problems.ts';
-import { demoCopy, removeDir } from '../helpers.ts';
+import { demoWithoutProcesses, removeDir } from '../helpers.ts';
 
 const dirs: string[] = [];
 afterAll(async () => Promise.all(dirs.map((d) => removeDir(path.dirname(d)))));
 
 /** The demo with a process.csv of these rows (header on line 1, rows from line 2). */
 async function withProcess(rows: string[], delimiter = ','): Promise<Awaited<ReturnType<typeof loadProject>>> {
-  const dir = await demoCopy();
+  const dir = await demoWithoutProcesses();
   dirs.push(dir);
   await writeFile(path.join(dir, 'process.csv'), [['process_id', 'kind', 'parameter', 'value', 'unit', 'source'].join(delimiter), ...rows].join('\n') + '\n');
   return loadProject(dir);
@@ -18,9 +18,17 @@ async function withProcess(rows: string[], delimiter = ','): Promise<Awaited<Ret
 const processProblems = (problems: Problem[]) => problems.filter((p) => p.file === 'process.csv');
 
 describe('process.csv', () => {
-  it('is optional: the demo has none and loads without it', async () => {
-    const { project } = await loadProject(path.resolve('data'));
+  it('is optional: a project without it loads', async () => {
+    const dir = await demoWithoutProcesses();
+    dirs.push(dir);
+    const { project, problems } = await loadProject(dir);
+    expect(problems.filter((p) => p.severity === 'error')).toEqual([]);
     expect(project?.processes).toEqual([]);
+  });
+
+  it('the demo has two invented plants, a smelter and a tank house', async () => {
+    const { project } = await loadProject(path.resolve('data'));
+    expect(project?.processes.map((p) => `${p.id} ${p.kind}`)).toEqual(['glenmoor-potline electrolysis-aluminium', 'redcliff-tankhouse electrowinning']);
   });
 
   it('reads each process with typed parameters: shares as 0.95 or 95 %, words, families by name', async () => {

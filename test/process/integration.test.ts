@@ -7,7 +7,7 @@ import { rowsByProduct } from '../../src/model/by-product.ts';
 import { loadProject } from '../../src/model/project.ts';
 import { indicatorValue } from '../../src/model/types.ts';
 import { resultsJson, type TermJson } from '../../src/report/results.ts';
-import { demoCopy, editFile, removeDir } from '../helpers.ts';
+import { demoWithoutProcesses, editFile, removeDir } from '../helpers.ts';
 
 const dirs: string[] = [];
 afterAll(async () => Promise.all(dirs.map((d) => removeDir(path.dirname(d)))));
@@ -28,7 +28,7 @@ const POTLINE = [
 
 /** The demo with a smelter whose aluminium is the virgin input of al-6060. */
 async function smelterProject() {
-  const dir = await demoCopy();
+  const dir = await demoWithoutProcesses();
   dirs.push(dir);
   await writeFile(path.join(dir, 'process.csv'), `${POTLINE.join('\n')}\n`);
   // Two more factor rows: copies of an existing mass factor under new ids (values illustrative).
@@ -88,7 +88,7 @@ describe('a process of process.csv as a factor', () => {
   });
 
   it('refuses a process that names no factor for a flow, and a factor id that does not exist', async () => {
-    const dir = await demoCopy();
+    const dir = await demoWithoutProcesses();
     dirs.push(dir);
     await writeFile(path.join(dir, 'process.csv'), `${POTLINE.slice(0, 8).join('\n')}\npotline-1,electrolysis-aluminium,electricity_factor,grid-electricty,,\n`);
     const { problems } = await loadProject(dir);
