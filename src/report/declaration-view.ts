@@ -5,7 +5,8 @@ import { findIndicator, type IndicatorGroup } from '../reference/indicators.ts';
 import { LIFE_CYCLE_MODULES } from '../reference/modules.ts';
 import { barChart, type ChartDatum, type ChartView } from './charts.ts';
 import { figureHref } from './figure-links.ts';
-import { formatScientific, formatShare } from './format.ts';
+import { formatInput, formatScientific, formatShare } from './format.ts';
+import { toNullable } from '../calc/vector.ts';
 import type { ResultsSummary } from './results.ts';
 
 /**
@@ -33,9 +34,23 @@ export interface DeclarationResultsView {
   biogenic: Array<{ label: string; carbon: FigureCell; co2: FigureCell }>;
   comparison: { indicators: Array<{ code: string; unit: string }>; rows: Array<{ method: string; name: string; rewards: string; scope: string; cells: FigureCell[] }> };
   charts: ChartView[];
+  /** The declarant's own processes this product's figures rest on (process.csv). */
+  processes: ProcessModelView[];
   /** Headline figures for the catalogue. */
   headline: { a1a3: FigureCell; moduleD: FigureCell; recycledContent: FigureCell; a1a3Value: string; moduleDValue: string; recycledValue: string };
 }
+
+export interface ProcessModelView {
+  id: string;
+  kind: string;
+  description: string;
+  steps: Array<{ name: string; value: FigureCell; unit: string; formula: string; description: string }>;
+  factor: Array<{ code: string; unit: string; cell: FigureCell }>;
+}
+
+/** Beside every process model (field guide §6; the issue's caution). */
+export const PROCESS_CAUTION =
+  'Emission figures computed here from operating data serve this declaration. Emission figures for regulatory reporting must follow the monitoring rules of the jurisdiction and be verified by an accredited body; this tool supports, and does not replace, that practice.';
 
 const GROUPS: Array<{ group: IndicatorGroup; title: string; caption: string }> = [
   { group: 'core', title: 'Core environmental impact indicators', caption: 'EN 15804+A2 core impact indicators.' },
@@ -135,7 +150,9 @@ export function declarationResultsView(ctx: CalcContext, rows: ProductRows, resu
   };
 
   const charts = hasHeadline ? chartsOf(ctx, rows, result, json, headlineCode, sci) : [];
-  return { significantFigures: digits, boundary, modules, tables, recycledContent, biogenic, comparison: { ...comparison, rows: [...comparison.rows, ...(moduleDRow.length ? [{ method: 'cutoff-d', name: 'Module D (beside cut-off)', rewards: 'Net benefit and load of recycling and recovery beyond the system boundary; not added to any total.', scope: 'module D', cells: moduleDRow }] : [])] }, charts, headline };
+  const processes = processModels(ctx, result, sci);
+  return {
+    processes, significantFigures: digits, boundary, modules, tables, recycledContent, biogenic, comparison: { ...comparison, rows: [...comparison.rows, ...(moduleDRow.length ? [{ method: 'cutoff-d', name: 'Module D (beside cut-off)', rewards: 'Net benefit and load of recycling and recovery beyond the system boundary; not added to any total.', scope: 'module D', cells: moduleDRow }] : [])] }, charts, headline };
 }
 
 function chartsOf(ctx: CalcContext, rows: ProductRows, result: ProductResult, json: ResultsSummary, code: string, sci: (v: number | null | undefined) => string): ChartView[] {
@@ -170,4 +187,27 @@ function chartsOf(ctx: CalcContext, rows: ProductRows, result: ProductResult, js
     { id: 'chart-methods', title: `${code} under each recycling method`, alt: `Bar chart of ${code} under each method: ${finite(methods).map((d) => `${d.label} ${sci(d.value)}`).join(', ')} ${unit}.`, unit, data: finite(methods), first: 'Method', groups: ['Method total', 'Module D (reported apart)'] },
   ];
   return charts.map(({ first, groups, ...chart }) => ({ ...chart, table: tableOf(chart.data, first), spec: barChart(chart.data, `${code} (${unit})`, groups) }));
+}
+
+/** The process models a product's graph holds: each step of the derivation and the factor it yields, linked to the audit trail. */
+function processModels(ctx: CalcContext, result: ProductResult, sci: (v: number | null | undefined) => string): ProcessModelView[] {
+  const views: ProcessModelView[] = [];
+  for (const definition of ctx.project.processes) {
+    const base = `process/${definition.id}/`;
+    const factorNode = result.graph.get(`${base}factor`);
+    if (!factorNode || factorNode.kind !== 'vector') continue;
+    const steps: ProcessModelView['steps'] = [];
+    for (const node of result.graph.nodes.values()) {
+      if (node.kind !== 'scalar' || !node.id.startsWith(base)) continue;
+      steps.push({ name: node.id.slice(base.length), value: { text: formatInput(node.value), href: figureHref(node.id) }, unit: node.unit, formula: node.formula, description: node.description });
+    }
+    views.push({
+      id: definition.id,
+      kind: definition.kind,
+      description: factorNode.description,
+      steps,
+      factor: ctx.indicators.map((code, i) => ({ code, unit: `${findIndicator(code)!.unit} per kg`, cell: { text: sci(toNullable(factorNode.values[i]!)), href: figureHref(`${factorNode.id}/${code}`) } })),
+    });
+  }
+  return views;
 }

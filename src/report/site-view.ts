@@ -7,9 +7,10 @@ import { findIndicator } from '../reference/indicators.ts';
 import { TOOL_NAME, TOOL_VERSION } from '../reference/tool.ts';
 import { formatInput, formatShare } from './format.ts';
 import type { AuditView } from './audit-view.ts';
-import type { DeclarationResultsView } from './declaration-view.ts';
+import { PROCESS_CAUTION, type DeclarationResultsView } from './declaration-view.ts';
 import type { ResultsSummary } from './results.ts';
 import { AUDIT_PAGE, fragment, inputAnchor } from './figure-links.ts';
+import { PROCESS_PREFIX } from '../schema/process-parameters.ts';
 
 /** What the site shows of one product's results, taken while its figure graph is alive. */
 export interface ProductReport {
@@ -91,6 +92,8 @@ export interface SiteView {
     illustrative: boolean;
   };
   cautions: string[];
+  /** Beside every process model. */
+  processCaution: string;
   /** Whether this build prints PDFs (pages link to them only then). */
   pdfs: boolean;
   methodology: Array<{ title: string; paragraphs: string[] }>;
@@ -200,6 +203,7 @@ export function buildSiteView(project: Project, problems: readonly Problem[], op
       illustrative: d.illustrative,
     },
     cautions: CAUTIONS,
+    processCaution: PROCESS_CAUTION,
     pdfs: options.pdfs ?? false,
     products,
     methodology: methodology(project),
@@ -352,6 +356,20 @@ function productView(project: Project, rows: ProductRows, report: ProductReport 
       empty: 'No factors.',
     },
   ];
+  const processIds = new Set([...factorIds].filter((id) => id.startsWith(PROCESS_PREFIX)).map((id) => id.slice(PROCESS_PREFIX.length)));
+  const processRows = project.process.rows.filter((row) => processIds.has(row.value.process_id));
+  if (processRows.length > 0) {
+    tables.push({
+      title: 'Process data',
+      caption: 'Operating data of the processes this product’s factors are derived from (process.csv), one parameter a row.',
+      headers: [{ text: 'Process' }, { text: 'Kind' }, { text: 'Parameter' }, { text: 'Value', numeric: true }, { text: 'Unit' }, { text: 'Source' }],
+      rows: processRows.map((row) => ({
+        source: sourceOf(project.process, row),
+        cells: [txt(row.value.process_id), txt(row.value.kind), txt(row.value.parameter), { text: row.value.value, numeric: true }, txt(row.value.unit), txt(row.value.source)],
+      })),
+      empty: '',
+    });
+  }
   if (gases.length > 0) {
     tables.push({
       title: 'Built-in greenhouse gases used',

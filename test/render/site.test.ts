@@ -123,3 +123,25 @@ describe('a verified declaration', () => {
     expect(await readFile(path.join(out, 'KV-EXT-6060', 'index.html'), 'utf8')).toContain('verified by A. Verifier (fictional) on 2026-04-01');
   });
 });
+
+describe('the process model on a declaration', () => {
+  it('shows each process the product rests on, its derivation, its factor and the regulatory caution', async () => {
+    const dir = await tempDir();
+    dirs.push(dir);
+    const out = path.join(dir, 'out');
+    const result = await runCli(['build', '--data', DEMO, '--out', out, '--no-pdf']);
+    expect(result.code, result.stderr).toBe(0);
+    const aluminium = await readFile(path.join(out, 'KV-EXT-6060', 'index.html'), 'utf8');
+    expect(aluminium).toContain('<h2>Process model</h2>');
+    expect(aluminium).toContain('glenmoor-potline (electrolysis-aluminium)');
+    expect(aluminium).toContain('must follow the monitoring rules of the jurisdiction and be verified by an accredited body');
+    expect(aluminium).toContain('href="audit.html#process/glenmoor-potline/factor/GWP-total"');
+    expect(aluminium).toContain('IPCC 2006 Tier 2, prebake equation');
+    // Its operating data are listed with the inputs, each row with its place in process.csv.
+    expect(aluminium).toContain('process.csv:4');
+    const copper = await readFile(path.join(out, 'KV-CU-BB10', 'index.html'), 'utf8');
+    expect(copper).toContain('redcliff-tankhouse (electrowinning)');
+    // The steel bracket rests on no process of its own.
+    expect(await readFile(path.join(out, 'KV-BR-40', 'index.html'), 'utf8')).not.toContain('Process model');
+  });
+});
