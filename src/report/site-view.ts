@@ -439,6 +439,17 @@ export function methodology(project: Project): Array<{ title: string; paragraphs
         'Data quality ratings (pedigree scores) are not part of the inputs of this version; the source column of each input row and the dataset of each factor row are shown instead, and the verifier judges their representativeness.',
       ],
     },
+    ...(project.processes.length > 0
+      ? [
+          {
+            title: 'Process models',
+            paragraphs: [
+              `Primary metal from ${project.processes.length === 1 ? 'one process' : `${project.processes.length} processes`} of the declarant or its suppliers is modelled from operating data (process.csv: ${project.processes.map((p) => `${p.id}, ${p.kind}`).join('; ')}): electricity by Faraday’s law (F from CODATA 2018, molar masses from the IUPAC standard atomic weights) or as measured above the Faraday floor; anode CO2, PFCs and carbon balances by the IPCC 2006 Guidelines, Vol. 3, Ch. 4; stoichiometric floors from the balanced cell reactions. Each product page shows the derivation and the tier used.`,
+              PROCESS_CAUTION,
+            ],
+          },
+        ]
+      : []),
     {
       title: 'Assumptions',
       paragraphs: [
