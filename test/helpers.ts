@@ -69,6 +69,13 @@ export function runCli(args: string[], options: { cwd?: string; env?: NodeJS.Pro
   });
 }
 
+/** Builds a data folder (the demo by default) into a fresh output folder, as a user would; `dir` is for cleanup. */
+export async function buildFresh(data = DEMO, extra: string[] = ['--no-pdf']): Promise<{ dir: string; out: string; result: CliResult }> {
+  const dir = await tempDir();
+  const out = path.join(dir, 'out');
+  return { dir, out, result: await runCli(['build', '--data', data, '--out', out, ...extra]) };
+}
+
 /** SHA-256 of every file under a folder, by relative path. */
 export async function hashTree(dir: string): Promise<Record<string, string>> {
   const result: Record<string, string> = {};

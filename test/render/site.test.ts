@@ -4,7 +4,7 @@ import { readFile, stat } from 'node:fs/promises';
 import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { findBrowser } from '../../src/render/browser.ts';
-import { DEMO, demoCopy, editFile, removeDir, runCli, tempDir } from '../helpers.ts';
+import { DEMO, buildFresh, demoCopy, editFile, removeDir, runCli, tempDir } from '../helpers.ts';
 
 const dirs: string[] = [];
 afterAll(async () => Promise.all(dirs.map(removeDir)));
@@ -126,10 +126,8 @@ describe('a verified declaration', () => {
 
 describe('the process model on a declaration', () => {
   it('shows each process the product rests on, its derivation, its factor and the regulatory caution', async () => {
-    const dir = await tempDir();
+    const { dir, out, result } = await buildFresh();
     dirs.push(dir);
-    const out = path.join(dir, 'out');
-    const result = await runCli(['build', '--data', DEMO, '--out', out, '--no-pdf']);
     expect(result.code, result.stderr).toBe(0);
     const aluminium = await readFile(path.join(out, 'KV-EXT-6060', 'index.html'), 'utf8');
     expect(aluminium).toContain('<h2>Process model</h2>');

@@ -2,7 +2,7 @@ import { afterAll, describe, expect, it } from 'vitest';
 import { createHash } from 'node:crypto';
 import { readFile } from 'node:fs/promises';
 import path from 'node:path';
-import { DEMO, hashTree, removeDir, runCli, tempDir } from '../helpers.ts';
+import { DEMO, buildFresh, hashTree, removeDir } from '../helpers.ts';
 
 const dirs: string[] = [];
 afterAll(async () => Promise.all(dirs.map(removeDir)));
@@ -17,10 +17,8 @@ interface Manifest {
 
 describe('the verification pack', () => {
   it('copies every input and records the SHA-256 of every input, the configuration and every other output', async () => {
-    const dir = await tempDir();
+    const { dir, out, result } = await buildFresh();
     dirs.push(dir);
-    const out = path.join(dir, 'out');
-    const result = await runCli(['build', '--data', DEMO, '--out', out, '--no-pdf']);
     expect(result.code, result.stderr).toBe(0);
     const manifest = JSON.parse(await readFile(path.join(out, 'verification', 'manifest.json'), 'utf8')) as Manifest;
     const pkg = JSON.parse(await readFile(path.join(DEMO, '..', 'package.json'), 'utf8')) as { version: string };
@@ -51,10 +49,8 @@ describe('the verification pack', () => {
   });
 
   it('lists every assumption, data source and warning of the build on its page', async () => {
-    const dir = await tempDir();
+    const { dir, out, result } = await buildFresh();
     dirs.push(dir);
-    const out = path.join(dir, 'out');
-    const result = await runCli(['build', '--data', DEMO, '--out', out, '--no-pdf']);
     expect(result.code).toBe(0);
     const page = await readFile(path.join(out, 'verification', 'index.html'), 'utf8');
     for (const text of ['Assumptions', 'loopsheet illustrative factor set', 'FACTOR_VALUE_MISSING', 'factors.csv', 'manifest.json', 'not verified']) expect(page).toContain(text);
