@@ -6,7 +6,7 @@ import { findIndicator } from '../reference/indicators.ts';
 import { conversionFactor } from '../reference/units.ts';
 import { jsonPath, locate } from '../load/json.ts';
 import { cellTerm, factorTerm, figureTerm, type CellRef, type FigureGraph, type Term } from '../trace/graph.ts';
-import { flowFactor, runProcess } from '../process/run.ts';
+import { flowFactor } from '../process/run.ts';
 import { processReference } from '../process/references.ts';
 import { PROCESS_PREFIX } from '../schema/process-parameters.ts';
 import type { Vec } from './vector.ts';
@@ -129,7 +129,7 @@ export class CalcContext {
     const processId = id.slice(PROCESS_PREFIX.length);
     const definition = this.project.processes.find((process) => process.id === processId);
     if (!definition) throw new Error(`process ${processId} not in the validated project`);
-    const result = runProcess(definition);
+    const { result } = definition;
     const base = `process/${processId}`;
     const flows = result.inventory.map((flow) => {
       const factorId = flowFactor(definition, flow.flow).factor!;

@@ -9,6 +9,7 @@ import { PROCESS_PARAMETERS, type ParameterSpec } from '../schema/process-parame
 import type { RowOf } from '../schema/csv-file.ts';
 import type { Row, Table } from '../schema/table.ts';
 import { flowFactor, runProcess } from '../process/run.ts';
+import type { ProcessResult } from '../process/steps.ts';
 
 export type ProcessRow = RowOf<typeof processCsv>;
 
@@ -22,6 +23,8 @@ export interface ProcessDefinition {
   /** Family parameters, `reagent:<factor>` → value. */
   families: Record<string, Record<string, number | string>>;
   rows: Map<string, Row<ProcessRow>>;
+  /** Its calculator's derivation and inventory, computed once at validation. */
+  result: ProcessResult;
 }
 
 /** The cell schema of a parameter's value, from its spec (the same cells every input file uses). */
@@ -138,9 +141,10 @@ export function readProcesses(table: Table<ProcessRow>): { processes: ProcessDef
       }
     }
     if (!ok || !parsed.success) continue;
-    const definition: ProcessDefinition = { id, kind, first, values: parsed.data as Record<string, number | string>, families, rows: rowOf };
+    const input = { kind, values: parsed.data as Record<string, number | string>, families };
     // Operating data below a physical or stoichiometric floor are refused here, at their row, not computed.
-    const result = runProcess(definition);
+    const result = runProcess(input);
+    const definition: ProcessDefinition = { id, first, rows: rowOf, result, ...input };
     for (const flow of result.inventory) {
       const { factor, parameter } = flowFactor(definition, flow.flow);
       if (factor === undefined) {

@@ -3,6 +3,7 @@ import type { ProductResult } from '../calc/product.ts';
 import type { FigureGraph, FigureNode, Term } from '../trace/graph.ts';
 import { fragment, inputAnchor } from './figure-links.ts';
 import { formatInput } from './format.ts';
+import { physicalLines } from './written.ts';
 
 /**
  * The audit trail of one product, as one page: every figure of its graph with formula,
@@ -78,7 +79,7 @@ const local = (id: string): string => `#${fragment(id)}`;
 
 export function auditView(project: Project, result: ProductResult): AuditView {
   const { graph } = result;
-  const texts = fileLines(project);
+  const files = inputFiles(project);
   const usedBy = new Map<string, string[]>();
   const inputs = new Map<string, { file: string; line: number; users: string[] }>();
   const useInput = (file: string, line: number, nodeId: string) => {
@@ -114,7 +115,7 @@ export function auditView(project: Project, result: ProductResult): AuditView {
       anchor,
       line: entry.line,
       label: `${entry.file}:${entry.line}`,
-      written: texts.get(entry.file)?.[entry.line - 1] ?? '',
+      written: (files.has(entry.file) ? physicalLines(files.get(entry.file)!) : [])[entry.line - 1] ?? '',
       usedBy: entry.users.map((id) => ({ text: id, href: local(id) })),
     });
   }
@@ -165,14 +166,10 @@ function termView(graph: FigureGraph, term: Term): AuditTerm {
   }
 }
 
-/** Each input file's physical lines, to show a row exactly as it appears in the file; split once per project, not per product. */
-const linesCache = new WeakMap<Project, Map<string, string[]>>();
-function fileLines(project: Project): Map<string, string[]> {
-  const cached = linesCache.get(project);
-  if (cached) return cached;
-  const lines = new Map<string, string[]>();
-  linesCache.set(project, lines);
-  for (const table of [project.products, project.bom, project.materials, project.eol, project.activities, project.transport, project.factors, project.process]) lines.set(table.file, table.csv.text.split('\n'));
-  lines.set(project.declarationFile.file, project.declarationFile.text.replace(/\r\n?/g, '\n').split('\n'));
-  return lines;
+/** Each input file by name, to show a row exactly as it appears in it. */
+function inputFiles(project: Project): Map<string, { text: string }> {
+  const files = new Map<string, { text: string }>();
+  for (const table of [project.products, project.bom, project.materials, project.eol, project.activities, project.transport, project.factors, project.process]) files.set(table.file, table.csv);
+  files.set(project.declarationFile.file, project.declarationFile);
+  return files;
 }

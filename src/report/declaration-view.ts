@@ -134,9 +134,19 @@ export function declarationResultsView(ctx: CalcContext, rows: ProductRows, resu
         ...METHOD_SENTENCES[method]!,
         cells: compared.map((code) => cell(json.methods[method as 'cff']!.total[code], `${r!.total}/${code}`)),
       })),
+      ...(compared.length > 0
+        ? [
+            {
+              method: 'cutoff-d',
+              name: 'Module D (beside cut-off)',
+              rewards: 'Net benefit and load of recycling and recovery beyond the system boundary; not added to any total.',
+              scope: 'module D',
+              cells: compared.map((code) => cell(cutoff.modules.D?.[code], `${result.cutoff.modules.D}/${code}`, true)),
+            },
+          ]
+        : []),
     ],
   };
-  const moduleDRow = compared.length > 0 ? compared.map((code) => cell(cutoff.modules.D?.[code], `${result.cutoff.modules.D}/${code}`, true)) : [];
 
   const headlineCode = 'GWP-total';
   const hasHeadline = ctx.indicators.includes(headlineCode);
@@ -150,9 +160,7 @@ export function declarationResultsView(ctx: CalcContext, rows: ProductRows, resu
   };
 
   const charts = hasHeadline ? chartsOf(ctx, rows, result, json, headlineCode, sci) : [];
-  const processes = processModels(ctx, result, sci);
-  return {
-    processes, significantFigures: digits, boundary, modules, tables, recycledContent, biogenic, comparison: { ...comparison, rows: [...comparison.rows, ...(moduleDRow.length ? [{ method: 'cutoff-d', name: 'Module D (beside cut-off)', rewards: 'Net benefit and load of recycling and recovery beyond the system boundary; not added to any total.', scope: 'module D', cells: moduleDRow }] : [])] }, charts, headline };
+  return { significantFigures: digits, boundary, modules, tables, recycledContent, biogenic, comparison, charts, processes: processModels(ctx, result, sci), headline };
 }
 
 function chartsOf(ctx: CalcContext, rows: ProductRows, result: ProductResult, json: ResultsSummary, code: string, sci: (v: number | null | undefined) => string): ChartView[] {
@@ -191,21 +199,23 @@ function chartsOf(ctx: CalcContext, rows: ProductRows, result: ProductResult, js
 
 /** The process models a product's graph holds: each step of the derivation and the factor it yields, linked to the audit trail. */
 function processModels(ctx: CalcContext, result: ProductResult, sci: (v: number | null | undefined) => string): ProcessModelView[] {
+  // One pass over the graph: the scalar steps of each process, by process id.
+  const stepsOf = new Map<string, ProcessModelView['steps']>();
+  for (const node of result.graph.nodes.values()) {
+    if (node.kind !== 'scalar' || !node.id.startsWith('process/')) continue;
+    const [, processId, ...name] = node.id.split('/');
+    if (!stepsOf.has(processId!)) stepsOf.set(processId!, []);
+    stepsOf.get(processId!)!.push({ name: name.join('/'), value: { text: formatInput(node.value), href: figureHref(node.id) }, unit: node.unit, formula: node.formula, description: node.description });
+  }
   const views: ProcessModelView[] = [];
   for (const definition of ctx.project.processes) {
-    const base = `process/${definition.id}/`;
-    const factorNode = result.graph.get(`${base}factor`);
+    const factorNode = result.graph.get(`process/${definition.id}/factor`);
     if (!factorNode || factorNode.kind !== 'vector') continue;
-    const steps: ProcessModelView['steps'] = [];
-    for (const node of result.graph.nodes.values()) {
-      if (node.kind !== 'scalar' || !node.id.startsWith(base)) continue;
-      steps.push({ name: node.id.slice(base.length), value: { text: formatInput(node.value), href: figureHref(node.id) }, unit: node.unit, formula: node.formula, description: node.description });
-    }
     views.push({
       id: definition.id,
       kind: definition.kind,
       description: factorNode.description,
-      steps,
+      steps: stepsOf.get(definition.id) ?? [],
       factor: ctx.indicators.map((code, i) => ({ code, unit: `${findIndicator(code)!.unit} per kg`, cell: { text: sci(toNullable(factorNode.values[i]!)), href: figureHref(`${factorNode.id}/${code}`) } })),
     });
   }

@@ -10,6 +10,7 @@ import type { AuditView } from './audit-view.ts';
 import { PROCESS_CAUTION, type DeclarationResultsView } from './declaration-view.ts';
 import type { ResultsSummary } from './results.ts';
 import { AUDIT_PAGE, fragment, inputAnchor } from './figure-links.ts';
+import { physicalLines } from './written.ts';
 import { PROCESS_PREFIX } from '../schema/process-parameters.ts';
 
 /** What the site shows of one product's results, taken while its figure graph is alive. */
@@ -117,15 +118,8 @@ export const CAUTIONS = [
   'Emission figures used for regulatory reporting must follow the monitoring rules of the jurisdiction and be checked by an accredited verifier; this tool supports, and does not replace, that practice.',
 ];
 
-/** Each file's physical lines, split once per file (not once per row). */
-const linesCache = new WeakMap<object, string[]>();
-
 function sourceOf(table: Table<unknown>, row: { line: number; lineEnd: number }): SourceRef {
-  let lines = linesCache.get(table.csv);
-  if (!lines) {
-    lines = table.csv.text.split('\n');
-    linesCache.set(table.csv, lines);
-  }
+  const lines = physicalLines(table.csv);
   return {
     label: `${table.file}:${row.line}`,
     file: table.file,
