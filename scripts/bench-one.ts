@@ -94,13 +94,14 @@ async function outputSizes(dir: string): Promise<{ total: number; audit: number 
  * printed by a bare puppeteer loop with the same page settings and nothing else.
  */
 async function measurePdfs(dir: string, ids: string[]): Promise<{ count: number; toolMs: number; floorMs: number }> {
+  const { declarationPdfJobs } = await import('../src/render/pdf.ts');
   const { findBrowser, CHROMIUM_ARGS } = await import('../src/render/browser.ts');
   const { printPdfs } = await import('../src/render/pdf.ts');
   const puppeteer = (await import('puppeteer')).default;
   const { pathToFileURL } = await import('node:url');
   const found = await findBrowser();
   if (!found) return { count: 0, toolMs: 0, floorMs: 0 };
-  const jobs = ids.map((id) => ({ html: path.join(dir, id, 'index.html'), pdf: path.join(dir, id, 'declaration.pdf'), title: id, status: 'DRAFT — not verified' }));
+  const jobs = declarationPdfJobs(project!, dir, ids.map((id) => ({ id, name: id })));
   const toolStart = performance.now();
   await printPdfs(found, dir, jobs);
   const toolMs = performance.now() - toolStart;

@@ -1,9 +1,8 @@
-import path from 'node:path';
 import { loadProject } from '../model/project.ts';
 import { hasErrors } from '../problems.ts';
 import { findBrowser } from '../render/browser.ts';
 import { checkOutputDir, withStagedOutput } from '../render/output.ts';
-import { printPdfs } from '../render/pdf.ts';
+import { declarationPdfJobs, printPdfs } from '../render/pdf.ts';
 import { buildSite } from '../render/build-site.ts';
 import { EXIT, type Io } from './io.ts';
 import { printProblems } from './report-problems.ts';
@@ -37,14 +36,7 @@ export async function runBuild(options: BuildOptions, io: Io): Promise<number> {
     await copyInputs(project.dir, staging, inputs);
     const catalogue = await buildSite(project, problems, staging, { inputs, pdfs: browser !== undefined });
     productCount = catalogue.length;
-    const verification = project.declaration.verification;
-    const jobs = catalogue.map((product) => ({
-      html: path.join(staging, product.id, 'index.html'),
-      pdf: path.join(staging, product.id, 'declaration.pdf'),
-      title: `${product.name} (${product.id})`,
-      status: verification.status === 'verified' ? `verified ${verification.date ?? ''}` : 'DRAFT — not verified',
-      ...(project.declaration.illustrative ? { footnote: 'Illustrative data: invented values, not a real dataset' } : {}),
-    }));
+    const jobs = declarationPdfJobs(project, staging, catalogue);
     if (browser) {
       io.err(`PDF: using ${browser.executablePath} (found via ${browser.how})`);
       await printPdfs(browser, staging, jobs);

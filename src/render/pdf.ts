@@ -1,7 +1,9 @@
+import { writeFile } from 'node:fs/promises';
 import path from 'node:path';
 import { pathToFileURL } from 'node:url';
 import puppeteer, { type Browser, type Page } from 'puppeteer';
 import { CHROMIUM_ARGS, type FoundBrowser } from './browser.ts';
+import type { Project } from '../model/types.ts';
 
 export interface PdfJob {
   /** The HTML page inside the build folder. */
@@ -12,6 +14,43 @@ export interface PdfJob {
   status: string;
   /** For the page footer of every page, e.g. that the data are illustrative. */
   footnote?: string;
+  /** The PDF's creation and modification date (`YYYY-MM-DD`, from declaration.json), never the clock. */
+  date: string;
+}
+
+/**
+ * Chromium stamps the PDF's info dictionary with the time of printing. The stamps are rewritten with the given
+ * date in the same PDF date form (ISO 32000-1 §7.9.4) and the same length, so the
+ * cross-reference offsets stay valid; the same inputs then give the same PDF bytes.
+ */
+export function reproduciblePdf(pdf: Uint8Array, isoDate: string): Buffer {
+  const match = /^(\d{4})-(\d{2})-(\d{2})$/.exec(isoDate);
+  if (!match) throw new Error(`PDF date ${isoDate}: expected YYYY-MM-DD`);
+  const stamp = `D:${match[1]}${match[2]}${match[3]}000000+00'00'`;
+  const text = Buffer.from(pdf).toString('latin1');
+  // Tagged-PDF structure elements carry ids made from the browser's DOM node counter, which
+  // runs on across the pages a pooled tab prints. They are renumbered from 1 in their own
+  // order, at the same width, so the /IDTree stays sorted and every reference consistent.
+  const nodeIds = [...new Set(text.match(/\(node\d{8}\)/g) ?? [])].sort();
+  const renumbered = new Map(nodeIds.map((id, k) => [id, `(node${String(k + 1).padStart(8, '0')})`]));
+  const stamped = text
+    .replace(/\/(CreationDate|ModDate) \(D:\d{14}[+\-Z]\d{2}'\d{2}'\)/g, (_whole, key: string) => `/${key} (${stamp})`)
+    .replace(/\(node\d{8}\)/g, (id) => renumbered.get(id)!);
+  if (stamped.length !== text.length) throw new Error('PDF date stamp changed the file length');
+  return Buffer.from(stamped, 'latin1');
+}
+
+/** One PDF per declaration page, with its running head (product, verification status) and footer. */
+export function declarationPdfJobs(project: Project, outDir: string, products: ReadonlyArray<{ id: string; name: string }>): PdfJob[] {
+  const { verification, illustrative, issued } = project.declaration;
+  return products.map((product) => ({
+    html: path.join(outDir, product.id, 'index.html'),
+    pdf: path.join(outDir, product.id, 'declaration.pdf'),
+    title: `${product.name} (${product.id})`,
+    status: verification.status === 'verified' ? `verified ${verification.date ?? ''}` : 'DRAFT — not verified',
+    ...(illustrative ? { footnote: 'Illustrative data: invented values, not a real dataset' } : {}),
+    date: issued,
+  }));
 }
 
 const PAGE_POOL = 2;
@@ -72,8 +111,7 @@ async function printOne(page: Page, job: PdfJob, browser: Browser, root: string)
         link.replaceWith(span);
       }
     });
-    await target.pdf({
-      path: job.pdf,
+    const pdf = await target.pdf({
       format: 'A4',
       printBackground: true,
       displayHeaderFooter: true,
@@ -82,6 +120,7 @@ async function printOne(page: Page, job: PdfJob, browser: Browser, root: string)
       margin: { top: '16mm', bottom: '16mm', left: '12mm', right: '12mm' },
       timeout: TIMEOUT_MS,
     });
+    await writeFile(job.pdf, reproduciblePdf(pdf, job.date));
   };
   try {
     await attempt(page);
