@@ -82,6 +82,42 @@ Exit 0 when the reaction balances, 1 when it does not, 2 when it cannot be read.
       return (await import('./chem.ts')).runChem({ reaction: positionals[0]!, per: str(values.per), unit, json: values.json === true }, io);
     },
   },
+  diff: {
+    summary: 'report which figures moved between two builds, and the input cells behind them',
+    usage: `loopsheet diff OLD NEW [--threshold 1%] [--format md|json] [--fail-over 5%]
+
+Compares two builds (two output folders, or two results.json files or folders of them):
+every product × method × module × indicator whose value changed by more than the threshold,
+with old, new, absolute and relative change, and the input cells that changed underneath it
+(found through the figure graphs of both builds; rows matched by their key columns, so a
+row that moved to another line is still the same row). Products added or removed are
+listed. Markdown is short enough to paste as a review comment; JSON lists every change.
+
+  --threshold SHARE  report changes larger than this (default 1%; 0 reports every change)
+  --format md|json   Markdown (default) or JSON on stdout
+  --fail-over SHARE  exit 1 when a headline figure (GWP-total of A1-A3, D and each method's
+                     total; recycled content) moved by more than this share
+
+Shares are written 1%, 0.5 % or 0.01. Exit 0, 1 over --fail-over, 2 usage errors.`,
+    options: { threshold: { type: 'string' }, format: { type: 'string' }, 'fail-over': { type: 'string' } },
+    positionals: { min: 2, max: 2 },
+    run: async (values, positionals, io) => {
+      const { parseShare, runDiff } = await import('./diff.ts');
+      const format = str(values.format) ?? 'md';
+      if (format !== 'md' && format !== 'json') throw new UsageError(`--format ${format}: expected md or json`);
+      const failOver = str(values['fail-over']);
+      return runDiff(
+        {
+          old: positionals[0]!,
+          new: positionals[1]!,
+          threshold: parseShare(str(values.threshold) ?? '1%', '--threshold'),
+          ...(failOver !== undefined ? { failOver: parseShare(failOver, '--fail-over') } : {}),
+          format,
+        },
+        io,
+      );
+    },
+  },
   init: {
     summary: 'scaffold a new data folder',
     usage: `loopsheet init DIR [--force]

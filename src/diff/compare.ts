@@ -1,0 +1,99 @@
+import type { ResultsSummary } from '../report/results.ts';
+
+/**
+ * Which published figures moved between two builds: every product × method × module (or
+ * part, or total) × indicator of the results contract, and the product flows. Pure: the
+ * summaries in, the changes out.
+ */
+export interface SummaryFigure {
+  /** The results.json figure id (`cutoff/A1-A3/GWP-total`, `flows/recycled_content/total`). */
+  figure: string;
+  method: string;
+  /** The module, CFF part, `total`, or the flow group. */
+  module: string;
+  /** The indicator code, or the flow's key. */
+  indicator: string;
+  unit: string;
+  value: number | null;
+}
+
+export interface FigureChange extends Omit<SummaryFigure, 'value'> {
+  product_id: string;
+  old: number | null;
+  new: number | null;
+  /** new − old; null when either side is null (a figure that became, or stopped being, incomplete). */
+  absolute: number | null;
+  /** (new − old) / |old|; null when old is 0 or either side is null. */
+  relative: number | null;
+  headline: boolean;
+}
+
+/**
+ * The figures a review looks at first and `--fail-over` guards: GWP-total under every
+ * method's total, the cut-off A1-A3 and module D columns, and the recycled content, as the
+ * catalogue shows them.
+ */
+export const HEADLINE_FIGURES: readonly string[] = [
+  'cutoff/A1-A3/GWP-total',
+  'cutoff/D/GWP-total',
+  'cutoff/total/GWP-total',
+  'cff/total/GWP-total',
+  'eol-recycling/total/GWP-total',
+  'fifty-fifty/total/GWP-total',
+  'flows/recycled_content/total',
+];
+
+const FLOW_UNITS: Record<string, string> = { recycled_content: 'share of gross input', biogenic_carbon_kg: 'kg C', biogenic_co2_kg: 'kg CO2' };
+
+/** Every number of a product's results, in contract order, with its figure id. */
+export function summaryFigures(summary: ResultsSummary): SummaryFigure[] {
+  const units = new Map(summary.indicators.map((indicator) => [indicator.code, indicator.unit]));
+  const figures: SummaryFigure[] = [];
+  const add = (method: string, module: string, values: Record<string, number | null>) => {
+    for (const [indicator, value] of Object.entries(values)) figures.push({ figure: `${method}/${module}/${indicator}`, method, module, indicator, unit: units.get(indicator) ?? '', value });
+  };
+  for (const [method, results] of Object.entries(summary.methods)) {
+    if (!results) continue;
+    const modules = 'modules' in results ? results.modules : results.parts;
+    for (const [module, values] of Object.entries(modules)) add(method, module, values);
+    add(method, 'total', results.total);
+  }
+  for (const [group, values] of Object.entries(summary.flows)) {
+    for (const [key, value] of Object.entries(values as Record<string, number | null>)) figures.push({ figure: `flows/${group}/${key}`, method: 'flows', module: group, indicator: key, unit: FLOW_UNITS[group] ?? '', value });
+  }
+  return figures;
+}
+
+/** The relative change of a figure, as `--threshold` and `--fail-over` read it; Infinity when a zero became non-zero. */
+export function relativeChange(old: number | null, now: number | null): number {
+  if (old === now) return 0;
+  if (old === null || now === null) return Infinity;
+  if (old === 0) return Infinity;
+  return Math.abs(now - old) / Math.abs(old);
+}
+
+/** The figures of one product whose relative change is beyond `threshold` (a share: 0.01 is 1 %). */
+export function compareProduct(old: ResultsSummary, now: ResultsSummary, threshold: number): FigureChange[] {
+  const before = new Map(summaryFigures(old).map((figure) => [figure.figure, figure]));
+  const changes: FigureChange[] = [];
+  const seen = new Set<string>();
+  const consider = (figure: SummaryFigure, oldValue: number | null, newValue: number | null) => {
+    seen.add(figure.figure);
+    const moved = relativeChange(oldValue, newValue);
+    if (!(moved > threshold)) return;
+    const { value: _value, ...where } = figure;
+    changes.push({
+      product_id: now.product_id,
+      ...where,
+      old: oldValue,
+      new: newValue,
+      absolute: oldValue === null || newValue === null ? null : newValue - oldValue,
+      relative: oldValue === null || newValue === null || oldValue === 0 ? null : (newValue - oldValue) / Math.abs(oldValue),
+      headline: HEADLINE_FIGURES.includes(figure.figure),
+    });
+  };
+  for (const figure of summaryFigures(now)) consider(figure, before.get(figure.figure)?.value ?? null, figure.value);
+  // A figure the new build no longer has (an indicator dropped from the factor table) is a change too.
+  for (const figure of before.values()) if (!seen.has(figure.figure) && figure.value !== null) consider(figure, figure.value, null);
+  return changes;
+}

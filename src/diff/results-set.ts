@@ -1,0 +1,110 @@
+import { readdir, readFile, stat } from 'node:fs/promises';
+import path from 'node:path';
+import { UsageError } from '../cli/io.ts';
+import { readCsvText } from '../load/csv.ts';
+import type { FigureJson, ResultsJson, ResultsSummary } from '../report/results.ts';
+import { CSV_FILES } from '../schema/index.ts';
+import { MANIFEST_FILE, VERIFICATION_DIR } from '../render/verification.ts';
+import type { RowKeyOf } from './attribute.ts';
+
+/**
+ * One side of a change report: a build folder (its `results.json`, each product's
+ * `results.json` with the figure graph, and the input copies of its verification pack), a
+ * folder of per-product results.json files, or a single results.json file.
+ */
+export interface ResultsSet {
+  /** As the user named it. */
+  label: string;
+  products: Map<string, ResultsSummary>;
+  /** A product's figure graph, when this set has it. */
+  figures(productId: string): Promise<Record<string, FigureJson> | undefined>;
+  /** The key of the row at a line of an input file (from the build's copy of its inputs). */
+  rowKey: RowKeyOf;
+  /** From the verification manifest, when there is one: tool version and the SHA-256 of each input. */
+  manifest?: { toolVersion: string; inputs: Map<string, string> };
+}
+
+const isFile = async (file: string) => (await stat(file).catch(() => undefined))?.isFile() ?? false;
+
+async function readJson(file: string): Promise<unknown> {
+  try {
+    return JSON.parse(await readFile(file, 'utf8'));
+  } catch (error) {
+    throw new UsageError(`${file}: ${(error as Error).message}; expected a results.json written by loopsheet build`);
+  }
+}
+
+const summaryOf = ({ figures: _figures, ...summary }: ResultsJson): ResultsSummary => summary;
+
+export async function readResultsSet(label: string): Promise<ResultsSet> {
+  const info = await stat(label).catch(() => undefined);
+  if (!info) throw new UsageError(`${label}: no such file or folder; expected a build folder or a results.json`);
+  const root = info.isDirectory() ? label : path.dirname(label);
+  const products = new Map<string, ResultsSummary>();
+  const inline = new Map<string, Record<string, FigureJson>>();
+  const take = (json: unknown, file: string) => {
+    const value = json as Partial<ResultsJson> & { products?: ResultsSummary[] };
+    if (Array.isArray(value.products)) for (const product of value.products) products.set(product.product_id, product);
+    else if (typeof value.product_id === 'string' && value.methods) {
+      products.set(value.product_id, summaryOf(value as ResultsJson));
+      if (value.figures) inline.set(value.product_id, value.figures);
+    } else throw new UsageError(`${file}: neither a catalogue results.json ("products") nor a product's ("product_id"); expected a results.json written by loopsheet build`);
+  };
+
+  if (!info.isDirectory()) take(await readJson(label), label);
+  else if (await isFile(path.join(label, 'results.json'))) take(await readJson(path.join(label, 'results.json')), path.join(label, 'results.json'));
+  else {
+    // A folder of results.json sets: one per product folder.
+    for (const entry of (await readdir(label, { withFileTypes: true })).filter((e) => e.isDirectory()).sort((a, b) => (a.name < b.name ? -1 : 1))) {
+      const file = path.join(label, entry.name, 'results.json');
+      if (await isFile(file)) take(await readJson(file), file);
+    }
+    if (products.size === 0) throw new UsageError(`${label}: no results.json in it or in its sub-folders; expected a build folder`);
+  }
+
+  const figures = async (productId: string) => {
+    if (inline.has(productId)) return inline.get(productId);
+    const file = path.join(root, productId, 'results.json');
+    if (!(await isFile(file))) return undefined;
+    return ((await readJson(file)) as ResultsJson).figures;
+  };
+  const manifestFile = path.join(root, VERIFICATION_DIR, MANIFEST_FILE);
+  let manifest: ResultsSet['manifest'];
+  if (await isFile(manifestFile)) {
+    const json = (await readJson(manifestFile)) as { tool: { version: string }; inputs: Array<{ file: string; sha256: string }> };
+    manifest = { toolVersion: json.tool.version, inputs: new Map(json.inputs.map((input) => [input.file, input.sha256])) };
+  }
+  return { label, products, figures, rowKey: await rowKeys(path.join(root, VERIFICATION_DIR, 'inputs')), manifest };
+}
+
+/**
+ * Row keys from the input copies in a build's verification pack: each CSV row is named by
+ * its file's key columns (as the duplicate check defines them), a repeated key by its
+ * occurrence. Without the copies a row is named by its line.
+ */
+async function rowKeys(inputsDir: string): Promise<RowKeyOf> {
+  const byFile = new Map<string, Map<number, string>>();
+  for (const schema of CSV_FILES) {
+    const file = path.join(inputsDir, schema.file);
+    if (!(await isFile(file))) continue;
+    const keys = new Map<number, string>();
+    const seen = new Map<string, number>();
+    readCsvText(schema.file, await readFile(file, 'utf8'), (source) => {
+      const names = source.header.names.map((name) => name.toLowerCase());
+      const positions = schema.key.map((column) => names.indexOf(column.toLowerCase()));
+      return (record) => {
+        if (positions.some((p) => p < 0)) return;
+        const key = positions.map((p) => (record.fields[p] ?? '').trim()).join(' · ');
+        const count = (seen.get(key) ?? 0) + 1;
+        seen.set(key, count);
+        keys.set(record.line, count === 1 ? key : `${key} #${count}`);
+      };
+    });
+    byFile.set(schema.file, keys);
+  }
+  return (file, line) => {
+    // declaration.json cells are named by their JSON path (the column), not by a row.
+    if (!file.endsWith('.csv')) return '';
+    return byFile.get(file)?.get(line) ?? `line ${line}`;
+  };
+}
