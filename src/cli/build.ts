@@ -1,22 +1,35 @@
 import { loadProject } from '../model/project.ts';
 import { hasErrors } from '../problems.ts';
 import { findBrowser } from '../render/browser.ts';
+import { buildSite } from '../render/build-site.ts';
+import { keptHashes, readPreviousBuild } from '../render/incremental.ts';
 import { checkOutputDir, withStagedOutput } from '../render/output.ts';
 import { declarationPdfJobs, printPdfs } from '../render/pdf.ts';
-import { buildSite } from '../render/build-site.ts';
-import { EXIT, type Io } from './io.ts';
-import { printProblems } from './report-problems.ts';
+import { shardOf, writeShardRecord, type ShardSpec } from '../render/shards.ts';
 import { copyInputs, hashInputs, writeManifest } from '../render/verification.ts';
+import { EXIT, UsageError, type Io } from './io.ts';
+import { createProgress } from './progress.ts';
+import { printProblems } from './report-problems.ts';
 
 export interface BuildOptions {
   data: string;
   out: string;
   /** auto: PDFs when a browser is found; required: fail without one; off: none. */
   pdf: 'auto' | 'required' | 'off';
+  /** Build only this share of the products (a CI matrix job); `loopsheet merge` joins the shards. */
+  shard?: ShardSpec;
+  /** Keep the files of every product whose inputs did not change since the build in `out`. */
+  changed?: boolean;
 }
 
+/** Products named in the --changed summary; the rest are counted. */
+const LISTED = 20;
+
 export async function runBuild(options: BuildOptions, io: Io): Promise<number> {
+  if (options.shard && options.changed) throw new UsageError('--changed and --shard do not go together: a shard build is joined by merge, which builds nothing');
+  const progress = createProgress(io);
   await checkOutputDir(options.out, options.data);
+  progress.phase('load and validate');
   const { project, problems } = await loadProject(options.data);
   if (problems.length > 0) printProblems(problems, options.data, io);
   if (!project || hasErrors(problems)) {
@@ -29,25 +42,48 @@ export async function runBuild(options: BuildOptions, io: Io): Promise<number> {
     io.err('no browser found for the PDFs (looked at PUPPETEER_EXECUTABLE_PATH, chromium/chrome on the PATH, puppeteer’s cache); nothing was written');
     return EXIT.input;
   }
+  const previous = options.changed ? await readPreviousBuild(options.out) : undefined;
+  if (options.changed && !previous) io.err(`build --changed: no earlier build of this tool version in ${options.out}; building every product`);
+  const shard = options.shard;
   let missingPdfs: string[] = [];
-  let productCount = 0;
+  let summary = '';
   await withStagedOutput(options.out, async (staging) => {
     const inputs = await hashInputs(project.dir);
     await copyInputs(project.dir, staging, inputs);
-    const catalogue = await buildSite(project, problems, staging, { inputs, pdfs: browser !== undefined });
-    productCount = catalogue.length;
-    const jobs = declarationPdfJobs(project, staging, catalogue);
+    progress.phase(previous ? 'compare inputs, then calculate and render the changed products' : 'calculate and render');
+    const built = await buildSite(project, problems, staging, {
+      inputs,
+      pdfs: browser !== undefined,
+      ...(shard ? { select: (id: string) => shardOf(id, shard.n) === shard.k, catalogue: false } : {}),
+      ...(previous ? { previous } : {}),
+      onProgress: (done, total) => progress.products(done, total),
+    });
+    progress.stop();
+    const rebuilt = new Set(built.rebuilt.map((r) => r.id));
+    const printed = built.outcomes.filter((o) => rebuilt.has(o.entry.id)).map((o) => ({ id: o.entry.id, name: o.entry.name }));
     if (browser) {
-      io.err(`PDF: using ${browser.executablePath} (found via ${browser.how})`);
-      await printPdfs(browser, staging, jobs);
+      progress.phase(`PDF (${printed.length}) with ${browser.executablePath} (found via ${browser.how})`);
+      await printPdfs(browser, staging, declarationPdfJobs(project, staging, printed));
     } else if (options.pdf === 'auto') {
-      missingPdfs = catalogue.map((product) => `${product.id}/declaration.pdf`);
+      missingPdfs = printed.map((product) => `${product.id}/declaration.pdf`);
     }
-    await writeManifest(staging, inputs);
+    if (shard) {
+      await writeShardRecord(staging, { shard, pdfs: browser !== undefined, context: built.context, inputs, outcomes: built.outcomes });
+      summary = `built shard ${shard.k}/${shard.n}: ${built.outcomes.length} products into ${options.out}${options.pdf === 'off' ? ' (no PDFs: --no-pdf)' : ''}; join the shards with loopsheet merge`;
+    } else {
+      progress.phase('verification manifest');
+      await writeManifest(staging, inputs, keptHashes(previous, built.kept));
+      summary = `built ${built.outcomes.length} products into ${options.out}${options.pdf === 'off' ? ' (no PDFs: --no-pdf)' : ''}`;
+    }
+    if (options.changed) {
+      const lines = built.rebuilt.slice(0, LISTED).map(({ id, reasons }) => `  ${id}: ${reasons.length > 3 ? `${reasons.slice(0, 3).join(', ')} and ${reasons.length - 3} more` : reasons.join(', ') || 'new build'}`);
+      if (built.rebuilt.length > LISTED) lines.push(`  …and ${built.rebuilt.length - LISTED} more`);
+      summary += `\nrebuilt ${built.rebuilt.length} of ${built.outcomes.length} products (${built.kept.length} kept from the previous build)${lines.length > 0 ? `:\n${lines.join('\n')}` : ''}`;
+    }
   });
   if (missingPdfs.length > 0) {
     io.err(`no browser found (PUPPETEER_EXECUTABLE_PATH, chromium/chrome on the PATH, puppeteer’s cache): HTML written, these PDFs were not:\n${missingPdfs.map((pdf) => `  ${pdf}`).join('\n')}`);
   }
-  io.out(`built ${productCount} products into ${options.out}${options.pdf === 'off' ? ' (no PDFs: --no-pdf)' : ''}`);
+  io.out(summary);
   return EXIT.ok;
 }

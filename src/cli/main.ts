@@ -26,19 +26,49 @@ what was expected. Exit 0 when there are no errors (warnings allowed), 1 with er
   },
   build: {
     summary: 'validate, compute and render the declarations',
-    usage: `loopsheet build [--data DIR] [--out DIR] [--no-pdf]
+    usage: `loopsheet build [--data DIR] [--out DIR] [--no-pdf] [--pdf] [--changed] [--shard K/N]
 
 Validates the data folder and renders the site into --out. Nothing is written when
-validation fails, and a failed build leaves the previous output untouched.
+validation fails, and a failed build leaves the previous output untouched. The same inputs
+give the same bytes.
 
   --data DIR   the data folder (default ./data)
   --out DIR    the output folder (default ./out)
   --no-pdf     skip the PDF files
-  --pdf        require PDFs: fail when no browser is found`,
-    options: { data: { type: 'string' }, out: { type: 'string' }, 'no-pdf': { type: 'boolean' }, pdf: { type: 'boolean' } },
+  --pdf        require PDFs: fail when no browser is found
+  --changed    rebuild only the products whose inputs (their rows and every row they
+               reach) changed since the build in --out; keep the others' files, refresh
+               the catalogue and the manifest, and print what was rebuilt and why
+  --shard K/N  build the K-th of N shares of the products (by a stable hash of
+               product_id), for a CI matrix; join the shards with loopsheet merge`,
+    options: { data: { type: 'string' }, out: { type: 'string' }, 'no-pdf': { type: 'boolean' }, pdf: { type: 'boolean' }, changed: { type: 'boolean' }, shard: { type: 'string' } },
     positionals: { min: 0, max: 0 },
-    run: async (values, _positionals, io) =>
-      (await import('./build.ts')).runBuild({ data: str(values.data) ?? 'data', out: str(values.out) ?? 'out', pdf: values['no-pdf'] === true ? 'off' : values.pdf === true ? 'required' : 'auto' }, io),
+    run: async (values, _positionals, io) => {
+      const shard = str(values.shard);
+      return (await import('./build.ts')).runBuild(
+        {
+          data: str(values.data) ?? 'data',
+          out: str(values.out) ?? 'out',
+          pdf: values['no-pdf'] === true ? 'off' : values.pdf === true ? 'required' : 'auto',
+          changed: values.changed === true,
+          ...(shard !== undefined ? { shard: (await import('../render/shards.ts')).parseShard(shard) } : {}),
+        },
+        io,
+      );
+    },
+  },
+  merge: {
+    summary: 'join the outputs of build --shard K/N into one site',
+    usage: `loopsheet merge DIR... [--out DIR]
+
+Joins the output folders of "loopsheet build --shard K/N" (every K of one N, same inputs and
+tool version) into one site with one catalogue, one factor table and one verification
+manifest: the same files a single build writes.
+
+  --out DIR    the output folder (default ./out)`,
+    options: { out: { type: 'string' } },
+    positionals: { min: 1, max: Number.POSITIVE_INFINITY },
+    run: async (values, positionals, io) => (await import('./merge.ts')).runMerge({ dirs: positionals, out: str(values.out) ?? 'out' }, io),
   },
   explain: {
     summary: 'show how a figure is derived, down to the input cells',

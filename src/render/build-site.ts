@@ -1,11 +1,15 @@
 import { fork } from 'node:child_process';
 import os from 'node:os';
 import path from 'node:path';
+import { CalcContext } from '../calc/context.ts';
+import { calculateProduct } from '../calc/product.ts';
 import { rowsByProduct, type ProductRows } from '../model/by-product.ts';
 import type { Project } from '../model/types.ts';
 import type { Problem } from '../problems.ts';
 import type { ResultsSummary } from '../report/results.ts';
 import { buildSiteView, catalogueEntry, type CatalogueEntry, type ProductReport, type SiteView } from '../report/site-view.ts';
+import { changeReasons, keepProduct, writeBuildCache, type PreviousBuild } from './incremental.ts';
+import { pageContextKey, productInputKey } from './input-key.ts';
 import { PACKAGE_ROOT } from './paths.ts';
 import { ResultsWriter, writeCatalogueResults } from './results-files.ts';
 import { renderSite } from './site.ts';
@@ -29,96 +33,149 @@ export interface SiteBuildOptions {
   shardSize?: number;
   /** Processes building shards side by side (default: `defaultWorkers()`). */
   workers?: number;
-  /** Called after each shard, with the products done so far (progress). */
-  onShard?: (done: number, total: number) => void;
+  /** Only the products this picks (one `--shard` of the catalogue). */
+  select?: (productId: string) => boolean;
+  /** A previous build whose products are kept where their inputs did not change (`--changed`). */
+  previous?: PreviousBuild;
+  /** Write the catalogue-wide pages and files (default true; a shard build leaves them to `merge`). */
+  catalogue?: boolean;
+  /** Called as products are done, with the number done and the number to build (progress). */
+  onProgress?: (done: number, total: number) => void;
   /** Called as each worker process ends, with its peak resident memory (benchmark). */
   onWorkerEnd?: (peakRssMb: number) => void;
 }
 
-/** What a shard leaves for the catalogue: per product, its catalogue row and results summary. */
-export interface ShardOutcome {
+/** What a built product leaves for the catalogue: its catalogue row, results summary and input key. */
+export interface ProductOutcome {
   index: number;
   entry: CatalogueEntry;
   summary: ResultsSummary;
+  key: string;
+}
+
+export interface SiteBuildResult {
+  /** The products of this build (the selected ones), in catalogue order. */
+  outcomes: ProductOutcome[];
+  /** Products computed and rendered, with why (for `--changed`). */
+  rebuilt: Array<{ id: string; reasons: string[] }>;
+  /** Products whose files were kept from the previous build. */
+  kept: string[];
+  /** The project-wide part of the pages, as hashed into every input key. */
+  context: string;
 }
 
 const chunk = <T>(items: T[], size: number): T[][] => Array.from({ length: Math.ceil(items.length / size) }, (_, i) => items.slice(i * size, (i + 1) * size));
 
 /**
- * Computes every product, writes its results files and renders its declaration and audit
+ * Computes the products, writes their results files and renders their declaration and audit
  * pages, a shard at a time, in `workers` processes side by side; then the catalogue-wide
- * results files and pages. The output does not depend on the shard size or the number of
- * workers (test/render/build-site.test.ts).
+ * results files and pages. With a previous build, a product whose input key is unchanged
+ * keeps its files instead. The output does not depend on the shard size, the number of
+ * workers or what was kept (test/render/build-site.test.ts, incremental.test.ts).
  */
-export async function buildSite(project: Project, problems: readonly Problem[], outDir: string, options: SiteBuildOptions): Promise<CatalogueEntry[]> {
+export async function buildSite(project: Project, problems: readonly Problem[], outDir: string, options: SiteBuildOptions): Promise<SiteBuildResult> {
   const size = options.shardSize ?? SHARD_SIZE;
-  const all = rowsByProduct(project);
-  const shards = chunk(all.map((rows, index) => ({ rows, index })), size);
+  const context = pageContextKey(project, problems, options.pdfs);
+  const selected = rowsByProduct(project)
+    .map((rows, index) => ({ rows, index }))
+    .filter(({ rows }) => options.select?.(rows.product.value.product_id) ?? true);
+
+  const outcomes: ProductOutcome[] = [];
+  const kept: string[] = [];
+  const rebuilt: SiteBuildResult['rebuilt'] = [];
+  let toBuild = selected;
+  if (options.previous) {
+    const previous = options.previous;
+    const ctx = new CalcContext(project);
+    toBuild = [];
+    for (const item of selected) {
+      const id = item.rows.product.value.product_id;
+      const input = productInputKey(project, item.rows, calculateProduct(ctx, item.rows).graph, context);
+      const cached = previous.products.get(id);
+      const summary = previous.summaries.get(id);
+      if (cached?.key === input.key && summary && (await keepProduct(previous.dir, outDir, id))) {
+        outcomes.push({ index: item.index, entry: cached.entry, summary, key: input.key });
+        kept.push(id);
+      } else {
+        toBuild.push(item);
+        rebuilt.push({ id, reasons: changeReasons(project, previous, id, input, context) });
+      }
+    }
+  } else {
+    for (const { rows } of selected) rebuilt.push({ id: rows.product.value.product_id, reasons: [] });
+  }
+
+  const shards = chunk(toBuild, size);
   const workers = Math.min(options.workers ?? defaultWorkers(), shards.length);
-  const outcomes: ShardOutcome[] = [];
   let done = 0;
   const progress = (count: number) => {
     done += count;
-    options.onShard?.(done, all.length);
+    options.onProgress?.(done, toBuild.length);
   };
   if (workers <= 1) {
     for (const shard of shards) {
-      outcomes.push(...(await buildShard(project, problems, outDir, shard, options.pdfs)));
+      outcomes.push(...(await buildShard(project, problems, outDir, shard, options.pdfs, context)));
       progress(shard.length);
     }
   } else {
-    const results = await Promise.all(
-      Array.from({ length: workers }, (_, worker) => runWorker(project.dir, outDir, { shardSize: size, worker, workers, pdfs: options.pdfs }, progress, options.onWorkerEnd)),
-    );
+    const tasks = Array.from({ length: workers }, (_, worker): WorkerTask => ({ shards: shards.filter((_, k) => k % workers === worker).map((shard) => shard.map((item) => item.index)), pdfs: options.pdfs, context }));
+    const results = await Promise.all(tasks.map((task, worker) => runWorker(project.dir, outDir, task, `${worker + 1} of ${workers}`, progress, options.onWorkerEnd)));
     outcomes.push(...results.flat());
   }
   outcomes.sort((a, b) => a.index - b.index);
+  if (options.catalogue ?? true) await writeCatalogue(project, problems, outDir, outcomes, { inputs: options.inputs, pdfs: options.pdfs, context });
+  return { outcomes, rebuilt, kept, context };
+}
+
+/** The catalogue-wide files and pages (catalogue, factor table, verification page) and the build cache, from every product's outcome. */
+export async function writeCatalogue(project: Project, problems: readonly Problem[], outDir: string, outcomes: readonly ProductOutcome[], options: { inputs: SiteView['verification']['inputs']; pdfs: boolean; context: string }): Promise<void> {
   await writeCatalogueResults(outDir, outcomes.map((o) => o.summary));
   const catalogue = outcomes.map((o) => o.entry);
   await renderSite(buildSiteView(project, problems, { products: [], catalogue, pdfs: options.pdfs, inputs: options.inputs }), outDir);
-  return catalogue;
+  await writeBuildCache(outDir, options.context, outcomes);
 }
 
 /** One shard: each product computed, written and viewed, then one Eleventy run for the shard's pages. */
-export async function buildShard(project: Project, problems: readonly Problem[], outDir: string, shard: Array<{ rows: ProductRows; index: number }>, pdfs: boolean): Promise<ShardOutcome[]> {
-  const writer = new ResultsWriter(project, outDir);
-  const products: Array<{ rows: ProductRows; report: ProductReport }> = [];
-  for (const { rows } of shard) products.push({ rows, report: await writer.product(rows) });
+export async function buildShard(project: Project, problems: readonly Problem[], outDir: string, shard: Array<{ rows: ProductRows; index: number }>, pdfs: boolean, context: string): Promise<ProductOutcome[]> {
+  const writer = new ResultsWriter(project, outDir, context);
+  const products: Array<{ rows: ProductRows; report: ProductReport; key: string }> = [];
+  for (const { rows } of shard) products.push({ rows, ...(await writer.product(rows)) });
   const view = buildSiteView(project, problems, { products, pdfs });
   await renderSite(view, outDir);
-  return view.products.map((product, k) => ({ index: shard[k]!.index, entry: catalogueEntry(product), summary: products[k]!.report.summary }));
+  return view.products.map((product, k) => ({ index: shard[k]!.index, entry: catalogueEntry(product), summary: products[k]!.report.summary, key: products[k]!.key }));
 }
 
 export interface WorkerTask {
-  shardSize: number;
-  worker: number;
-  workers: number;
+  /** The shards this worker builds, each as the products' catalogue indices. */
+  shards: number[][];
   pdfs: boolean;
+  context: string;
 }
 
-export type WorkerMessage = { kind: 'shard'; products: number } | { kind: 'done'; outcomes: ShardOutcome[]; peakRssMb: number } | { kind: 'failed'; message: string };
+export type WorkerMessage = { kind: 'shard'; products: number } | { kind: 'done'; outcomes: ProductOutcome[]; peakRssMb: number } | { kind: 'failed'; message: string };
 
-/** A shard worker: a process of its own that loads the project and builds every `workers`-th shard. */
-function runWorker(dataDir: string, outDir: string, task: WorkerTask, progress: (count: number) => void, onEnd?: (peakRssMb: number) => void): Promise<ShardOutcome[]> {
+/** A shard worker: a process of its own that loads the project and builds the shards it is given. */
+function runWorker(dataDir: string, outDir: string, task: WorkerTask, name: string, progress: (count: number) => void, onEnd?: (peakRssMb: number) => void): Promise<ProductOutcome[]> {
   return new Promise((resolve, reject) => {
-    const child = fork(path.join(PACKAGE_ROOT, 'bin', 'run-ts.js'), [path.join(PACKAGE_ROOT, 'src', 'render', 'shard-worker.ts'), dataDir, outDir, JSON.stringify(task)], {
+    const child = fork(path.join(PACKAGE_ROOT, 'bin', 'run-ts.js'), [path.join(PACKAGE_ROOT, 'src', 'render', 'shard-worker.ts'), dataDir, outDir], {
       execArgv: ['--max-semi-space-size=64'],
       stdio: ['ignore', 'ignore', 'inherit', 'ipc'],
     });
-    let outcomes: ShardOutcome[] | undefined;
+    let outcomes: ProductOutcome[] | undefined;
     let failure: string | undefined;
     child.on('message', (message: WorkerMessage) => {
       if (message.kind === 'shard') progress(message.products);
       else if (message.kind === 'done') {
         outcomes = message.outcomes;
         onEnd?.(message.peakRssMb);
-      }
-      else failure = message.message;
+      } else failure = message.message;
     });
     child.on('error', reject);
     child.on('exit', (code) => {
       if (outcomes && code === 0) resolve(outcomes);
-      else reject(new Error(`shard worker ${task.worker + 1} of ${task.workers} failed${failure ? `: ${failure}` : ` (exit ${code})`}`));
+      else reject(new Error(`shard worker ${name} failed${failure ? `: ${failure}` : ` (exit ${code})`}`));
     });
+    // The task goes over IPC: a long list of indices would not fit on a command line.
+    child.send(task);
   });
 }

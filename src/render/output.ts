@@ -5,6 +5,9 @@ import { UsageError } from '../cli/io.ts';
 /** Marks a folder as loopsheet output, so a build only ever replaces its own output. */
 export const OUTPUT_MARKER = '.loopsheet-output';
 
+/** The build cache (src/render/incremental.ts): per product, the key of its inputs. */
+export const CACHE_FILE = '.loopsheet-cache.json';
+
 async function exists(file: string): Promise<boolean> {
   try {
     await stat(file);

@@ -10,6 +10,7 @@ import { auditView } from '../report/audit-view.ts';
 import { declarationResultsView } from '../report/declaration-view.ts';
 import type { ProductReport } from '../report/site-view.ts';
 import { renderChartSvg } from './charts.ts';
+import { productInputKey } from './input-key.ts';
 
 
 /**
@@ -23,11 +24,14 @@ export class ResultsWriter {
   constructor(
     project: Project,
     private readonly outDir: string,
+    /** The project-wide part of the pages (`pageContextKey`), for each product's input key. */
+    private readonly context: string,
   ) {
     this.ctx = new CalcContext(project);
   }
 
-  async product(rows: ProductRows): Promise<ProductReport> {
+  /** Writes a product's results files and returns what its pages show, with its input key. */
+  async product(rows: ProductRows): Promise<{ report: ProductReport; key: string }> {
     const ctx = this.ctx;
     const product = calculateProduct(ctx, rows);
     const summary = resultsSummary(ctx, product);
@@ -38,7 +42,7 @@ export class ResultsWriter {
     await writeFile(path.join(dir, 'results.csv'), resultsCsv([summary]));
     const view = declarationResultsView(ctx, rows, product, summary);
     for (const chart of view.charts) chart.svg = await renderChartSvg(chart);
-    return { summary, results: view, audit: auditView(ctx.project, product) };
+    return { report: { summary, results: view, audit: auditView(ctx.project, product) }, key: productInputKey(ctx.project, rows, product.graph, this.context).key };
   }
 
 }

@@ -1,9 +1,9 @@
 import { createHash } from 'node:crypto';
-import { copyFile, mkdir, readdir, readFile, writeFile } from 'node:fs/promises';
+import { copyFile, mkdir, readdir, readFile, stat, writeFile } from 'node:fs/promises';
 import path from 'node:path';
 import { CSV_FILES, DECLARATION_FILE } from '../schema/index.ts';
 import { TOOL_NAME, TOOL_VERSION } from '../reference/tool.ts';
-import { OUTPUT_MARKER } from './output.ts';
+import { CACHE_FILE, OUTPUT_MARKER } from './output.ts';
 
 /**
  * The verification pack, `out/verification/`: a copy of every input file, and
@@ -57,11 +57,20 @@ async function listFiles(root: string, dir = ''): Promise<string[]> {
   return files;
 }
 
+/** Files about the build rather than the declarations: the output marker and the build cache. */
+const NOT_IN_MANIFEST = new Set([OUTPUT_MARKER, CACHE_FILE]);
+
 /** Written last: every other output exists by then. Paths are relative and sorted, so the manifest is reproducible. */
-export async function writeManifest(outDir: string, inputs: readonly HashedFile[]): Promise<void> {
+export async function writeManifest(outDir: string, inputs: readonly HashedFile[], known: ReadonlyMap<string, HashedFile> = new Map()): Promise<void> {
   const self = `${VERIFICATION_DIR}/${MANIFEST_FILE}`;
   const outputs: HashedFile[] = [];
-  for (const file of (await listFiles(outDir)).filter((f) => f !== self && f !== OUTPUT_MARKER).sort()) {
+  for (const file of (await listFiles(outDir)).filter((f) => f !== self && !NOT_IN_MANIFEST.has(f)).sort()) {
+    // A file kept from the previous build (build --changed) keeps its hash while its size matches.
+    const kept = known.get(file);
+    if (kept && (await stat(path.join(outDir, file))).size === kept.bytes) {
+      outputs.push(kept);
+      continue;
+    }
     const bytes = await readFile(path.join(outDir, file));
     outputs.push({ file, sha256: sha256(bytes), bytes: bytes.length });
   }

@@ -266,23 +266,29 @@ function scenariosOf(project: Project): Map<string, Project['eol']['rows']> {
   return scenarios;
 }
 
+/** The rows of other files a product's page shows beside its own: its scenario, materials, the factor rows and processes they name. */
+export function productInputs(project: Project, rows: ProductRows) {
+  const eolRows = scenariosOf(project).get(rows.product.value.eol_scenario) ?? [];
+  const materialIds = new Set(rows.bom.map((row) => row.value.material));
+  const materials = project.materials.rows.filter((row) => materialIds.has(row.value.material));
+  const factorIds = new Set<string>();
+  for (const m of materials) for (const id of [m.value.virgin, m.value.recycled, m.value.eol_recycling, m.value.substituted, m.value.landfill, m.value.incineration]) if (id) factorIds.add(id);
+  for (const a of rows.activities) factorIds.add(a.value.factor);
+  for (const t of rows.transport) factorIds.add(t.value.factor);
+  for (const e of eolRows) for (const id of [e.value.transport_factor, e.value.processing_factor]) if (id) factorIds.add(id);
+  const factors = project.factors.rows.filter((row) => factorIds.has(row.value.factor_id));
+  const processIds = new Set([...factorIds].filter((id) => id.startsWith(PROCESS_PREFIX)).map((id) => id.slice(PROCESS_PREFIX.length)));
+  const processRows = project.process.rows.filter((row) => processIds.has(row.value.process_id));
+  return { eolRows, materials, factorIds, factors, processRows };
+}
+
 function productView(project: Project, rows: ProductRows, report: ProductReport | undefined): ProductView {
-  const scenarios = scenariosOf(project);
   const productRow = rows.product;
   const product = productRow.value;
   const lines = rows.bom;
   const activities = rows.activities;
   const legs = rows.transport;
-  const eolRows = scenarios.get(product.eol_scenario) ?? [];
-  const materialIds = new Set(lines.map((row) => row.value.material));
-  const materials = project.materials.rows.filter((row) => materialIds.has(row.value.material));
-
-  const factorIds = new Set<string>();
-  for (const m of materials) for (const id of [m.value.virgin, m.value.recycled, m.value.eol_recycling, m.value.substituted, m.value.landfill, m.value.incineration]) if (id) factorIds.add(id);
-  for (const a of activities) factorIds.add(a.value.factor);
-  for (const t of legs) factorIds.add(t.value.factor);
-  for (const e of eolRows) for (const id of [e.value.transport_factor, e.value.processing_factor]) if (id) factorIds.add(id);
-  const factors = project.factors.rows.filter((row) => factorIds.has(row.value.factor_id));
+  const { eolRows, materials, factorIds, factors, processRows } = productInputs(project, rows);
   const gases = [...factorIds].map(findGas).filter((gas) => gas !== undefined);
 
   const tables: TableView[] = [
@@ -350,8 +356,6 @@ function productView(project: Project, rows: ProductRows, report: ProductReport 
       empty: 'No factors.',
     },
   ];
-  const processIds = new Set([...factorIds].filter((id) => id.startsWith(PROCESS_PREFIX)).map((id) => id.slice(PROCESS_PREFIX.length)));
-  const processRows = project.process.rows.filter((row) => processIds.has(row.value.process_id));
   if (processRows.length > 0) {
     tables.push({
       title: 'Process data',

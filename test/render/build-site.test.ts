@@ -25,8 +25,8 @@ describe('rendering the catalogue in shards', () => {
       const out = path.join(dir, `shard-${shardSize}-${workers}`);
       await mkdir(out);
       const progress: number[] = [];
-      const catalogue = await buildSite(project!, problems, out, { inputs: [], pdfs: false, shardSize, workers, onShard: (done) => progress.push(done) });
-      expect(catalogue.map((entry) => entry.id)).toEqual(['KV-EXT-6060', 'KV-CU-BB10', 'KV-BR-40']);
+      const built = await buildSite(project!, problems, out, { inputs: [], pdfs: false, shardSize, workers, onProgress: (done) => progress.push(done) });
+      expect(built.outcomes.map((outcome) => outcome.entry.id)).toEqual(['KV-EXT-6060', 'KV-CU-BB10', 'KV-BR-40']);
       // Progress counts products, shard by shard, up to all of them.
       expect(progress.at(-1)).toBe(3);
       expect(progress).toHaveLength(Math.ceil(3 / shardSize));

@@ -1,0 +1,47 @@
+import path from 'node:path';
+import { loadProject } from '../model/project.ts';
+import { hasErrors } from '../problems.ts';
+import { writeCatalogue } from '../render/build-site.ts';
+import { keepProduct } from '../render/incremental.ts';
+import { checkOutputDir, withStagedOutput } from '../render/output.ts';
+import { readShardRecords } from '../render/shards.ts';
+import { copyInputs, hashInputs, VERIFICATION_DIR, writeManifest } from '../render/verification.ts';
+import { EXIT, UsageError, type Io } from './io.ts';
+import { printProblems } from './report-problems.ts';
+
+/**
+ * Joins the outputs of `build --shard K/N` into one site: every shard's product folders,
+ * then the catalogue, the factor table, the verification pack and the manifest, written as
+ * a single build writes them (the same bytes: test/render/shards.test.ts).
+ */
+export async function runMerge(options: { dirs: string[]; out: string }, io: Io): Promise<number> {
+  const records = await readShardRecords(options.dirs);
+  const out = path.resolve(options.out);
+  for (const record of records) if (path.resolve(record.dir) === out) throw new UsageError(`--out ${options.out} is one of the shards; merge into a new folder`);
+  // Every shard carries a copy of the inputs; the first one's is the project the catalogue is made from.
+  const inputsDir = path.join(records[0]!.dir, VERIFICATION_DIR, 'inputs');
+  const inputs = await hashInputs(inputsDir);
+  if (JSON.stringify(inputs) !== JSON.stringify(records[0]!.inputs)) throw new UsageError(`${inputsDir}: the input copies no longer match the shard's record`);
+  await checkOutputDir(options.out, inputsDir);
+  const { project, problems } = await loadProject(inputsDir);
+  if (!project || hasErrors(problems)) {
+    printProblems(problems, inputsDir, io);
+    return EXIT.input;
+  }
+  let count = 0;
+  await withStagedOutput(options.out, async (staging) => {
+    await copyInputs(inputsDir, staging, inputs);
+    const outcomes = records.flatMap((record) => record.outcomes);
+    for (const record of records) {
+      for (const outcome of record.outcomes) {
+        if (!(await keepProduct(record.dir, staging, outcome.entry.id))) throw new UsageError(`${record.dir} has no folder for ${outcome.entry.id}, which its record lists`);
+      }
+    }
+    outcomes.sort((a, b) => a.index - b.index);
+    await writeCatalogue(project, problems, staging, outcomes, { inputs, pdfs: records[0]!.pdfs, context: records[0]!.context });
+    await writeManifest(staging, inputs);
+    count = outcomes.length;
+  });
+  io.out(`merged ${records.length} shards (${count} products) into ${options.out}`);
+  return EXIT.ok;
+}
