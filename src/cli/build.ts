@@ -62,7 +62,8 @@ export async function runBuild(options: BuildOptions, io: Io): Promise<number> {
     const rebuilt = new Set(built.rebuilt.map((r) => r.id));
     const printed = built.outcomes.filter((o) => rebuilt.has(o.entry.id)).map((o) => ({ id: o.entry.id, name: o.entry.name }));
     if (browser) {
-      progress.phase(`PDF (${printed.length}) with ${browser.executablePath} (found via ${browser.how})`);
+      progress.phase(`PDF (${printed.length})`);
+      io.err(`PDF: using ${browser.executablePath} (found via ${browser.how})`);
       await printPdfs(browser, staging, declarationPdfJobs(project, staging, printed));
     } else if (options.pdf === 'auto') {
       missingPdfs = printed.map((product) => `${product.id}/declaration.pdf`);

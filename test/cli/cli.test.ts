@@ -172,7 +172,7 @@ describe('loopsheet build', () => {
     expect(result.code, result.stderr).toBe(0);
     expect(result.stdout).toContain('built 3 products into site');
     const site = path.join(cwd, 'site');
-    expect((await readdir(site)).sort()).toEqual(['.loopsheet-output', 'KV-BR-40', 'KV-CU-BB10', 'KV-EXT-6060', 'assets', 'factors', 'index.html', 'results.csv', 'results.json', 'verification']);
+    expect((await readdir(site)).sort()).toEqual(['.loopsheet-cache.json', '.loopsheet-output', 'KV-BR-40', 'KV-CU-BB10', 'KV-EXT-6060', 'assets', 'factors', 'index.html', 'results.csv', 'results.json', 'verification']);
     expect((await readdir(path.join(site, 'KV-BR-40'))).sort()).toEqual(['audit.html', 'index.html', 'results.csv', 'results.json']);
     const factors = await readFile(path.join(site, 'factors', 'index.html'), 'utf8');
     expect(factors).toContain('id="f-grid-electricity"');
