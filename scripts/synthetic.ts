@@ -18,6 +18,9 @@ function random(seed: number): () => number {
   };
 }
 
+/** The factor row read by 1 % of the products (every hundredth). */
+export const RARE_FACTOR = 'powder-coating';
+
 export interface SyntheticSize {
   products: number;
   linesPerProduct: number;
@@ -43,6 +46,8 @@ export async function writeSyntheticProject(dir: string, size: SyntheticSize): P
   factor('gas', 'MJ');
   factor('lorry', 'tkm');
   factor('sorting', 'kg');
+  // Read by 1 % of products only: the row the incremental-rebuild benchmark changes.
+  factor('powder-coating', 'kg');
 
   const materials = ['material,name,family,virgin,recycled,eol_recycling,landfill,source'];
   for (let m = 0; m < materialCount; m++) materials.push(`mat${m},Material ${m},metal,m${m}-virgin,m${m}-recycled,m${m}-eolrec,m${m}-landfill,generated`);
@@ -69,6 +74,7 @@ export async function writeSyntheticProject(dir: string, size: SyntheticSize): P
     activities.push(`${id},A3,Electricity,electricity,${fmt(rand() * 3)},kWh,generated`);
     activities.push(`${id},A3,Gas,gas,${fmt(rand() * 10)},MJ,generated`);
     activities.push(`${id},C1,Dismantling,gas,${fmt(rand())},MJ,generated`);
+    if (p % 100 === 0) activities.push(`${id},A3,Powder coating,powder-coating,0.05,kg,generated`);
     transport.push(`${id},A2,L0,Inbound,lorry,${Math.round(rand() * 900)},generated`);
     transport.push(`${id},A2,,Whole product,lorry,${Math.round(rand() * 200)},generated`);
   }
