@@ -34,10 +34,11 @@ export async function changeReport(old: ResultsSet, now: ResultsSet, options: { 
     const before = old.products.get(id);
     if (!before) continue;
     compared += 1;
-    const moved = compareProduct(before, summary, options.threshold);
+    // Every change once; the report keeps those beyond its threshold, the guard reads every headline figure.
+    const all = compareProduct(before, summary, 0);
+    const moved = all.filter((change) => relativeChange(change.old, change.new) > options.threshold);
     if (options.failOver !== undefined) {
-      // The guard reads every headline figure, whatever the report's threshold.
-      for (const change of compareProduct(before, summary, 0)) {
+      for (const change of all) {
         if (change.headline && relativeChange(change.old, change.new) > options.failOver) over.push({ product_id: id, figure: change.figure, relative: change.relative });
       }
     }

@@ -5,7 +5,7 @@ import { TOOL_VERSION } from '../reference/tool.ts';
 import type { ResultsSummary } from '../report/results.ts';
 import type { CatalogueEntry } from '../report/site-view.ts';
 import { physicalLines } from '../report/written.ts';
-import type { InputKey } from './input-key.ts';
+import { inputTables, type InputKey } from './input-key.ts';
 import { CACHE_FILE } from './output.ts';
 
 export { CACHE_FILE };
@@ -99,13 +99,12 @@ export function changeReasons(project: Project, previous: PreviousBuild, product
   if (previous.context !== context) return ['declaration.json or the page settings changed'];
   if (cached.key === input.key) return ['its files were missing from the previous build'];
   const reasons: string[] = [];
-  const texts = new Map<string, string[]>(
-    [project.products, project.bom, project.materials, project.eol, project.activities, project.transport, project.factors, project.process].map((table) => [table.file, physicalLines(table.csv)]),
-  );
+  const tables = inputTables(project);
   for (const [file, lines] of input.rows) {
-    const now = texts.get(file);
+    const table = tables.get(file);
+    if (!table) continue;
+    const now = physicalLines(table.csv);
     const before = previous.inputs.get(file);
-    if (!now) continue;
     for (const line of lines) if (now[line - 1] !== before?.[line - 1]) reasons.push(`${file} line ${line}`);
   }
   if (reasons.length === 0) return ['an input row moved or a header changed'];

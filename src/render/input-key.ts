@@ -28,7 +28,8 @@ export function pageContextKey(project: Project, problems: readonly Problem[], p
   return createHash('sha256').update(JSON.stringify(shown)).digest('hex');
 }
 
-function tables(project: Project): Map<string, Table<unknown>> {
+/** The project's input tables by file name. */
+export function inputTables(project: Project): Map<string, Table<unknown>> {
   const list: Array<Table<unknown>> = [project.products, project.bom, project.materials, project.eol, project.activities, project.transport, project.factors, project.process];
   return new Map(list.map((table) => [table.file, table]));
 }
@@ -68,7 +69,7 @@ export function productInputKey(project: Project, rows: ProductRows, graph: Figu
   }
 
   const hash = createHash('sha256').update(context);
-  const files = tables(project);
+  const files = inputTables(project);
   const sorted = new Map<string, number[]>();
   for (const file of [...byFile.keys()].sort()) {
     const lines = [...byFile.get(file)!].sort((a, b) => a - b);
