@@ -101,7 +101,7 @@ try {
       const noPdf = b.totalMs;
       const pdfMs = pdfRate > 0 ? (products / pdfRate) * 1000 : NaN;
       buildRows.push(
-        `| ${products.toLocaleString('en')} | ${seconds(phase('load and validate'))} | ${seconds(phase('calculate and render'))} | ${seconds(phase('verification manifest'))} | **${seconds(noPdf)}** | ${Number.isNaN(pdfMs) ? '—' : seconds(pdfMs)} | ${(b.peakTreeRssMb / 1024).toFixed(2)} GB | ${(b.peakMainRssMb / 1024).toFixed(2)} GB | ${(b.outBytes / 1e9).toFixed(2)} GB | ${seconds(floor)} | ${(noPdf / floor).toFixed(1)}× | ${seconds(b.incremental.ms)} (${b.incremental.rebuilt} of ${b.incremental.of} rebuilt) | ${((100 * b.incremental.ms) / noPdf).toFixed(1)} % |`,
+        `| ${products.toLocaleString('en')} | ${seconds(phase('load and validate'))} | ${seconds(phase('calculate and render'))} | ${seconds(phase('verification manifest'))} | **${seconds(noPdf)}** | ${Number.isNaN(pdfMs) ? '—' : seconds(pdfMs)} | ${(b.peakTreeRssMb / 1024).toFixed(2)} GB | ${(b.peakMainRssMb / 1024).toFixed(2)} GB | ${(b.outBytes / 1e9).toFixed(2)} GB | ${seconds(floor)} | ${(noPdf / floor).toFixed(1)}× | ${seconds(b.incremental.ms)} (${range(b.incremental.range)}; ${b.incremental.rebuilt} of ${b.incremental.of} rebuilt) | ${((100 * b.incremental.ms) / noPdf).toFixed(1)} % |`,
       );
       sizeRows.push(`| ${products.toLocaleString('en')} | ${Object.entries(b.perProduct).sort().map(([name, bytes]) => `${name} ${(bytes / 1e6).toFixed(2)} MB`).join(', ')} | csv-parse ${seconds(check.floorMs)} + Eleventy and fs ${seconds(b.floorMs)} |`);
     }
@@ -127,7 +127,7 @@ Calculation (all methods, every indicator, full figure graph per product; peak R
 |---:|---:|---:|---:|---:|---:|---:|---:|
 ${calcRows.join('\n')}
 
-Catalogue build as a user runs it (\`loopsheet build --no-pdf\`, CI=true; phases timed from its progress lines; ${workers} worker processes). PDF: projected from the measured throughput below. Peak RSS: the build and its workers together (sampled from /proc every 200 ms), and the largest single process. Floor: csv-parse reading the inputs + Eleventy alone writing the same pages (same number, same sizes, from precomputed strings, runs of 25, ${workers} processes) and fs writing the same results-file bytes. Incremental: \`build --changed\` after one factor row read by 1 % of the products changed.
+Catalogue build as a user runs it (\`loopsheet build --no-pdf\`, CI=true; phases timed from its progress lines; ${workers} worker processes). PDF: projected from the measured throughput below. Peak RSS: the build and its workers together (sampled from /proc every 200 ms), and the largest single process. Floor: csv-parse reading the inputs + Eleventy alone writing the same pages (same number, same sizes, from precomputed strings, runs of 25, ${workers} processes) and fs writing the same results-file bytes. Incremental: \`build --changed\` after one factor row read by 1 % of the products changed, the median of three runs (range).
 
 | products | load + validate | calculate + render (HTML, JSON, catalogue) | manifest | total without PDF | PDF (projected) | peak RSS (all) | peak RSS (largest process) | out/ | floor | total / floor | incremental | incremental / full |
 |---:|---:|---:|---:|---:|---:|---:|---:|---:|---:|---:|---:|---:|

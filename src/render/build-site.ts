@@ -1,13 +1,12 @@
 import { fork } from 'node:child_process';
 import os from 'node:os';
 import path from 'node:path';
-import { CalcContext } from '../calc/context.ts';
-import { calculateProduct } from '../calc/product.ts';
 import { rowsByProduct, type ProductRows } from '../model/by-product.ts';
 import type { Project } from '../model/types.ts';
 import type { Problem } from '../problems.ts';
 import type { ResultsSummary } from '../report/results.ts';
 import { buildSiteView, catalogueEntry, type CatalogueEntry, type ProductReport, type SiteView } from '../report/site-view.ts';
+import { FS_CONCURRENCY, mapLimit } from './each-limit.ts';
 import { changeReasons, keepProduct, writeBuildCache, type PreviousBuild } from './incremental.ts';
 import { pageContextKey, productInputKey } from './input-key.ts';
 import { PACKAGE_ROOT } from './paths.ts';
@@ -86,21 +85,25 @@ export async function buildSite(project: Project, problems: readonly Problem[], 
   let toBuild = selected;
   if (options.previous) {
     const previous = options.previous;
-    const ctx = new CalcContext(project);
-    toBuild = [];
-    for (const item of selected) {
+    const compared = selected.map((item) => {
       const id = item.rows.product.value.product_id;
-      const input = productInputKey(project, item.rows, calculateProduct(ctx, item.rows).graph, context);
+      const input = productInputKey(project, item.rows, context);
       const cached = previous.products.get(id);
       const summary = previous.summaries.get(id);
-      if (cached?.key === input.key && summary && (await keepProduct(previous.dir, outDir, id))) {
-        outcomes.push({ index: item.index, entry: cached.entry, summary, key: input.key });
-        kept.push(id);
+      return { item, id, input, cached, summary, same: cached?.key === input.key && summary !== undefined };
+    });
+    // Keeping is file-system work only (hard links), done side by side.
+    const keptFiles = await mapLimit(compared, FS_CONCURRENCY, async (c) => c.same && (await keepProduct(previous.dir, outDir, c.id)));
+    toBuild = [];
+    compared.forEach((c, k) => {
+      if (keptFiles[k]) {
+        outcomes.push({ index: c.item.index, entry: c.cached!.entry, summary: c.summary!, key: c.input.key });
+        kept.push(c.id);
       } else {
-        toBuild.push(item);
-        rebuilt.push({ id, reasons: changeReasons(project, previous, id, input, context) });
+        toBuild.push(c.item);
+        rebuilt.push({ id: c.id, reasons: changeReasons(project, previous, c.id, c.input, context) });
       }
-    }
+    });
   } else {
     for (const { rows } of selected) rebuilt.push({ id: rows.product.value.product_id, reasons: [] });
   }

@@ -6,11 +6,12 @@ import { buildSiteView, productInputs } from '../report/site-view.ts';
 import { physicalLines } from '../report/written.ts';
 import type { Table } from '../schema/table.ts';
 import type { FigureGraph } from '../trace/graph.ts';
+import { flowFactor } from '../process/run.ts';
+import { PROCESS_PREFIX } from '../schema/process-parameters.ts';
 
 /**
  * What a product's pages and results files are made of, as one hash: the product's own
- * rows and every row of another file it reaches (through its figure graph, and the rows its
- * page shows), each as written with its line number (pages print both), plus the
+ * rows and every row of another file it reaches (`productReach`), each as written with its line number (pages print both), plus the
  * project-wide part of its pages (declaration.json, tool version, cautions, methodology,
  * whether PDFs are made). Two builds with the same key for a product write the same bytes
  * for it (test/render/incremental.test.ts), so an incremental build may keep its files.
@@ -42,15 +43,21 @@ function recordEnd(table: Table<unknown>, line: number): number {
   return ends.get(line) ?? line;
 }
 
-export function productInputKey(project: Project, rows: ProductRows, graph: FigureGraph, context: string): InputKey {
+/**
+ * Every input row a product reads, found from its rows alone (no calculation): its own rows
+ * (product, BOM lines, activities, transport legs), the rows its page shows (its materials,
+ * its end-of-life scenario, the factor rows they name, its processes) and, through each
+ * process, the factor rows of the process's flows. The calculation reads nothing else:
+ * every build checks that each product's figure graph stays inside this set
+ * (`readsOutside`, called by the results writer), so a key that missed a row would stop
+ * the build rather than keep a stale product.
+ */
+export function productReach(project: Project, rows: ProductRows): Map<string, Set<number>> {
   const byFile = new Map<string, Set<number>>();
-  const add = (file: string, line: number) => {
-    let lines = byFile.get(file);
-    if (!lines) byFile.set(file, (lines = new Set()));
-    lines.add(line);
-  };
   const addRows = (table: Table<unknown>, list: ReadonlyArray<{ line: number }>) => {
-    for (const row of list) add(table.file, row.line);
+    let lines = byFile.get(table.file);
+    if (!lines) byFile.set(table.file, (lines = new Set()));
+    for (const row of list) lines.add(row.line);
   };
   addRows(project.products, [rows.product]);
   addRows(project.bom, rows.bom);
@@ -61,22 +68,52 @@ export function productInputKey(project: Project, rows: ProductRows, graph: Figu
   addRows(project.materials, shown.materials);
   addRows(project.factors, shown.factors);
   addRows(project.process, shown.processRows);
+  // A process's flows are charged with factors of their own (electricity, alumina, reagents),
+  // which may in turn be processes.
+  const seen = new Set<string>();
+  const pending = [...shown.factorIds].filter((id) => id.startsWith(PROCESS_PREFIX));
+  while (pending.length > 0) {
+    const processId = pending.pop()!.slice(PROCESS_PREFIX.length);
+    if (seen.has(processId)) continue;
+    seen.add(processId);
+    const definition = project.processes.find((process) => process.id === processId);
+    if (!definition) continue;
+    addRows(project.process, [...definition.rows.values()]);
+    const flowFactors = new Set(definition.result.inventory.map((flow) => flowFactor(definition, flow.flow).factor).filter((id) => id !== undefined));
+    addRows(project.factors, factorRowsOf(project, flowFactors));
+    for (const id of flowFactors) if (id.startsWith(PROCESS_PREFIX)) pending.push(id);
+  }
+  return byFile;
+}
+
+const factorRowsOf = (project: Project, ids: ReadonlySet<string>) => project.factors.rows.filter((row) => ids.has(row.value.factor_id));
+
+/**
+ * The first term of a product's figure graph that reads an input row outside its reach
+ * (declaration.json aside: it is part of the page context), or undefined when there is none.
+ */
+export function readsOutside(project: Project, reach: ReadonlyMap<string, ReadonlySet<number>>, graph: FigureGraph): { figure: string; file: string; line: number } | undefined {
+  const context = project.declarationFile.file;
   for (const node of graph.nodes.values()) {
     for (const term of node.terms) {
-      if (term.kind === 'cell') add(term.cell.file, term.cell.line);
-      else if (term.kind === 'factor') add(term.factor.file, term.factor.line);
+      const at = term.kind === 'cell' ? term.cell : term.kind === 'factor' ? term.factor : undefined;
+      if (at && at.file !== context && !reach.get(at.file)?.has(at.line)) return { figure: node.id, file: at.file, line: at.line };
     }
   }
+  return undefined;
+}
 
+/** A product's input key, from the rows it reaches (`productReach`) and the page context. */
+export function productInputKey(project: Project, rows: ProductRows, context: string): InputKey {
+  const byFile = productReach(project, rows);
   const hash = createHash('sha256').update(context);
   const files = inputTables(project);
   const sorted = new Map<string, number[]>();
   for (const file of [...byFile.keys()].sort()) {
     const lines = [...byFile.get(file)!].sort((a, b) => a - b);
+    if (lines.length === 0) continue;
     sorted.set(file, lines);
-    const table = files.get(file);
-    // declaration.json cells are part of the context; any other file is hashed line by line.
-    if (!table) continue;
+    const table = files.get(file)!;
     const text = physicalLines(table.csv);
     // The header decides how every row is read.
     hash.update(`\n${file}:header\n${text[table.csv.header.line - 1] ?? ''}`);

@@ -1,7 +1,7 @@
 import { writeFile } from 'node:fs/promises';
 import path from 'node:path';
 import { pathToFileURL } from 'node:url';
-import puppeteer, { type Browser, type Page } from 'puppeteer';
+import type { Browser, Page } from 'puppeteer';
 import { CHROMIUM_ARGS, type FoundBrowser } from './browser.ts';
 import type { Project } from '../model/types.ts';
 
@@ -63,6 +63,8 @@ const escapeHtml = (text: string) => text.replace(/[&<>"']/g, (c) => `&#${c.char
  * the build folder is refused, so a PDF can never pull anything from the network.
  */
 export async function printPdfs(browserInfo: FoundBrowser, buildDir: string, jobs: PdfJob[]): Promise<void> {
+  // Loaded when PDFs are printed: a build without them does not pay for puppeteer's import.
+  const { default: puppeteer } = await import('puppeteer');
   const browser: Browser = await puppeteer.launch({
     executablePath: browserInfo.executablePath,
     headless: true,

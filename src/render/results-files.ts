@@ -1,16 +1,17 @@
-import { mkdir, writeFile } from 'node:fs/promises';
+import { mkdir, readFile, writeFile } from 'node:fs/promises';
 import path from 'node:path';
 import { CalcContext } from '../calc/context.ts';
 import { calculateProduct } from '../calc/product.ts';
 import type { ProductRows } from '../model/by-product.ts';
 import type { Project } from '../model/types.ts';
-import { resultsCsv } from '../report/results-csv.ts';
+import { RESULTS_CSV_HEADER, resultsCsv } from '../report/results-csv.ts';
+import { FS_CONCURRENCY, mapLimit } from './each-limit.ts';
 import { resultsJsonText, resultsSummary, type ResultsSummary } from '../report/results.ts';
 import { auditView } from '../report/audit-view.ts';
 import { declarationResultsView } from '../report/declaration-view.ts';
 import type { ProductReport } from '../report/site-view.ts';
 import { renderChartSvg } from './charts.ts';
-import { productInputKey } from './input-key.ts';
+import { productInputKey, productReach, readsOutside } from './input-key.ts';
 
 
 /**
@@ -42,13 +43,28 @@ export class ResultsWriter {
     await writeFile(path.join(dir, 'results.csv'), resultsCsv([summary]));
     const view = declarationResultsView(ctx, rows, product, summary);
     for (const chart of view.charts) chart.svg = await renderChartSvg(chart);
-    return { report: { summary, results: view, audit: auditView(ctx.project, product) }, key: productInputKey(ctx.project, rows, product.graph, this.context).key };
+    const outside = readsOutside(ctx.project, productReach(ctx.project, rows), product.graph);
+    // A row the key does not cover would let `build --changed` keep a stale product: stop instead.
+    if (outside) throw new Error(`internal: figure ${outside.figure} of ${summary.product_id} reads ${outside.file} line ${outside.line}, which its input key does not cover (src/render/input-key.ts productReach); please report this`);
+    return { report: { summary, results: view, audit: auditView(ctx.project, product) }, key: productInputKey(ctx.project, rows, this.context).key };
   }
 
 }
 
-/** The catalogue-wide `results.json` (every product's results, without figure graphs) and `results.csv`. */
+/**
+ * The catalogue-wide `results.json` (every product's results, without figure graphs) and
+ * `results.csv`: the products' own `results.csv` files joined under one header, read back
+ * from the output (the same rows `resultsCsv` would make from the summaries, without
+ * formatting 400 000 numbers again when most products were kept by `build --changed`).
+ */
 export async function writeCatalogueResults(outDir: string, summaries: readonly ResultsSummary[]): Promise<void> {
   await writeFile(path.join(outDir, 'results.json'), `${JSON.stringify({ products: summaries }, null, 1)}\n`);
-  await writeFile(path.join(outDir, 'results.csv'), resultsCsv(summaries));
+  const header = Buffer.from(`${RESULTS_CSV_HEADER.join(',')}\n`);
+  const bodies = await mapLimit(summaries, FS_CONCURRENCY, async (summary) => {
+    const file = path.join(outDir, summary.product_id, 'results.csv');
+    const bytes = await readFile(file);
+    if (!bytes.subarray(0, header.length).equals(header)) throw new Error(`internal: ${file} does not start with the results.csv header`);
+    return bytes.subarray(header.length);
+  });
+  await writeFile(path.join(outDir, 'results.csv'), Buffer.concat([header, ...bodies]));
 }

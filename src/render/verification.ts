@@ -1,3 +1,4 @@
+import { FS_CONCURRENCY, mapLimit } from './each-limit.ts';
 import { createHash } from 'node:crypto';
 import { copyFile, mkdir, readdir, readFile, stat, writeFile } from 'node:fs/promises';
 import path from 'node:path';
@@ -48,13 +49,9 @@ export async function copyInputs(dataDir: string, outDir: string, inputs: readon
 
 async function listFiles(root: string, dir = ''): Promise<string[]> {
   const entries = await readdir(path.join(root, dir), { withFileTypes: true });
-  const files: string[] = [];
-  for (const entry of entries) {
-    const relative = dir ? `${dir}/${entry.name}` : entry.name;
-    if (entry.isDirectory()) files.push(...(await listFiles(root, relative)));
-    else files.push(relative);
-  }
-  return files;
+  const relative = (name: string) => (dir ? `${dir}/${name}` : name);
+  const nested = await mapLimit(entries.filter((entry) => entry.isDirectory()), FS_CONCURRENCY, (entry) => listFiles(root, relative(entry.name)));
+  return [...entries.filter((entry) => !entry.isDirectory()).map((entry) => relative(entry.name)), ...nested.flat()];
 }
 
 /** Files about the build rather than the declarations: the output marker and the build cache. */
@@ -63,17 +60,14 @@ const NOT_IN_MANIFEST = new Set([OUTPUT_MARKER, CACHE_FILE]);
 /** Written last: every other output exists by then. Paths are relative and sorted, so the manifest is reproducible. */
 export async function writeManifest(outDir: string, inputs: readonly HashedFile[], known: ReadonlyMap<string, HashedFile> = new Map()): Promise<void> {
   const self = `${VERIFICATION_DIR}/${MANIFEST_FILE}`;
-  const outputs: HashedFile[] = [];
-  for (const file of (await listFiles(outDir)).filter((f) => f !== self && !NOT_IN_MANIFEST.has(f)).sort()) {
+  const files = (await listFiles(outDir)).filter((f) => f !== self && !NOT_IN_MANIFEST.has(f)).sort();
+  const outputs = await mapLimit(files, FS_CONCURRENCY, async (file): Promise<HashedFile> => {
     // A file kept from the previous build (build --changed) keeps its hash while its size matches.
     const kept = known.get(file);
-    if (kept && (await stat(path.join(outDir, file))).size === kept.bytes) {
-      outputs.push(kept);
-      continue;
-    }
+    if (kept && (await stat(path.join(outDir, file))).size === kept.bytes) return kept;
     const bytes = await readFile(path.join(outDir, file));
-    outputs.push({ file, sha256: sha256(bytes), bytes: bytes.length });
-  }
+    return { file, sha256: sha256(bytes), bytes: bytes.length };
+  });
   const configuration = inputs.find((input) => input.file === DECLARATION_FILE)!;
   const manifest = { tool: { name: TOOL_NAME, version: TOOL_VERSION }, algorithm: 'SHA-256', configuration, inputs, outputs };
   await mkdir(path.join(outDir, VERIFICATION_DIR), { recursive: true });

@@ -8,6 +8,17 @@ import type { ResultsSummary } from './results.ts';
 export const RESULTS_CSV_HEADER = ['product_id', 'method', 'module', 'indicator', 'unit', 'value', 'figure_id'];
 
 function textCell(text: string): string {
+  let cell = cells.get(text);
+  if (cell === undefined) {
+    cell = quote(text);
+    // Ids, modules, codes and units repeat across products; product ids do not stay long.
+    if (cells.size < 100_000) cells.set(text, cell);
+  }
+  return cell;
+}
+const cells = new Map<string, string>();
+
+function quote(text: string): string {
   const safe = /^[=+\-@\t\r]/.test(text) ? `'${text}` : text;
   return /[",\n\r]/.test(safe) ? `"${safe.replace(/"/g, '""')}"` : safe;
 }
@@ -16,10 +27,16 @@ const numberCell = (value: number | null): string => (value === null ? '' : Stri
 
 export function resultsCsvRows(results: ResultsSummary): string[] {
   const units = new Map(results.indicators.map((i) => [i.code, i.unit]));
+  const product = textCell(results.product_id);
+  // The indicator and unit cells, once per product.
+  const codeUnit = new Map<string, string>();
   const rows: string[] = [];
   const emit = (method: string, module: string, values: Record<string, number | null>, idBase: string) => {
+    const head = `${product},${method},${textCell(module)},`;
     for (const [code, value] of Object.entries(values)) {
-      rows.push([textCell(results.product_id), method, textCell(module), textCell(code), textCell(units.get(code) ?? ''), numberCell(value), textCell(`${idBase}/${code}`)].join(','));
+      let cells = codeUnit.get(code);
+      if (cells === undefined) codeUnit.set(code, (cells = `${textCell(code)},${textCell(units.get(code) ?? '')},`));
+      rows.push(`${head}${cells}${numberCell(value)},${textCell(`${idBase}/${code}`)}`);
     }
   };
   const { cutoff, ...others } = results.methods;

@@ -2,6 +2,8 @@ import { afterAll, describe, expect, it } from 'vitest';
 import { mkdir, readFile, readdir, writeFile, stat } from 'node:fs/promises';
 import path from 'node:path';
 import { demoCopy, editFile, editLine, hashTree, removeDir, runCli, tempDir, DEMO } from '../helpers.ts';
+import { resultsCsv } from '../../src/report/results-csv.ts';
+import type { ResultsSummary } from '../../src/report/results.ts';
 
 const cleanup: string[] = [];
 afterAll(async () => Promise.all(cleanup.map(removeDir)));
@@ -190,6 +192,9 @@ describe('loopsheet build', () => {
     expect(results.figures['cutoff/A1/GWP-total'].value).toBe(results.methods.cutoff.modules.A1['GWP-total']);
     const catalogueCsv = await readFile(path.join(site, 'results.csv'), 'utf8');
     expect(catalogueCsv.split('\n')[0]).toBe('product_id,method,module,indicator,unit,value,figure_id');
+    // The catalogue's CSV joins the products' own files; it must equal the formatter's output for all of them.
+    const catalogue = JSON.parse(await readFile(path.join(site, 'results.json'), 'utf8')) as { products: ResultsSummary[] };
+    expect(catalogueCsv).toBe(resultsCsv(catalogue.products));
     // Eleventy's own summary must not reach stdout, which is for results.
     expect(result.stdout).not.toMatch(/\[11ty\]/);
   });
