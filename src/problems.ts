@@ -47,6 +47,11 @@ export const PROBLEM_CODES = {
   PARAMETER_UNKNOWN: 'a process.csv parameter that its kind does not have; the nearest known name is suggested',
   PROCESS_KIND_MIXED: 'rows of one process in process.csv name different kinds',
   PROCESS_INFEASIBLE: 'operating data that no real process can have (below a physical or stoichiometric floor)',
+  ALLOCATION_KEY_UNKNOWN: 'a site.csv row shares its amount by a key that is neither mass, declared_unit nor a column of production.csv',
+  ALLOCATION_KEY_ZERO: 'the allocation keys of a site and period add up to zero, so there is nothing to share by',
+  SITE_NO_PRODUCTION: 'a site and period of site.csv has no production.csv rows to share its amounts among',
+  PRODUCTION_UNUSED: 'production.csv rows of a site and period that site.csv has no amounts for (nothing is allocated)',
+  PRODUCTION_PERIODS: 'a product has output at the same site in more than one period; a declaration rests on one',
 } as const satisfies Record<string, string>;
 
 export type ProblemCode = keyof typeof PROBLEM_CODES;

@@ -1,4 +1,6 @@
 import type { Activity, TransportLeg } from '../model/types.ts';
+import type { AllocatedRow } from '../model/sites.ts';
+import { siteFigures } from './allocation.ts';
 import type { Row } from '../schema/table.ts';
 import { cellTerm, figureTerm, type FigureGraph, type Term } from '../trace/graph.ts';
 import { conversionTerm, type CalcContext, type ResolvedFactor } from './context.ts';
@@ -30,6 +32,8 @@ export interface CutoffResult {
 export interface ProductRows {
   activities: Row<Activity>[];
   transport: Row<TransportLeg>[];
+  /** Site rows allocated to the product; they join its own activities of the same module. */
+  site: readonly AllocatedRow[];
 }
 
 /**
@@ -45,18 +49,21 @@ export function cutoff(ctx: CalcContext, graph: FigureGraph, inv: Inventory, row
     return resolved;
   };
 
+  // The product's own activities of a module, then the site rows allocated to it.
+  const activities = (module: string) => [...activityFigures(ctx, graph, module, rows.activities, factor), ...siteFigures(ctx, graph, module, rows.site, factor)];
+
   // A1: raw material supply of the product's lines.
   const a1Lines = inv.productLines.map((line) => productionFigure(graph, `cutoff/A1/${line.key}`, line, factor));
-  const a1Activities = activityFigures(ctx, graph, 'A1', rows.activities, factor);
+  const a1Activities = activities('A1');
   const a1 = sumFigure(graph, 'cutoff/A1', [...a1Lines, ...a1Activities], 'A1 = Σ lines G·[(1−R1)·Ev + R1·Erec] + Σ A1 activities', 'Raw material supply: each product line’s gross input, virgin share at the virgin factor, recycled share at the recycled-production factor.');
 
   // A2: transport of inputs.
   const a2Legs = transportFigures(ctx, graph, 'A2', inv, rows.transport, factor);
-  const a2Activities = activityFigures(ctx, graph, 'A2', rows.activities, factor);
+  const a2Activities = activities('A2');
   const a2 = sumFigure(graph, 'cutoff/A2', [...a2Legs, ...a2Activities], 'A2 = Σ legs (G/1000)·d·F_tkm', 'Transport of inputs to the factory: carried mass in tonnes × distance × factor per tonne-kilometre.');
 
   // A3: manufacturing.
-  const a3ActivityIds = activityFigures(ctx, graph, 'A3', rows.activities, factor);
+  const a3ActivityIds = activities('A3');
   const a3Activities = sumFigure(graph, 'cutoff/A3/activities', a3ActivityIds, 'Σ A3 activities: amount·unit conversion·F', 'Energy, ancillaries and direct emissions of manufacturing.');
   const scrapIds: string[] = [];
   for (const line of inv.lines) {
@@ -76,13 +83,13 @@ export function cutoff(ctx: CalcContext, graph: FigureGraph, inv: Inventory, row
   const a13 = sumFigure(graph, 'cutoff/A1-A3', [a1.id, a2.id, a3.id], 'A1-A3 = A1 + A2 + A3', 'Cradle to gate.');
 
   // A4, A5: only where the product has rows for them.
-  const a4Ids = [...transportFigures(ctx, graph, 'A4', inv, rows.transport, factor), ...activityFigures(ctx, graph, 'A4', rows.activities, factor)];
-  const a5Ids = activityFigures(ctx, graph, 'A5', rows.activities, factor);
+  const a4Ids = [...transportFigures(ctx, graph, 'A4', inv, rows.transport, factor), ...activities('A4')];
+  const a5Ids = activities('A5');
   const a4 = a4Ids.length > 0 ? sumFigure(graph, 'cutoff/A4', a4Ids, 'A4 = Σ legs and activities', 'Transport to the site.').id : undefined;
   const a5 = a5Ids.length > 0 ? sumFigure(graph, 'cutoff/A5', a5Ids, 'A5 = Σ activities', 'Installation.').id : undefined;
 
   // C1–C4 and D, per material of the product.
-  const c1 = sumFigure(graph, 'cutoff/C1', activityFigures(ctx, graph, 'C1', rows.activities, factor), 'C1 = Σ C1 activities', 'De-construction and demolition.');
+  const c1 = sumFigure(graph, 'cutoff/C1', activities('C1'), 'C1 = Σ C1 activities', 'De-construction and demolition.');
   const c2Ids: string[] = [];
   const c3ProcessingIds: string[] = [];
   const c3EnergyIds: string[] = [];
@@ -130,11 +137,11 @@ export function cutoff(ctx: CalcContext, graph: FigureGraph, inv: Inventory, row
     }
     dIds.push(...moduleD(ctx, graph, m, factor));
   }
-  const c2 = sumFigure(graph, 'cutoff/C2', [...c2Ids, ...transportFigures(ctx, graph, 'C2', inv, rows.transport, factor), ...activityFigures(ctx, graph, 'C2', rows.activities, factor)], 'C2 = Σ materials M_eol·km/1000·F_tkm + C2 legs', 'Transport to waste processing.');
-  const c3Processing = sumFigure(graph, 'cutoff/C3/processing', [...c3ProcessingIds, ...activityFigures(ctx, graph, 'C3', rows.activities, factor)], 'Σ M_eol·recycling·F_proc + C3 activities', 'Processing of material sent to recycling, and other C3 activities.');
+  const c2 = sumFigure(graph, 'cutoff/C2', [...c2Ids, ...transportFigures(ctx, graph, 'C2', inv, rows.transport, factor), ...activities('C2')], 'C2 = Σ materials M_eol·km/1000·F_tkm + C2 legs', 'Transport to waste processing.');
+  const c3Processing = sumFigure(graph, 'cutoff/C3/processing', [...c3ProcessingIds, ...activities('C3')], 'Σ M_eol·recycling·F_proc + C3 activities', 'Processing of material sent to recycling, and other C3 activities.');
   const c3Energy = sumFigure(graph, 'cutoff/C3/energy-recovery', c3EnergyIds, 'Σ M_eol·energy_recovery·E_inc', 'Incineration with energy recovery.');
   const c3 = sumFigure(graph, 'cutoff/C3', [c3Processing.id, c3Energy.id], 'C3 = processing + energy recovery', 'Waste processing up to the end-of-waste state.');
-  const c4 = sumFigure(graph, 'cutoff/C4', [...c4Ids, ...activityFigures(ctx, graph, 'C4', rows.activities, factor)], 'C4 = Σ M_eol·(landfill·ED + incineration·E_inc) + C4 activities', 'Disposal.');
+  const c4 = sumFigure(graph, 'cutoff/C4', [...c4Ids, ...activities('C4')], 'C4 = Σ M_eol·(landfill·ED + incineration·E_inc) + C4 activities', 'Disposal.');
   const d = sumFigure(graph, 'cutoff/D', dIds, 'D = Σ materials (M_MR,out − M_MR,in)·(E_MR − E_VMSub·Q) + energy recovery', 'Benefits and loads beyond the system boundary (EN 15804+A2 Annex D); declared separately and not added to A–C.');
 
   const totalIds = [a1.id, a2.id, a3.id, ...(a4 ? [a4] : []), ...(a5 ? [a5] : []), c1.id, c2.id, c3.id, c4.id];

@@ -26,7 +26,7 @@ export function reportedMethods(ctx: CalcContext): CffMethod[] {
 export function calculateProduct(ctx: CalcContext, rows: ProductRows): ProductResult {
   const graph = new FigureGraph(ctx.indicators);
   const inv = inventory(ctx, graph, rows.product, rows.bom);
-  const cut = cutoff(ctx, graph, inv, { activities: rows.activities, transport: rows.transport });
+  const cut = cutoff(ctx, graph, inv, { activities: rows.activities, transport: rows.transport, site: rows.site });
   const modules = Object.keys(cut.modules);
   const flowResult = flows(ctx, graph, inv, modules, modules.filter((m) => m !== 'A1-A3' && m !== 'D'));
   const methods: ProductResult['methods'] = {};

@@ -1,11 +1,14 @@
 import type { Activity, BomLine, Product, Project, TransportLeg } from './types.ts';
 import type { Row } from '../schema/table.ts';
+import type { AllocatedRow } from './sites.ts';
 
 export interface ProductRows {
   product: Row<Product>;
   bom: Row<BomLine>[];
   activities: Row<Activity>[];
   transport: Row<TransportLeg>[];
+  /** Rows of site.csv shared to this product through production.csv. */
+  site: AllocatedRow[];
 }
 
 export function groupBy<T>(rows: T[], key: (row: T) => string): Map<string, T[]> {
@@ -26,6 +29,6 @@ export function rowsByProduct(project: Project): ProductRows[] {
   const transport = groupBy(project.transport.rows, (row) => row.value.product_id);
   return project.products.rows.map((product) => {
     const id = product.value.product_id;
-    return { product, bom: bom.get(id) ?? [], activities: activities.get(id) ?? [], transport: transport.get(id) ?? [] };
+    return { product, bom: bom.get(id) ?? [], activities: activities.get(id) ?? [], transport: transport.get(id) ?? [], site: project.allocation.byProduct.get(id) ?? [] };
   });
 }

@@ -102,6 +102,8 @@ function duplicateKeys(ctx: CheckContext): void {
     // Repeated activities and legs are legal but usually a double count.
     { table: p.activities, key: ['product_id', 'module', 'activity'], severity: 'warning', what: 'product, module and activity' },
     { table: p.transport, key: ['product_id', 'module', 'line_id', 'leg'], severity: 'warning', what: 'product, module, line and leg' },
+    { table: p.site, key: ['site_id', 'period', 'module', 'activity'], severity: 'warning', what: 'site, period, module and activity' },
+    { table: p.production, key: ['site_id', 'period', 'product_id'], severity: 'error', what: 'site, period and product' },
   ];
   for (const rule of rules) {
     const seen = new Map<string, number>();
@@ -160,21 +162,26 @@ function references(ctx: CheckContext): void {
     check(p.eol, row, 'transport_factor', row.value.transport_factor, factorIds, 'factor_id in factors.csv');
     check(p.eol, row, 'processing_factor', row.value.processing_factor, factorIds, 'factor_id in factors.csv');
   }
-  for (const row of p.activities.rows) {
-    check(p.activities, row, 'product_id', row.value.product_id, productIds, 'product_id in products.csv');
-    const factor = row.value.factor;
+  // Activities and site rows name their factor the same way.
+  const factorColumn = (table: AnyTable, row: { line: number; raw: Record<string, string> }, factor: string) => {
     if (factor.startsWith(GHG_PREFIX)) {
       if (!findGas(factor)) {
         const near = nearestName(factor, GHG_FACTOR_IDS);
-        ctx.at(p.activities, row.line, row.raw, 'factor', 'error', 'UNKNOWN_REFERENCE', 'is not a built-in greenhouse gas', {
+        ctx.at(table, row.line, row.raw, 'factor', 'error', 'UNKNOWN_REFERENCE', 'is not a built-in greenhouse gas', {
           expected: `one of ${GHG_FACTOR_IDS.join(', ')}`,
           ...(near ? { hint: `did you mean "${near}"?` } : {}),
         });
       }
     } else {
-      check(p.activities, row, 'factor', factor, factorIds, 'factor_id in factors.csv', processFactors);
+      check(table, row, 'factor', factor, factorIds, 'factor_id in factors.csv', processFactors);
     }
+  };
+  for (const row of p.activities.rows) {
+    check(p.activities, row, 'product_id', row.value.product_id, productIds, 'product_id in products.csv');
+    factorColumn(p.activities, row, row.value.factor);
   }
+  for (const row of p.site.rows) factorColumn(p.site, row, row.value.factor);
+  for (const row of p.production.rows) check(p.production, row, 'product_id', row.value.product_id, productIds, 'product_id in products.csv');
   const linesByProduct = new Map<string, Set<string>>();
   for (const row of p.bom.written) {
     const product = (row.raw.product_id ?? '').trim();
@@ -304,23 +311,25 @@ function unitRules(ctx: CheckContext): void {
     if (parameterSpec(row.value.kind, row.value.parameter)?.type !== 'factor') continue;
     perUnitOf(p.process, row, 'value', row.value.value, row.value.parameter === 'electricity_factor' ? 'energy' : 'mass', `${row.value.parameter} of a process`);
   }
-  for (const row of p.activities.rows) {
-    const { factor: factorId, unit } = row.value;
-    if (factorId.startsWith(GHG_PREFIX)) {
-      if (findGas(factorId) && dimensionOf(unit) !== 'mass') {
-        ctx.at(p.activities, row.line, row.raw, 'unit', 'error', 'UNIT_MISMATCH', `is not a mass; ${factorId} is characterised per kg of gas emitted`, { expected: 'a mass unit: g, kg or t' });
+  for (const table of [p.activities, p.site] as Array<Table<{ factor: string; unit: string }>>) {
+    for (const row of table.rows) {
+      const { factor: factorId, unit } = row.value;
+      if (factorId.startsWith(GHG_PREFIX)) {
+        if (findGas(factorId) && dimensionOf(unit) !== 'mass') {
+          ctx.at(table, row.line, row.raw, 'unit', 'error', 'UNIT_MISMATCH', `is not a mass; ${factorId} is characterised per kg of gas emitted`, { expected: 'a mass unit: g, kg or t' });
+        }
+        continue;
       }
-      continue;
-    }
-    if (factorId.startsWith(PROCESS_PREFIX)) {
-      if (dimensionOf(unit) !== 'mass') ctx.at(p.activities, row.line, row.raw, 'unit', 'error', 'UNIT_MISMATCH', `is not a mass; ${factorId} is a factor per kg of the metal the process makes`, { expected: 'a mass unit: g, kg or t' });
-      continue;
-    }
-    const factor = ctx.factor(factorId);
-    if (factor && !convertible(unit, factor.value.unit)) {
-      ctx.at(p.activities, row.line, row.raw, 'unit', 'error', 'UNIT_MISMATCH', `cannot be converted to ${factor.value.unit}, the unit of factor ${factorId} (factors.csv line ${factor.line})`, {
-        expected: `a unit of ${dimensionOf(factor.value.unit) ?? factor.value.unit}: ${unitsOf(dimensionOf(factor.value.unit) ?? 'mass').join(', ')}`,
-      });
+      if (factorId.startsWith(PROCESS_PREFIX)) {
+        if (dimensionOf(unit) !== 'mass') ctx.at(table, row.line, row.raw, 'unit', 'error', 'UNIT_MISMATCH', `is not a mass; ${factorId} is a factor per kg of the metal the process makes`, { expected: 'a mass unit: g, kg or t' });
+        continue;
+      }
+      const factor = ctx.factor(factorId);
+      if (factor && !convertible(unit, factor.value.unit)) {
+        ctx.at(table, row.line, row.raw, 'unit', 'error', 'UNIT_MISMATCH', `cannot be converted to ${factor.value.unit}, the unit of factor ${factorId} (factors.csv line ${factor.line})`, {
+          expected: `a unit of ${dimensionOf(factor.value.unit) ?? factor.value.unit}: ${unitsOf(dimensionOf(factor.value.unit) ?? 'mass').join(', ')}`,
+        });
+      }
     }
   }
 }
@@ -342,6 +351,7 @@ function usedFactors(ctx: CheckContext): Map<string, string> {
     use(row.value.processing_factor, `eol.csv line ${row.line}`);
   }
   for (const row of p.activities.rows) use(row.value.factor, `activities.csv line ${row.line}`);
+  for (const row of p.site.rows) use(row.value.factor, `site.csv line ${row.line}`);
   for (const row of p.transport.rows) use(row.value.factor, `transport.csv line ${row.line}`);
   for (const row of p.process.rows) if (parameterSpec(row.value.kind, row.value.parameter)?.type === 'factor') use(row.value.value, `process.csv line ${row.line}`);
   return used;
@@ -447,7 +457,7 @@ function energyRecoveryRules(ctx: CheckContext): void {
 
 function provenanceWarnings(ctx: CheckContext): void {
   const p = ctx.project;
-  for (const table of [p.bom, p.activities, p.transport] as AnyTable[]) {
+  for (const table of [p.bom, p.activities, p.transport, p.site, p.production] as AnyTable[]) {
     for (const row of table.rows as Array<Row<{ source?: string }>>) {
       if (row.value.source === undefined) {
         ctx.at(table, row.line, row.raw, 'source', 'warning', 'SOURCE_MISSING', 'is empty: a verifier will ask where this figure comes from', { value: row.raw.source ?? '', expected: 'a document, meter or supplier declaration' });

@@ -4,6 +4,7 @@ import type { Declaration } from '../schema/declaration.ts';
 import type { JsonFile } from '../load/json.ts';
 import type { Table } from '../schema/table.ts';
 import type { ProcessDefinition, ProcessRow } from './processes.ts';
+import type { ProductionRow, SiteAllocation, SiteRow } from './sites.ts';
 
 /** Typed rows of each input file, inferred from the zod schemas (never written twice). */
 export type Product = RowOf<typeof productsCsv>;
@@ -41,4 +42,10 @@ export interface Project {
   process: Table<ProcessRow>;
   /** Its processes, validated and checked against their physical floors. */
   processes: ProcessDefinition[];
+  /** site.csv (optional): a site's amounts for a whole period. */
+  site: Table<SiteRow>;
+  /** production.csv (optional): each product's output at a site in a period. */
+  production: Table<ProductionRow>;
+  /** The site rows each product receives, with their keys and shares. */
+  allocation: SiteAllocation;
 }

@@ -31,7 +31,7 @@ export function pageContextKey(project: Project, problems: readonly Problem[], p
 
 /** The project's input tables by file name. */
 export function inputTables(project: Project): Map<string, Table<unknown>> {
-  const list: Array<Table<unknown>> = [project.products, project.bom, project.materials, project.eol, project.activities, project.transport, project.factors, project.process];
+  const list: Array<Table<unknown>> = [project.products, project.bom, project.materials, project.eol, project.activities, project.transport, project.factors, project.process, project.site, project.production];
   return new Map(list.map((table) => [table.file, table]));
 }
 
@@ -68,6 +68,10 @@ export function productReach(project: Project, rows: ProductRows): Map<string, S
   addRows(project.materials, shown.materials);
   addRows(project.factors, shown.factors);
   addRows(project.process, shown.processRows);
+  addRows(project.site, shown.siteRows);
+  addRows(project.production, shown.productionRows);
+  // Mass keys read every product's unit mass of the period.
+  addRows(project.products, shown.siteProducts);
   // A process's flows are charged with factors of their own (electricity, alumina, reagents),
   // which may in turn be processes.
   const seen = new Set<string>();

@@ -12,6 +12,7 @@ import type { ResultsSummary } from './results.ts';
 import { AUDIT_PAGE, fragment, inputAnchor } from './figure-links.ts';
 import { physicalLines } from './written.ts';
 import { PROCESS_PREFIX } from '../schema/process-parameters.ts';
+import { allocationBase } from '../calc/allocation.ts';
 
 /** What the site shows of one product's results, taken while its figure graph is alive. */
 export interface ProductReport {
@@ -275,11 +276,18 @@ export function productInputs(project: Project, rows: ProductRows) {
   for (const m of materials) for (const id of [m.value.virgin, m.value.recycled, m.value.eol_recycling, m.value.substituted, m.value.landfill, m.value.incineration]) if (id) factorIds.add(id);
   for (const a of rows.activities) factorIds.add(a.value.factor);
   for (const t of rows.transport) factorIds.add(t.value.factor);
+  for (const a of rows.site) factorIds.add(a.row.value.factor);
   for (const e of eolRows) for (const id of [e.value.transport_factor, e.value.processing_factor]) if (id) factorIds.add(id);
   const factors = project.factors.rows.filter((row) => factorIds.has(row.value.factor_id));
   const processIds = new Set([...factorIds].filter((id) => id.startsWith(PROCESS_PREFIX)).map((id) => id.slice(PROCESS_PREFIX.length)));
   const processRows = project.process.rows.filter((row) => processIds.has(row.value.process_id));
-  return { eolRows, materials, factorIds, factors, processRows };
+  // Site data: the rows shared to the product, and the production of every product of their periods (the shares rest on it).
+  const siteRows = [...new Set(rows.site.map((a) => a.row))];
+  const groups = [...new Set(rows.site.map((a) => a.group))];
+  const productionRows = groups.flatMap((group) => group.production);
+  const massKeyed = new Set(rows.site.filter((a) => a.key.name === 'mass').flatMap((a) => a.group.production.map((p) => p.value.product_id)));
+  const siteProducts = project.products.rows.filter((row) => massKeyed.has(row.value.product_id));
+  return { eolRows, materials, factorIds, factors, processRows, siteRows, productionRows, siteProducts };
 }
 
 function productView(project: Project, rows: ProductRows, report: ProductReport | undefined): ProductView {
@@ -288,7 +296,7 @@ function productView(project: Project, rows: ProductRows, report: ProductReport 
   const lines = rows.bom;
   const activities = rows.activities;
   const legs = rows.transport;
-  const { eolRows, materials, factorIds, factors, processRows } = productInputs(project, rows);
+  const { eolRows, materials, factorIds, factors, processRows, productionRows } = productInputs(project, rows);
   const gases = [...factorIds].map(findGas).filter((gas) => gas !== undefined);
 
   const tables: TableView[] = [
@@ -356,6 +364,40 @@ function productView(project: Project, rows: ProductRows, report: ProductReport 
       empty: 'No factors.',
     },
   ];
+  if (rows.site.length > 0) {
+    tables.push({
+      title: 'Site data, allocated',
+      caption: `Amounts metered or bought for a whole site and period (site.csv), shared among the products made there by the key each row names (ISO 14044 §4.3.4): per declared unit, amount × share ÷ this product’s output. The share links to its derivation.`,
+      headers: [{ text: 'Site' }, { text: 'Period' }, { text: 'Module' }, { text: 'Activity' }, { text: 'Factor' }, { text: 'Amount in the period', numeric: true }, { text: 'Unit' }, { text: 'Key' }, { text: 'Share', numeric: true }, { text: 'Output', numeric: true }, { text: 'Source' }],
+      rows: rows.site.map((a) => ({
+        source: sourceOf(project.site, a.row),
+        cells: [
+          txt(a.group.site), txt(a.group.period), txt(a.row.value.module), txt(a.row.value.activity), txt(a.row.value.factor), num(a.row.value.amount), txt(a.row.value.unit), txt(a.key.name),
+          { ...pct(a.share), href: `${AUDIT_PAGE}#${fragment(`${allocationBase(a)}/share`)}` },
+          num(a.production.value.output), txt(a.row.value.source),
+        ],
+      })),
+      empty: '',
+    });
+    const keys = [...new Map(rows.site.map((a) => [`${a.group.site}\u0000${a.group.period}\u0000${a.key.name}`, a])).values()];
+    tables.push({
+      title: 'Production at the sites',
+      caption: `Output of every product made at the sites and periods above (production.csv), in declared units, with each product’s share by ${keys.map((a) => a.key.name).filter((k, i, all) => all.indexOf(k) === i).join(', ')}; the shares of a key add up to 100 %.`,
+      headers: [{ text: 'Site' }, { text: 'Period' }, { text: 'Product' }, { text: 'Output', numeric: true }, ...keys.flatMap((a) => [{ text: `Key: ${a.key.name}${a.key.name === 'mass' ? ' (kg)' : ''}`, numeric: true }, { text: `Share by ${a.key.name} (${a.group.site}, ${a.group.period})`, numeric: true }]), { text: 'Source' }],
+      rows: productionRows.map((row) => ({
+        source: sourceOf(project.production, row),
+        cells: [
+          txt(row.value.site_id), txt(row.value.period), txt(row.value.product_id), num(row.value.output),
+          ...keys.flatMap((a) => {
+            const key = a.group.production.includes(row) ? a.key.values.get(row.value.product_id) : undefined;
+            return key === undefined ? [txt('—'), txt('—')] : [num(key), pct(key / a.key.total)];
+          }),
+          txt(row.value.source),
+        ],
+      })),
+      empty: '',
+    });
+  }
   if (processRows.length > 0) {
     tables.push({
       title: 'Process data',
@@ -399,6 +441,16 @@ function productView(project: Project, rows: ProductRows, report: ProductReport 
   };
 }
 
+/** How site-level data were shared among products, when the project has any (ISO 14044 §4.3.4). */
+function siteAllocationStatement(project: Project): string[] {
+  const groups = project.allocation.groups.filter((group) => group.keys.size > 0);
+  if (groups.length === 0) return [];
+  const described = groups.map((group) => `${group.site} (${group.period}: ${group.rows.length} row${group.rows.length === 1 ? '' : 's'} of site.csv shared among ${group.production.length} product${group.production.length === 1 ? '' : 's'} by ${[...group.keys.keys()].join(', ')})`);
+  return [
+    `Site-level data (ISO 14044 §4.3.4): amounts metered or bought for a whole site and period are shared among the products made there in that period, per declared unit amount × key_p / Σ keys ÷ output_p, where the key is the output’s mass (output × unit mass), the output in declared units, or a key of the practitioner’s own from production.csv. Allocation was not avoided by subdivision for these rows; the shares are listed with the inputs of each declaration. Sites: ${described.join('; ')}.`,
+  ];
+}
+
 /**
  * The methodology statements every declaration page and the verification pack print: how
  * the figures were made, where the standards leave a choice, and which choice was made.
@@ -427,6 +479,7 @@ export function methodology(project: Project): Array<{ title: string; paragraphs
         'Module D (EN 15804+A2 Annex D), per material: D = (M_MR,out − M_MR,in) · (E_MR,after EoW,out − E_VMSub,out · Q_R,out/Q_Sub). Only the net flow earns a credit; a negative net flow gives a load. M_MR,out includes process scrap sent to recycling, after the recycling yield.',
         'Besides cut-off, the Circular Footprint Formula (Commission Recommendation (EU) 2021/2279; A from materials.csv, else 0.2 for metals; B = 0) and its presets 0:100 (A = 0) and 50:50 (A = 0.5) are shown for comparison where the declaration asks for them' + ` (${methods.join(', ')}).` + ' Under these, process scrap sent to recycling earns the same end-of-life term as the product, scrap · yield · (1 − A) · (E_recEoL − E*v · Q_out); disposed scrap is charged as in A3.',
         'Incineration with energy recovery is charged to C3; the exported energy is credited in module D' + (d.energy_recovery ? ` at an electrical efficiency of ${d.energy_recovery.electricity_efficiency} and a thermal efficiency of ${d.energy_recovery.heat_efficiency} (declaration.json energy_recovery).` : ' where declaration.json gives the plant efficiencies (energy_recovery).'),
+        ...siteAllocationStatement(project),
       ],
     },
     {

@@ -7,9 +7,11 @@ import { activitiesCsv } from './activities.ts';
 import { transportCsv } from './transport.ts';
 import { factorsCsv } from './factors.ts';
 import { processCsv } from './process.ts';
+import { siteCsv } from './site.ts';
+import { productionCsv } from './production.ts';
 
 export const DECLARATION_FILE = 'declaration.json';
 
-export const CSV_FILES = [productsCsv, bomCsv, materialsCsv, eolCsv, activitiesCsv, transportCsv, factorsCsv, processCsv] as const;
+export const CSV_FILES = [productsCsv, bomCsv, materialsCsv, eolCsv, activitiesCsv, transportCsv, factorsCsv, processCsv, siteCsv, productionCsv] as const;
 
-export { productsCsv, bomCsv, materialsCsv, eolCsv, activitiesCsv, transportCsv, factorsCsv, processCsv };
+export { productsCsv, bomCsv, materialsCsv, eolCsv, activitiesCsv, transportCsv, factorsCsv, processCsv, siteCsv, productionCsv };

@@ -33,6 +33,12 @@ export interface TableOptions {
   canonicalName?: (header: string) => string | undefined;
   /** Known columns that this file does not read, with the reason (warning). */
   ignored?: (canonical: string) => string | undefined;
+  /**
+   * Header cells outside the contract are the user's own columns (production.csv's
+   * allocation keys): kept in `columns` and `raw` under their trimmed header, not warned
+   * about here (the reader of the file says which it uses).
+   */
+  extraColumns?: boolean;
 }
 
 /** Turns records into validated rows one at a time; `finish` returns the table and every problem. */
@@ -58,7 +64,7 @@ export function tableReader<S extends CsvFileSchema>(csv: CsvSource, schema: S, 
   csv.header.names.forEach((header, index) => {
     const position = index + 1;
     if (header === '') return;
-    const canonical = byLower.get(header.toLowerCase()) ?? options.canonicalName?.(header);
+    const canonical = byLower.get(header.toLowerCase()) ?? options.canonicalName?.(header) ?? (options.extraColumns ? header : undefined);
     if (canonical === undefined) {
       const near = nearestName(header, knownNames);
       problems.push({

@@ -77,7 +77,7 @@ describe('loopsheet diff on two builds of the demo', () => {
     const oldOut = path.join(work, 'old');
     const newOut = path.join(work, 'new');
     expect((await runCli(['build', '--data', data, '--out', oldOut, '--no-pdf'])).code).toBe(0);
-    // factors.csv line 4: al-remelted-ingot GWP-total 0.625 → 0.705; bom.csv line 3: recycled_post 45% → 55%.
+    // factors.csv line 4: al-remelted-ingot GWP-total 0.625 → 0.705 (read by the three profiles); bom.csv line 3: recycled_post 45% → 55% (KV-EXT-6060 only).
     await editLine(path.join(data, 'factors.csv'), 4, 'al-remelted-ingot,Aluminium ingot remelted from pre- and post-consumer scrap,kg,loopsheet illustrative factor set demo-1,Invented for the demo (illustrative),0.625,', 'al-remelted-ingot,Aluminium ingot remelted from pre- and post-consumer scrap,kg,loopsheet illustrative factor set demo-1,Invented for the demo (illustrative),0.705,');
     await editLine(path.join(data, 'bom.csv'), 3, '30%,45%', '30%,55%');
     // A comment line above moves every factor row down one line: rows are matched by key, not line.
@@ -86,7 +86,7 @@ describe('loopsheet diff on two builds of the demo', () => {
 
     const md = await runCli(['diff', oldOut, newOut]);
     expect(md.code, md.stderr).toBe(0);
-    expect(md.stdout).toContain('3 products compared; 1 with figures that moved more than 1 %; 0 added; 0 removed.');
+    expect(md.stdout).toContain('5 products compared; 3 with figures that moved more than 1 %; 0 added; 0 removed.');
     expect(md.stdout).toContain('#### `KV-EXT-6060`');
     expect(md.stdout).toContain("`factors.csv` line 5 (`al-remelted-ingot`) `GWP-total`: `0.625` → `0.705` (was line 4)");
     expect(md.stdout).toContain("`bom.csv` line 3 (`KV-EXT-6060 · L1`) `recycled_post`: `45%` → `55%`");
@@ -128,7 +128,7 @@ describe('loopsheet diff on two builds of the demo', () => {
     for (const file of ['products.csv', 'bom.csv', 'activities.csv', 'transport.csv']) await editFile(path.join(data, file), (text) => text.replaceAll('KV-BR-40', 'KV-BR-41'));
     expect((await runCli(['build', '--data', data, '--out', path.join(work, 'new'), '--no-pdf'])).code).toBe(0);
     const md = await runCli(['diff', path.join(work, 'old'), path.join(work, 'new')]);
-    expect(md.stdout).toContain('2 products compared');
+    expect(md.stdout).toContain('4 products compared');
     expect(md.stdout).toContain('Added: `KV-BR-41`');
     expect(md.stdout).toContain('Removed: `KV-BR-40`');
     const single = await runCli(['diff', path.join(work, 'old', 'KV-CU-BB10', 'results.json'), path.join(work, 'new', 'KV-CU-BB10', 'results.json'), '--format', 'json']);

@@ -53,7 +53,7 @@ const cases: Case[] = [
   { code: 'EOL_SHARES_SUM', plant: (d) => editLine(at(d, 'eol.csv'), 3, '96%,0,0,4%', '96%,0,0,5%'), expected: { file: 'eol.csv', line: 3, column: 'landfill' } },
   { code: 'EOL_SCENARIO_GAP', plant: (d) => editLine(at(d, 'eol.csv'), 8, 'steel-construction,zinc', 'steel-construction,tin'), expected: { file: 'products.csv', line: 5, column: 'eol_scenario' } },
   { code: 'UNIT_MASS_MISMATCH', plant: (d) => editLine(at(d, 'products.csv'), 5, ',0.46,', ',0.5,'), expected: { file: 'products.csv', line: 5, column: 'unit_mass_kg', value: '0.5' } },
-  { code: 'NO_BOM_LINES', plant: (d) => editFile(at(d, 'products.csv'), (t) => `${t}KV-NEW,New product,1 kg,1,building-metals,\n`), expected: { file: 'products.csv', line: 6, column: 'product_id' } },
+  { code: 'NO_BOM_LINES', plant: (d) => editFile(at(d, 'products.csv'), (t) => `${t}KV-NEW,New product,1 kg,1,building-metals,\n`), expected: { file: 'products.csv', line: 8, column: 'product_id' } },
   { code: 'FACTOR_REQUIRED', plant: (d) => editLine(at(d, 'materials.csv'), 3, 'process:glenmoor-potline,al-remelted-ingot,', 'process:glenmoor-potline,,'), expected: { file: 'materials.csv', line: 3, column: 'recycled' } },
   { code: 'FACTOR_VALUE_MISSING', plant: async () => undefined, expected: { file: 'factors.csv', line: 23, column: 'ODP', severity: 'warning' } },
   {
@@ -88,6 +88,26 @@ const cases: Case[] = [
     expected: { file: 'process.csv', line: 4, column: 'value', value: '12000', message: expect.stringMatching(/below the Faraday-law floor of 1251\d kWh\/t/) },
   },
   { code: 'BIOGENIC_CARBON_MISSING', plant: (d) => editLine(at(d, 'materials.csv'), 8, ',14,0.42,', ',14,,'), expected: { file: 'materials.csv', line: 8, column: 'biogenic_c_kg_per_kg', severity: 'warning' } },
+  // site.csv and production.csv (demo: site.csv rows on lines 3–5, production.csv rows on lines 3–5).
+  { code: 'ALLOCATION_KEY_UNKNOWN', plant: (d) => editLine(at(d, 'site.csv'), 3, ',kWh,mass,', ',kWh,masss,'), expected: { file: 'site.csv', line: 3, column: 'allocation', columnIndex: 8, value: 'masss', hint: 'did you mean "mass"?' } },
+  {
+    code: 'ALLOCATION_KEY_ZERO',
+    plant: async (d) => {
+      await editFile(at(d, 'production.csv'), (t) => t.replace('output,source', 'output,source,press_hours').replace(/\(illustrative\)\n/g, '(illustrative),0\n'));
+      await editLine(at(d, 'site.csv'), 3, ',kWh,mass,', ',kWh,press_hours,');
+    },
+    expected: { file: 'site.csv', line: 3, column: 'allocation', value: 'press_hours' },
+  },
+  { code: 'SITE_NO_PRODUCTION', plant: (d) => editLine(at(d, 'site.csv'), 5, 'norwick-press-shop,2025,', 'norwick-press-shop,2024,'), expected: { file: 'site.csv', line: 5, column: 'period', columnIndex: 2, value: '2024' } },
+  { code: 'PRODUCTION_UNUSED', plant: (d) => editFile(at(d, 'production.csv'), (t) => `${t}norwick-press-shop,2024,KV-EXT-6060,1100000,records 2024\n`), expected: { file: 'production.csv', line: 6, column: 'period', value: '2024', severity: 'warning' } },
+  {
+    code: 'PRODUCTION_PERIODS',
+    plant: async (d) => {
+      await editFile(at(d, 'site.csv'), (t) => `${t}norwick-press-shop,2024,A3,"Compressed air, electricity",grid-electricity,400000,kWh,mass,meter 2024\n`);
+      await editFile(at(d, 'production.csv'), (t) => `${t}norwick-press-shop,2024,KV-EXT-6060,1100000,records 2024\n`);
+    },
+    expected: { file: 'production.csv', line: 6, column: 'period', value: '2024' },
+  },
 ];
 
 const dirs: string[] = [];
@@ -116,7 +136,7 @@ describe('the demo project', () => {
     const { problems, project } = await loadProject(path.resolve('data'));
     expect(problems.filter((p) => p.severity === 'error')).toEqual([]);
     expect(problems.map((p) => p.code)).toEqual(['FACTOR_VALUE_MISSING']);
-    expect(project?.products.rows.map((r) => r.value.product_id)).toEqual(['KV-EXT-6060', 'KV-CU-BB10', 'KV-BR-40']);
+    expect(project?.products.rows.map((r) => r.value.product_id)).toEqual(['KV-EXT-6060', 'KV-CU-BB10', 'KV-BR-40', 'KV-EXT-6060-50', 'KV-EXT-6060-60']);
   });
 
   it('labels its factor values as illustrative', async () => {

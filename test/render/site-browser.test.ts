@@ -14,7 +14,7 @@ import { DEMO, ROOT, demoCopy, editFile, removeDir, runCli, tempDir } from '../h
  * finds no serious or critical accessibility violation, and hostile input text stays text.
  */
 const axeSource = (createRequire(import.meta.url)('axe-core') as { source: string }).source;
-const PRODUCTS = ['KV-EXT-6060', 'KV-CU-BB10', 'KV-BR-40'];
+const PRODUCTS = ['KV-EXT-6060', 'KV-CU-BB10', 'KV-BR-40', 'KV-EXT-6060-50', 'KV-EXT-6060-60'];
 const ARTIFACTS = path.join(ROOT, 'test', 'artifacts');
 
 const found = await findBrowser();
@@ -82,7 +82,7 @@ describe.skipIf(!found)('the site in a real Chromium', () => {
   it('opens every page with no console error, page error or failed request', async () => {
     const pages = await htmlPages(out);
     // catalogue, factor table, verification pack, and a declaration and an audit trail per product
-    expect(pages).toEqual(['KV-BR-40/audit.html', 'KV-BR-40/index.html', 'KV-CU-BB10/audit.html', 'KV-CU-BB10/index.html', 'KV-EXT-6060/audit.html', 'KV-EXT-6060/index.html', 'factors/index.html', 'index.html', 'verification/index.html']);
+    expect(pages).toEqual(['KV-BR-40/audit.html', 'KV-BR-40/index.html', 'KV-CU-BB10/audit.html', 'KV-CU-BB10/index.html', 'KV-EXT-6060-50/audit.html', 'KV-EXT-6060-50/index.html', 'KV-EXT-6060-60/audit.html', 'KV-EXT-6060-60/index.html', 'KV-EXT-6060/audit.html', 'KV-EXT-6060/index.html', 'factors/index.html', 'index.html', 'verification/index.html']);
     for (const file of pages) {
       const { page, errors } = await open(file);
       // Every link inside the build points at a file that exists.
@@ -216,7 +216,7 @@ describe.skipIf(!found)('the site in a real Chromium', () => {
     const plain = await browser!.newPage();
     await plain.setJavaScriptEnabled(false);
     await plain.goto(pathToFileURL(path.join(out, 'index.html')).href);
-    expect(await plain.$$eval('#catalogue tbody tr', (rows) => rows.length)).toBe(3);
+    expect(await plain.$$eval('#catalogue tbody tr', (rows) => rows.length)).toBe(5);
     expect(await plain.$eval('#catalogue-tools', (tools) => (tools as HTMLElement).hidden)).toBe(true);
     await plain.close();
   });

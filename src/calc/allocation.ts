@@ -1,0 +1,82 @@
+import type { AllocatedRow } from '../model/sites.ts';
+import type { Product } from '../model/types.ts';
+import type { Row } from '../schema/table.ts';
+import { cellTerm, figureTerm, type FigureGraph, type Term } from '../trace/graph.ts';
+import { conversionTerm, type CalcContext, type ResolvedFactor } from './context.ts';
+import { vectorFigure } from './nodes.ts';
+import { scaled } from './vector.ts';
+
+/**
+ * Site rows shared to the product (ISO 14044 §4.3.4), one figure each, beside the product's
+ * own activities of the same module:
+ *
+ *   per declared unit = amount × share ÷ output_p × (unit → factor unit) × F
+ *   share = key_p / Σ_q key_q      key = output × unit_mass_kg | output | the user's key cell
+ *
+ * The share is a figure of its own whose terms reach the annual cell, each product's output
+ * (and unit mass) cell and the key, so the audit trail shows the allocation step.
+ */
+export function siteFigures(ctx: CalcContext, graph: FigureGraph, module: string, allocated: readonly AllocatedRow[], factor: (id: string) => ResolvedFactor): string[] {
+  const site = ctx.project.site;
+  return allocated
+    .filter((a) => a.row.value.module === module)
+    .map((a) => {
+      const s = a.row.value;
+      const f = factor(s.factor);
+      const conversion = conversionTerm(graph, s.unit, f.unit);
+      const share = shareFigure(ctx, graph, a);
+      const perUnit = (s.amount * a.share) / a.production.value.output;
+      const id = `cutoff/${module}/site:${a.row.line}`;
+      vectorFigure(graph, id, scaled(f.values, perUnit * conversion.factor), `amount·share/output${conversion.terms.length ? '·(unit→factor unit)' : ''}·F`, `${s.activity}: ${a.group.site}, ${a.group.period}, shared by ${a.key.name}.`, [
+        cellTerm(ctx.cell(site, a.row, 'amount'), 'amount'),
+        cellTerm(ctx.cell(site, a.row, 'unit'), 'unit'),
+        figureTerm(share, 'share'),
+        cellTerm(ctx.cell(ctx.project.production, a.production, 'output'), 'output'),
+        ...conversion.terms,
+        f.term('F'),
+      ]);
+      return id;
+    });
+}
+
+/** The figure ids of a site period's key. */
+export const allocationBase = (a: AllocatedRow): string => `allocation/${a.group.site}/${a.group.period}/${a.key.name}`;
+
+const KEY_UNITS: Record<string, string> = { mass: 'kg', declared_unit: 'declared units' };
+
+/** key_p, Σ keys and the share, added once per graph (several site rows share a key). */
+function shareFigure(ctx: CalcContext, graph: FigureGraph, a: AllocatedRow): string {
+  const base = allocationBase(a);
+  const shareId = `${base}/share`;
+  if (graph.get(shareId)) return shareId;
+  const unit = KEY_UNITS[a.key.name] ?? a.key.name;
+  const production = ctx.project.production;
+  const keyTerms = (p: Row<{ product_id: string }>, suffix: string): Term[] => {
+    if (a.key.name === 'declared_unit') return [cellTerm(ctx.cell(production, p, 'output'), `output${suffix}`)];
+    if (a.key.name === 'mass') return [cellTerm(ctx.cell(production, p, 'output'), `output${suffix}`), cellTerm(ctx.cell(ctx.project.products, productRow(ctx, p.value.product_id), 'unit_mass_kg'), `unit_mass${suffix}`)];
+    return [cellTerm(ctx.cell(production, p, a.key.name), `${a.key.name}${suffix}`)];
+  };
+  const formula = a.key.name === 'mass' ? 'output·unit_mass_kg' : a.key.name === 'declared_unit' ? 'output' : a.key.name;
+  const own = a.key.values.get(a.production.value.product_id)!;
+  const keyId = `${base}/key`;
+  graph.add({ kind: 'scalar', id: keyId, value: own, unit, formula: `key = ${formula}`, description: `The allocation key of this product at ${a.group.site} in ${a.group.period}.`, terms: keyTerms(a.production, '') });
+  const totalId = `${base}/total`;
+  const members = a.group.production.filter((p) => a.key.values.has(p.value.product_id));
+  graph.add({
+    kind: 'scalar', id: totalId, value: a.key.total, unit,
+    formula: `Σ ${formula} over the ${members.length} products of the period`,
+    description: `The allocation key of every product made at ${a.group.site} in ${a.group.period}.`,
+    terms: members.flatMap((p) => keyTerms(p, `[${p.value.product_id}]`)),
+  });
+  graph.add({ kind: 'scalar', id: shareId, value: a.share, unit: 'share', formula: 'share = key / Σ keys', description: `This product’s share of the amounts of ${a.group.site} in ${a.group.period} (ISO 14044 §4.3.4).`, terms: [figureTerm(keyId, 'key'), figureTerm(totalId, 'Σ keys')] });
+  return shareId;
+}
+
+const productRows = new WeakMap<object, Map<string, Row<Product>>>();
+function productRow(ctx: CalcContext, id: string): Row<Product> {
+  let rows = productRows.get(ctx.project);
+  if (!rows) productRows.set(ctx.project, (rows = new Map(ctx.project.products.rows.map((row) => [row.value.product_id, row]))));
+  const row = rows.get(id);
+  if (!row) throw new Error(`product ${id} not in the validated project`);
+  return row;
+}

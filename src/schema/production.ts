@@ -1,0 +1,30 @@
+import { z } from 'zod';
+import { id, quantity, reference, requiredText, text } from './cells.ts';
+import { defineCsv } from './csv-file.ts';
+
+/**
+ * production.csv (optional): each product's output at a site in a period, the base of the
+ * allocation of site.csv. Columns beyond the contract are your own allocation keys (numbers
+ * per product: machine_hours, surface_m2), used where a site.csv row names them.
+ */
+export const productionCsv = defineCsv({
+  file: 'production.csv',
+  purpose: 'Each product’s output at a site in a period, which shares the site’s consumption (site.csv); extra numeric columns are your own allocation keys; optional.',
+  key: ['site_id', 'period', 'product_id'],
+  optional: true,
+  row: (d) =>
+    z.object({
+      site_id: id('The site (→ site.csv site_id).'),
+      period: requiredText('The period (→ site.csv period).'),
+      product_id: reference('The product.', 'products.csv product_id'),
+      output: quantity(d, 'Declared units of the product made at the site in the period.', 'declared units', { positive: true }),
+      source: text('Where the figure comes from (production records, year).'),
+    }),
+  example: {
+    site_id: 'norwick-press-shop',
+    period: '2025',
+    product_id: 'EXT-6060-40',
+    output: '1200000',
+    source: 'Production records 2025 (illustrative)',
+  },
+});

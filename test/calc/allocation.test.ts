@@ -1,0 +1,150 @@
+import { describe, expect, it } from 'vitest';
+import { writeFile } from 'node:fs/promises';
+import path from 'node:path';
+import { compute, writeFixture } from './fixture.ts';
+import { DEMO } from '../helpers.ts';
+import { loadProject } from '../../src/model/project.ts';
+
+/**
+ * Site-level data allocated to products (ISO 14044 §4.3.4: partition by a physical
+ * relationship — mass — or by another key). Hand-worked with round numbers:
+ *
+ * Site S, 2025: 10 000 kWh of electricity (0.5 kg CO2 eq./kWh) and 2 000 MJ of gas
+ * (0.1 kg CO2 eq./MJ). Products: P1, 1 kg declared unit, 1 kg each, 6 000 made;
+ * P2, 1 m declared unit, 2 kg per m, 2 000 made.
+ *   mass keys: P1 6 000 kg, P2 4 000 kg, Σ 10 000 kg → shares 0.6 and 0.4
+ *   P1 electricity per kg = 10 000 · 0.6 / 6 000 = 1 kWh → 0.5 kg CO2 eq.
+ *   P2 electricity per m  = 10 000 · 0.4 / 2 000 = 2 kWh → 1.0 kg CO2 eq.
+ *   declared_unit keys: 6 000 and 2 000 → shares 0.75 and 0.25; P2 gas = 2 000 · 0.25 / 2 000 = 0.25 MJ
+ *   own key press_hours: 300 and 700 → shares 0.3 and 0.7; P1 gas = 2 000 · 0.3 / 6 000 = 0.1 MJ
+ */
+const FACTORS = `factor_id,name,unit,dataset,GWP-total
+ev,virgin,kg,test,10
+ed,landfill,kg,test,0.1
+elec,electricity,kWh,test,0.5
+gas,heat from gas,MJ,test,0.1`;
+
+async function site(options: { gasKey?: string; production?: string; site?: string } = {}) {
+  const dir = await writeFixture({
+    products: `product_id,name,declared_unit,unit_mass_kg,eol_scenario
+P1,Sheet,1 kg,1,s1
+P2,Profile,1 m,2,s1`,
+    bom: `product_id,line_id,component,material,role,mass_kg,recycled_pre,recycled_post,scrap_rate,scrap_fate,source
+P1,L1,Part,m1,product,1,0,0,0,recycled,test
+P2,L1,Part,m1,product,2,0,0,0,recycled,test`,
+    materials: `material,name,family,virgin,landfill
+m1,Metal,metal,ev,ed`,
+    eol: `scenario,material,recycling,landfill,recycling_yield,transport_km
+s1,*,0,1,1,0`,
+    activities: `product_id,module,activity,factor,amount,unit,source
+P1,A3,Own press,elec,1,kWh,test`,
+    factors: FACTORS,
+    declaration: { methods: ['cutoff'] },
+  });
+  await writeFile(
+    path.join(dir, 'site.csv'),
+    options.site ??
+      `site_id,period,module,activity,factor,amount,unit,allocation,source
+S,2025,A3,Site electricity,elec,10000,kWh,,meter
+S,2025,A3,Site gas,gas,2,GJ,${options.gasKey ?? 'mass'},invoices\n`,
+  );
+  await writeFile(
+    path.join(dir, 'production.csv'),
+    options.production ??
+      `site_id,period,product_id,output,source,press_hours
+S,2025,P1,6000,records,300
+S,2025,P2,2000,records,700\n`,
+  );
+  return dir;
+}
+
+const gwp = (figures: Record<string, { value: number | null }>, id: string) => figures[`${id}/GWP-total`]?.value;
+
+describe('site data allocated by mass (ISO 14044 §4.3.4), hand-worked', async () => {
+  const [p1, p2] = await compute(await site());
+
+  it('shares 6 000 kg / 10 000 kg = 0.6 and 4 000 / 10 000 = 0.4, with the keys and their sum as figures', () => {
+    const f1 = p1!.results.figures;
+    expect(f1['allocation/S/2025/mass/key']?.value).toBe(6000);
+    expect(f1['allocation/S/2025/mass/total']?.value).toBe(10000);
+    expect(f1['allocation/S/2025/mass/share']?.value).toBeCloseTo(0.6, 15);
+    expect(p2!.results.figures['allocation/S/2025/mass/share']?.value).toBeCloseTo(0.4, 15);
+  });
+
+  it('electricity: P1 10 000·0.6/6 000 = 1 kWh → 0.5; P2 10 000·0.4/2 000 = 2 kWh → 1.0 kg CO2 eq.', () => {
+    expect(gwp(p1!.results.figures, 'cutoff/A3/site:2')).toBeCloseTo(0.5, 12);
+    expect(gwp(p2!.results.figures, 'cutoff/A3/site:2')).toBeCloseTo(1.0, 12);
+  });
+
+  it('gas in GJ: P1 2 GJ = 2 000 MJ (SI) · 0.6 / 6 000 = 0.2 MJ → 0.02 kg CO2 eq.', () => {
+    expect(gwp(p1!.results.figures, 'cutoff/A3/site:3')).toBeCloseTo(0.02, 12);
+  });
+
+  it('the allocated rows join the product’s own activities: P1 A3 = 1 kWh own · 0.5 + 0.5 + 0.02 = 1.02', () => {
+    expect(p1!.results.methods.cutoff.modules.A3!['GWP-total']).toBeCloseTo(1.02, 12);
+    expect(p2!.results.methods.cutoff.modules.A3!['GWP-total']).toBeCloseTo(1.0 + (2000 * 0.4 / 2000) * 0.1, 12);
+  });
+
+  it('traces the share down to the annual cell, each product’s output and unit-mass cells', () => {
+    const node = p1!.result.graph.get('allocation/S/2025/mass/total');
+    const cells = node!.terms.map((t) => (t.kind === 'cell' ? `${t.cell.file}:${t.cell.line} ${t.cell.column}` : t.kind));
+    expect(cells).toEqual(['production.csv:2 output', 'products.csv:2 unit_mass_kg', 'production.csv:3 output', 'products.csv:3 unit_mass_kg']);
+    const row = p1!.result.graph.get('cutoff/A3/site:2');
+    expect(row!.terms.map((t) => (t.kind === 'cell' ? `${t.cell.file}:${t.cell.line} ${t.cell.column}` : t.kind === 'figure' ? t.id : 'factor'))).toEqual([
+      'site.csv:2 amount', 'site.csv:2 unit', 'allocation/S/2025/mass/share', 'production.csv:2 output', 'factor',
+    ]);
+  });
+});
+
+describe('other keys', () => {
+  it('declared_unit: shares 6 000/8 000 = 0.75 and 2 000/8 000 = 0.25; P2 gas 2 000 MJ·0.25/2 000 = 0.25 MJ → 0.025', async () => {
+    const [p1, p2] = await compute(await site({ gasKey: 'declared_unit' }));
+    expect(p1!.results.figures['allocation/S/2025/declared_unit/share']?.value).toBeCloseTo(0.75, 15);
+    expect(gwp(p2!.results.figures, 'cutoff/A3/site:3')).toBeCloseTo(0.025, 12);
+  });
+
+  it('a production.csv column of the user’s own: press_hours 300 and 700 → P1 gas 2 000·0.3/6 000 = 0.1 MJ → 0.01', async () => {
+    const [p1, p2] = await compute(await site({ gasKey: 'press_hours' }));
+    expect(p1!.results.figures['allocation/S/2025/press_hours/share']?.value).toBeCloseTo(0.3, 15);
+    expect(gwp(p1!.results.figures, 'cutoff/A3/site:3')).toBeCloseTo(0.01, 12);
+    expect(gwp(p2!.results.figures, 'cutoff/A3/site:3')).toBeCloseTo((2000 * 0.7 / 2000) * 0.1, 12);
+    const cell = p1!.result.graph.get('allocation/S/2025/press_hours/key')!.terms[0]!;
+    expect(cell.kind === 'cell' && `${cell.cell.file}:${cell.cell.line} ${cell.cell.column} ${cell.cell.value}`).toBe('production.csv:2 press_hours 300');
+  });
+
+  it('refuses a key cell that is not a number, naming the file, line, column and value', async () => {
+    const { problems } = await loadProject(await site({ gasKey: 'press_hours', production: 'site_id,period,product_id,output,source,press_hours\nS,2025,P1,6000,records,three hundred\nS,2025,P2,2000,records,700\n' }));
+    expect(problems).toContainEqual(expect.objectContaining({ severity: 'error', code: 'NOT_A_NUMBER', file: 'production.csv', line: 2, column: 'press_hours', value: 'three hundred' }));
+  });
+
+  it('refuses an output of zero at its cell', async () => {
+    const { problems } = await loadProject(await site({ production: 'site_id,period,product_id,output,source\nS,2025,P1,0,records\nS,2025,P2,2000,records\n' }));
+    expect(problems).toContainEqual(expect.objectContaining({ severity: 'error', code: 'OUT_OF_RANGE', file: 'production.csv', line: 2, column: 'output', value: '0' }));
+  });
+});
+
+describe('the demo site (Norwick press shop, 2025, by mass)', async () => {
+  const demo = await compute(DEMO);
+  const { project } = await loadProject(DEMO);
+  const profiles = demo.filter((d) => project!.allocation.byProduct.has(d.results.product_id));
+
+  it('gives its three profiles shares that add up to 1', () => {
+    expect(profiles.map((d) => d.results.product_id).sort()).toEqual(['KV-EXT-6060', 'KV-EXT-6060-50', 'KV-EXT-6060-60']);
+    const shares = profiles.map((d) => d.results.figures['allocation/norwick-press-shop/2025/mass/share']!.value ?? NaN);
+    expect(shares.reduce((a, b) => a + b, 0)).toBeCloseTo(1, 12);
+  });
+
+  it('conserves every metered amount: Σ over the products of (figure per declared unit × output) = amount × factor', () => {
+    for (const row of project!.site.rows) {
+      const factor = project!.factors.rows.find((f) => f.value.factor_id === row.value.factor)!;
+      // GJ → MJ where the factor is per MJ (1 GJ = 1 000 MJ, SI prefixes).
+      const amount = row.value.amount * (row.value.unit === 'GJ' && factor.value.unit === 'MJ' ? 1000 : 1);
+      const expected = amount * (factor.value as unknown as Record<string, number>)['GWP-total']!;
+      const allocated = profiles.reduce((sum, d) => {
+        const output = project!.production.rows.find((p) => p.value.product_id === d.results.product_id)!.value.output;
+        return sum + (d.results.figures[`cutoff/A3/site:${row.line}/GWP-total`]!.value ?? NaN) * output;
+      }, 0);
+      expect(allocated).toBeCloseTo(expected, 6);
+    }
+  });
+});
