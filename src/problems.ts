@@ -51,6 +51,7 @@ export const PROBLEM_CODES = {
   ALLOCATION_KEY_ZERO: 'the allocation keys of a site and period add up to zero, so there is nothing to share by',
   SITE_NO_PRODUCTION: 'a site and period of site.csv has no production.csv rows to share its amounts among',
   PRODUCTION_UNUSED: 'production.csv rows of a site and period that site.csv has no amounts for (nothing is allocated)',
+  FAMILY_INCONSISTENT: 'rows of one family in families.csv disagree: two names, or members with different declared units',
   PRODUCTION_PERIODS: 'a product has output at the same site in more than one period; a declaration rests on one',
 } as const satisfies Record<string, string>;
 

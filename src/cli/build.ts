@@ -59,6 +59,7 @@ export async function runBuild(options: BuildOptions, io: Io): Promise<number> {
       onProgress: (done, total) => progress.products(done, total),
     });
     progress.stop();
+    for (const warning of built.familyWarnings) io.err(`warning ${warning}`);
     const rebuilt = new Set(built.rebuilt.map((r) => r.id));
     const printed = built.outcomes.filter((o) => rebuilt.has(o.entry.id)).map((o) => ({ id: o.entry.id, name: o.entry.name }));
     if (browser) {

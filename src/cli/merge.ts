@@ -38,7 +38,8 @@ export async function runMerge(options: { dirs: string[]; out: string }, io: Io)
       }
     }
     outcomes.sort((a, b) => a.index - b.index);
-    await writeCatalogue(project, problems, staging, outcomes, { inputs, pdfs: records[0]!.pdfs, context: records[0]!.context });
+    const familyWarnings = await writeCatalogue(project, problems, staging, outcomes, { inputs, pdfs: records[0]!.pdfs, context: records[0]!.context });
+    for (const warning of familyWarnings) io.err(`warning ${warning}`);
     await writeManifest(staging, inputs);
     count = outcomes.length;
   });

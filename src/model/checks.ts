@@ -104,6 +104,7 @@ function duplicateKeys(ctx: CheckContext): void {
     { table: p.transport, key: ['product_id', 'module', 'line_id', 'leg'], severity: 'warning', what: 'product, module, line and leg' },
     { table: p.site, key: ['site_id', 'period', 'module', 'activity'], severity: 'warning', what: 'site, period, module and activity' },
     { table: p.production, key: ['site_id', 'period', 'product_id'], severity: 'error', what: 'site, period and product' },
+    { table: p.familyRows, key: ['family_id', 'product_id'], severity: 'error', what: 'family and product' },
   ];
   for (const rule of rules) {
     const seen = new Map<string, number>();
@@ -182,6 +183,7 @@ function references(ctx: CheckContext): void {
   }
   for (const row of p.site.rows) factorColumn(p.site, row, row.value.factor);
   for (const row of p.production.rows) check(p.production, row, 'product_id', row.value.product_id, productIds, 'product_id in products.csv');
+  for (const row of p.familyRows.rows) check(p.familyRows, row, 'product_id', row.value.product_id, productIds, 'product_id in products.csv');
   const linesByProduct = new Map<string, Set<string>>();
   for (const row of p.bom.written) {
     const product = (row.raw.product_id ?? '').trim();
@@ -457,7 +459,7 @@ function energyRecoveryRules(ctx: CheckContext): void {
 
 function provenanceWarnings(ctx: CheckContext): void {
   const p = ctx.project;
-  for (const table of [p.bom, p.activities, p.transport, p.site, p.production] as AnyTable[]) {
+  for (const table of [p.bom, p.activities, p.transport, p.site, p.production, p.familyRows] as AnyTable[]) {
     for (const row of table.rows as Array<Row<{ source?: string }>>) {
       if (row.value.source === undefined) {
         ctx.at(table, row.line, row.raw, 'source', 'warning', 'SOURCE_MISSING', 'is empty: a verifier will ask where this figure comes from', { value: row.raw.source ?? '', expected: 'a document, meter or supplier declaration' });

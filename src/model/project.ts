@@ -4,7 +4,8 @@ import { readText } from '../load/text.ts';
 import { loadJson, locate, jsonPath, type JsonFile } from '../load/json.ts';
 import { sortProblems, type Problem } from '../problems.ts';
 import { FACTOR_INDICATOR_CODES, INDICATORS, findIndicator, inReportingOrder } from '../reference/indicators.ts';
-import { CSV_FILES, DECLARATION_FILE, productsCsv, bomCsv, materialsCsv, eolCsv, activitiesCsv, transportCsv, factorsCsv, processCsv, siteCsv, productionCsv } from '../schema/index.ts';
+import { CSV_FILES, DECLARATION_FILE, productsCsv, bomCsv, materialsCsv, eolCsv, activitiesCsv, transportCsv, factorsCsv, processCsv, siteCsv, productionCsv, familiesCsv } from '../schema/index.ts';
+import { readFamilies } from './families.ts';
 import { readSites } from './sites.ts';
 import { columnsOf } from '../schema/csv-file.ts';
 import { readProcesses } from './processes.ts';
@@ -86,14 +87,17 @@ export async function loadProject(dirArgument: string): Promise<ProjectLoad> {
   const production = tableOf(productionCsv, { extraColumns: true });
   const sitesRead = site && production && products ? readSites(site, production, products) : undefined;
   if (sitesRead) problems.push(...sitesRead.problems);
+  const familyRows = tableOf(familiesCsv);
+  const familiesRead = familyRows && products && production ? readFamilies(familyRows, products, production) : undefined;
+  if (familiesRead) problems.push(...familiesRead.problems);
 
   const factorIndicators = factors ? inReportingOrder(Object.keys(factors.columns).filter((name) => FACTOR_INDICATOR_CODES.includes(name))) : [];
   // Default: every indicator factors.csv has a column for, and the flow indicators, which come from the product's own mass flows.
   const flowIndicators = INDICATORS.filter((i) => i.basis === 'flows').map((i) => i.code);
   const indicators = declaration?.indicators ? inReportingOrder(declaration.indicators) : inReportingOrder([...factorIndicators, ...flowIndicators]);
 
-  if (products && bom && materials && eol && activities && transport && factors && process && processRead && site && production && sitesRead) {
-    const tables = { dir, indicators, factorIndicators, products, bom, materials, eol, activities, transport, factors, process, processes: processRead.processes, site, production, allocation: sitesRead.allocation };
+  if (products && bom && materials && eol && activities && transport && factors && process && processRead && site && production && sitesRead && familyRows && familiesRead) {
+    const tables = { dir, indicators, factorIndicators, products, bom, materials, eol, activities, transport, factors, process, processes: processRead.processes, site, production, allocation: sitesRead.allocation, familyRows, families: familiesRead.families };
     // Cross-file rules run even when declaration.json is broken, so one run shows every problem.
     problems.push(...crossFileChecks({ ...tables, declaration, declarationFile }));
     const sorted = sortProblems(problems);

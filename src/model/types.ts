@@ -5,6 +5,7 @@ import type { JsonFile } from '../load/json.ts';
 import type { Table } from '../schema/table.ts';
 import type { ProcessDefinition, ProcessRow } from './processes.ts';
 import type { ProductionRow, SiteAllocation, SiteRow } from './sites.ts';
+import type { Family, FamilyRow } from './families.ts';
 
 /** Typed rows of each input file, inferred from the zod schemas (never written twice). */
 export type Product = RowOf<typeof productsCsv>;
@@ -48,4 +49,8 @@ export interface Project {
   production: Table<ProductionRow>;
   /** The site rows each product receives, with their keys and shares. */
   allocation: SiteAllocation;
+  /** families.csv (optional): product variants declared together. */
+  familyRows: Table<FamilyRow>;
+  /** Its families, members weighted. */
+  families: Family[];
 }

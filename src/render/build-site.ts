@@ -1,10 +1,13 @@
 import { fork } from 'node:child_process';
+import { mkdir, writeFile } from 'node:fs/promises';
 import os from 'node:os';
 import path from 'node:path';
 import { rowsByProduct, type ProductRows } from '../model/by-product.ts';
 import type { Project } from '../model/types.ts';
 import type { Problem } from '../problems.ts';
 import type { ResultsSummary } from '../report/results.ts';
+import { familyResults, familyResultsCsv } from '../report/families.ts';
+import { familyDir, familyView, type FamilyView } from '../report/family-view.ts';
 import { buildSiteView, catalogueEntry, type CatalogueEntry, type ProductReport, type SiteView } from '../report/site-view.ts';
 import { FS_CONCURRENCY, mapLimit } from './each-limit.ts';
 import { changeReasons, keepProduct, writeBuildCache, type PreviousBuild } from './incremental.ts';
@@ -61,6 +64,8 @@ export interface SiteBuildResult {
   kept: string[];
   /** The project-wide part of the pages, as hashed into every input key. */
   context: string;
+  /** Family members outside the grouping tolerance, one line each (empty for a shard build). */
+  familyWarnings: string[];
 }
 
 const chunk = <T>(items: T[], size: number): T[][] => Array.from({ length: Math.ceil(items.length / size) }, (_, i) => items.slice(i * size, (i + 1) * size));
@@ -126,16 +131,39 @@ export async function buildSite(project: Project, problems: readonly Problem[], 
     outcomes.push(...results.flat());
   }
   outcomes.sort((a, b) => a.index - b.index);
-  if (options.catalogue ?? true) await writeCatalogue(project, problems, outDir, outcomes, { inputs: options.inputs, pdfs: options.pdfs, context });
-  return { outcomes, rebuilt, kept, context };
+  const familyWarnings = options.catalogue ?? true ? await writeCatalogue(project, problems, outDir, outcomes, { inputs: options.inputs, pdfs: options.pdfs, context }) : [];
+  return { outcomes, rebuilt, kept, context, familyWarnings };
 }
 
-/** The catalogue-wide files and pages (catalogue, factor table, verification page) and the build cache, from every product's outcome. */
-export async function writeCatalogue(project: Project, problems: readonly Problem[], outDir: string, outcomes: readonly ProductOutcome[], options: { inputs: SiteView['verification']['inputs']; pdfs: boolean; context: string }): Promise<void> {
+/**
+ * The catalogue-wide files and pages (catalogue, families, factor table, verification page)
+ * and the build cache, from every product's outcome. Returns the family warnings (members
+ * beyond the grouping tolerance) for the caller to print.
+ */
+export async function writeCatalogue(project: Project, problems: readonly Problem[], outDir: string, outcomes: readonly ProductOutcome[], options: { inputs: SiteView['verification']['inputs']; pdfs: boolean; context: string }): Promise<string[]> {
   await writeCatalogueResults(outDir, outcomes.map((o) => o.summary));
   const catalogue = outcomes.map((o) => o.entry);
-  await renderSite(buildSiteView(project, problems, { products: [], catalogue, pdfs: options.pdfs, inputs: options.inputs }), outDir);
+  const families = await writeFamilies(project, outDir, outcomes);
+  await renderSite(buildSiteView(project, problems, { products: [], catalogue, pdfs: options.pdfs, inputs: options.inputs, families }), outDir);
   await writeBuildCache(outDir, options.context, outcomes);
+  return families.flatMap((family) => family.warnings);
+}
+
+/** Each family's results.json and results.csv under families/<id>/, and its page view. */
+async function writeFamilies(project: Project, outDir: string, outcomes: readonly ProductOutcome[]): Promise<FamilyView[]> {
+  const summaries = new Map(outcomes.map((o) => [o.entry.id, o.summary]));
+  const names = new Map(outcomes.map((o) => [o.entry.id, o.entry.name]));
+  const views: FamilyView[] = [];
+  for (const family of project.families) {
+    if (!family.members.some((m) => summaries.has(m.productId))) continue;
+    const results = familyResults(family, summaries, project.declaration.report.family_tolerance);
+    const dir = path.join(outDir, familyDir(family.id));
+    await mkdir(dir, { recursive: true });
+    await writeFile(path.join(dir, 'results.json'), `${JSON.stringify(results, null, 1)}\n`);
+    await writeFile(path.join(dir, 'results.csv'), familyResultsCsv(results));
+    views.push(familyView(project, results, names));
+  }
+  return views;
 }
 
 /** One shard: each product computed, written and viewed, then one Eleventy run for the shard's pages. */

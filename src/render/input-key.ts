@@ -31,7 +31,7 @@ export function pageContextKey(project: Project, problems: readonly Problem[], p
 
 /** The project's input tables by file name. */
 export function inputTables(project: Project): Map<string, Table<unknown>> {
-  const list: Array<Table<unknown>> = [project.products, project.bom, project.materials, project.eol, project.activities, project.transport, project.factors, project.process, project.site, project.production];
+  const list: Array<Table<unknown>> = [project.products, project.bom, project.materials, project.eol, project.activities, project.transport, project.factors, project.process, project.site, project.production, project.familyRows];
   return new Map(list.map((table) => [table.file, table]));
 }
 
@@ -72,6 +72,7 @@ export function productReach(project: Project, rows: ProductRows): Map<string, S
   addRows(project.production, shown.productionRows);
   // Mass keys read every product's unit mass of the period.
   addRows(project.products, shown.siteProducts);
+  addRows(project.familyRows, shown.familyRows);
   // A process's flows are charged with factors of their own (electricity, alumina, reagents),
   // which may in turn be processes.
   const seen = new Set<string>();

@@ -169,7 +169,7 @@ function termView(graph: FigureGraph, term: Term): AuditTerm {
 /** Each input file by name, to show a row exactly as it appears in it. */
 function inputFiles(project: Project): Map<string, { text: string }> {
   const files = new Map<string, { text: string }>();
-  for (const table of [project.products, project.bom, project.materials, project.eol, project.activities, project.transport, project.factors, project.process, project.site, project.production]) files.set(table.file, table.csv);
+  for (const table of [project.products, project.bom, project.materials, project.eol, project.activities, project.transport, project.factors, project.process, project.site, project.production, project.familyRows]) files.set(table.file, table.csv);
   files.set(project.declarationFile.file, project.declarationFile);
   return files;
 }

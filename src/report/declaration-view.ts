@@ -52,7 +52,7 @@ export interface ProcessModelView {
 export const PROCESS_CAUTION =
   'Emission figures computed here from operating data serve this declaration. Emission figures for regulatory reporting must follow the monitoring rules of the jurisdiction and be verified by an accredited body; this tool supports, and does not replace, that practice.';
 
-const GROUPS: Array<{ group: IndicatorGroup; title: string; caption: string }> = [
+export const GROUPS: Array<{ group: IndicatorGroup; title: string; caption: string }> = [
   { group: 'core', title: 'Core environmental impact indicators', caption: 'EN 15804+A2 core impact indicators.' },
   { group: 'additional', title: 'Additional environmental impact indicators', caption: 'EN 15804+A2 additional impact indicators.' },
   { group: 'resource', title: 'Use of resources', caption: 'Resource use; SM is the product’s own secondary material input.' },

@@ -7,7 +7,8 @@ import type { ResultsSummary } from './results.ts';
  */
 export const RESULTS_CSV_HEADER = ['product_id', 'method', 'module', 'indicator', 'unit', 'value', 'figure_id'];
 
-function textCell(text: string): string {
+/** A text cell, neutralised against formula injection and quoted where needed. */
+export function textCell(text: string): string {
   let cell = cells.get(text);
   if (cell === undefined) {
     cell = quote(text);

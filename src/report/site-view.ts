@@ -13,6 +13,7 @@ import { AUDIT_PAGE, fragment, inputAnchor } from './figure-links.ts';
 import { physicalLines } from './written.ts';
 import { PROCESS_PREFIX } from '../schema/process-parameters.ts';
 import { allocationBase } from '../calc/allocation.ts';
+import { familyDir, type FamilyView } from './family-view.ts';
 
 /** What the site shows of one product's results, taken while its figure graph is alive. */
 export interface ProductReport {
@@ -68,6 +69,8 @@ export interface ProductView {
   audit?: AuditView;
   /** Data sources this product's figures rest on (the dataset column of the factor rows it reaches). */
   datasets: string[];
+  /** The families (families.csv) this product is a member of. */
+  families: Array<{ id: string; name: string; url: string }>;
   resultsJson: string;
   resultsCsv: string;
 }
@@ -109,6 +112,8 @@ export interface SiteView {
   cataloguePages: number[];
   /** Every factor row once, on its own page; product pages link to it. */
   factors: TableView;
+  /** Family declarations (families.csv), in the render that writes the catalogue-wide pages. */
+  families: FamilyView[];
   warnings: string[];
   indicators: Array<{ code: string; name: string; unit: string }>;
 }
@@ -152,6 +157,8 @@ export interface SiteViewOptions {
   inputs?: SiteView['verification']['inputs'];
   /** Whether this build prints PDFs (pages link to them only then). */
   pdfs?: boolean;
+  /** The family declarations (in the render that writes the catalogue-wide pages). */
+  families?: readonly FamilyView[];
 }
 
 export const catalogueEntry = (product: ProductView): CatalogueEntry => ({
@@ -205,9 +212,11 @@ export function buildSiteView(project: Project, problems: readonly Problem[], op
     audits: products.filter((product) => product.audit !== undefined),
     catalogue: catalogue ?? [],
     cataloguePages: catalogue ? [1] : [],
+    families: catalogue ? [...(options.families ?? [])] : [],
     verification: { inputs: [...(options.inputs ?? [])], datasets: catalogue ? datasetCounts(project) : [] },
     factors: catalogue ? factorTable(project, project.factors.rows, catalogue) : { title: '', caption: '', headers: [], rows: [], empty: '' },
-    warnings: problems.filter((p) => p.severity === 'warning').map(formatProblem),
+    // Family spreads are known once every member is computed: the catalogue render adds them.
+    warnings: [...problems.filter((p) => p.severity === 'warning').map(formatProblem), ...(catalogue ? (options.families ?? []).flatMap((family) => family.warnings) : [])],
     indicators: project.indicators.map((code) => {
       const indicator = findIndicator(code)!;
       return { code, name: indicator.name, unit: indicator.unit };
@@ -287,7 +296,10 @@ export function productInputs(project: Project, rows: ProductRows) {
   const productionRows = groups.flatMap((group) => group.production);
   const massKeyed = new Set(rows.site.filter((a) => a.key.name === 'mass').flatMap((a) => a.group.production.map((p) => p.value.product_id)));
   const siteProducts = project.products.rows.filter((row) => massKeyed.has(row.value.product_id));
-  return { eolRows, materials, factorIds, factors, processRows, siteRows, productionRows, siteProducts };
+  // The families it belongs to: its page names them.
+  const familyIds = new Set(project.families.filter((family) => family.members.some((m) => m.productId === rows.product.value.product_id)).map((family) => family.id));
+  const familyRows = project.familyRows.rows.filter((row) => familyIds.has(row.value.family_id));
+  return { eolRows, materials, factorIds, factors, processRows, siteRows, productionRows, siteProducts, familyRows };
 }
 
 function productView(project: Project, rows: ProductRows, report: ProductReport | undefined): ProductView {
@@ -436,6 +448,7 @@ function productView(project: Project, rows: ProductRows, report: ProductReport 
     tables,
     ...(report ? { results: report.results, audit: report.audit } : {}),
     datasets: [...new Set(factors.map((row) => row.value.dataset).filter((d): d is string => Boolean(d)))].sort(),
+    families: project.families.filter((family) => family.members.some((m) => m.productId === product.product_id)).map((family) => ({ id: family.id, name: family.name, url: `../${familyDir(family.id)}/index.html` })),
     resultsJson: 'results.json',
     resultsCsv: 'results.csv',
   };

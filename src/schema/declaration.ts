@@ -87,8 +87,14 @@ export const declarationSchema = z
           .min(1)
           .default(['GWP-total'])
           .meta({ description: 'Indicators shown side by side under every recycling method in the method comparison; default GWP-total.' }),
+        family_tolerance: z
+          .number()
+          .min(0)
+          .max(1)
+          .default(0.1)
+          .meta({ description: 'A family member whose GWP-total A1-A3 lies further than this share from the family’s weighted average is flagged on the family page and on stderr; default 0.1 (10 %, a grouping rule of EN 15804+A2 practice).' }),
       })
-      .default({ significant_figures: 3, compare_indicators: ['GWP-total'] })
+      .default({ significant_figures: 3, compare_indicators: ['GWP-total'], family_tolerance: 0.1 })
       .meta({ description: 'How the declaration pages present the results.' }),
     illustrative: z
       .boolean()
@@ -118,7 +124,7 @@ export const DECLARATION_KEYS: Record<string, readonly string[]> = {
   verification: ['status', 'verifier', 'date'],
   'background_data[]': ['name', 'version', 'licence'],
   energy_recovery: ['electricity_efficiency', 'heat_efficiency', 'electricity_factor', 'heat_factor'],
-  report: ['significant_figures', 'compare_indicators'],
+  report: ['significant_figures', 'compare_indicators', 'family_tolerance'],
 };
 
 export const declarationExample = {

@@ -9,9 +9,10 @@ import { factorsCsv } from './factors.ts';
 import { processCsv } from './process.ts';
 import { siteCsv } from './site.ts';
 import { productionCsv } from './production.ts';
+import { familiesCsv } from './families.ts';
 
 export const DECLARATION_FILE = 'declaration.json';
 
-export const CSV_FILES = [productsCsv, bomCsv, materialsCsv, eolCsv, activitiesCsv, transportCsv, factorsCsv, processCsv, siteCsv, productionCsv] as const;
+export const CSV_FILES = [productsCsv, bomCsv, materialsCsv, eolCsv, activitiesCsv, transportCsv, factorsCsv, processCsv, siteCsv, productionCsv, familiesCsv] as const;
 
-export { productsCsv, bomCsv, materialsCsv, eolCsv, activitiesCsv, transportCsv, factorsCsv, processCsv, siteCsv, productionCsv };
+export { productsCsv, bomCsv, materialsCsv, eolCsv, activitiesCsv, transportCsv, factorsCsv, processCsv, siteCsv, productionCsv, familiesCsv };

@@ -129,7 +129,7 @@ describe('the demo site (Norwick press shop, 2025, by mass)', async () => {
   const profiles = demo.filter((d) => project!.allocation.byProduct.has(d.results.product_id));
 
   it('gives its three profiles shares that add up to 1', () => {
-    expect(profiles.map((d) => d.results.product_id).sort()).toEqual(['KV-EXT-6060', 'KV-EXT-6060-50', 'KV-EXT-6060-60']);
+    expect(profiles.map((d) => d.results.product_id).sort()).toEqual(['KV-EXT-6060', 'KV-EXT-6060-T19', 'KV-EXT-6060-T22']);
     const shares = profiles.map((d) => d.results.figures['allocation/norwick-press-shop/2025/mass/share']!.value ?? NaN);
     expect(shares.reduce((a, b) => a + b, 0)).toBeCloseTo(1, 12);
   });

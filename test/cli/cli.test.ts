@@ -124,7 +124,7 @@ describe('loopsheet init', () => {
     const dir = path.join(await scratch(), 'my-project');
     const result = await runCli(['init', dir]);
     expect(result.code).toBe(0);
-    expect((await readdir(dir)).sort()).toEqual(['README.md', 'activities.csv', 'bom.csv', 'declaration.json', 'eol.csv', 'factors.csv', 'materials.csv', 'process.csv', 'production.csv', 'products.csv', 'site.csv', 'transport.csv']);
+    expect((await readdir(dir)).sort()).toEqual(['README.md', 'activities.csv', 'bom.csv', 'declaration.json', 'eol.csv', 'factors.csv', 'families.csv', 'materials.csv', 'process.csv', 'production.csv', 'products.csv', 'site.csv', 'transport.csv']);
     const bom = await readFile(path.join(dir, 'bom.csv'), 'utf8');
     expect(bom.split('\n')[2]).toBe('product_id,line_id,component,material,role,mass_kg,recycled_pre,recycled_post,scrap_rate,scrap_fate,source');
     expect(bom.split('\n')[3]).toMatch(/^# EXT-6060-40,L1,/);
@@ -174,7 +174,7 @@ describe('loopsheet build', () => {
     expect(result.code, result.stderr).toBe(0);
     expect(result.stdout).toContain('built 5 products into site');
     const site = path.join(cwd, 'site');
-    expect((await readdir(site)).sort()).toEqual(['.loopsheet-cache.json', '.loopsheet-output', 'KV-BR-40', 'KV-CU-BB10', 'KV-EXT-6060', 'KV-EXT-6060-50', 'KV-EXT-6060-60', 'assets', 'factors', 'index.html', 'results.csv', 'results.json', 'verification']);
+    expect((await readdir(site)).sort()).toEqual(['.loopsheet-cache.json', '.loopsheet-output', 'KV-BR-40', 'KV-CU-BB10', 'KV-EXT-6060', 'KV-EXT-6060-T19', 'KV-EXT-6060-T22', 'assets', 'factors', 'families', 'index.html', 'results.csv', 'results.json', 'verification']);
     expect((await readdir(path.join(site, 'KV-BR-40'))).sort()).toEqual(['audit.html', 'index.html', 'results.csv', 'results.json']);
     const factors = await readFile(path.join(site, 'factors', 'index.html'), 'utf8');
     expect(factors).toContain('id="f-grid-electricity"');

@@ -100,6 +100,8 @@ const cases: Case[] = [
   },
   { code: 'SITE_NO_PRODUCTION', plant: (d) => editLine(at(d, 'site.csv'), 5, 'norwick-press-shop,2025,', 'norwick-press-shop,2024,'), expected: { file: 'site.csv', line: 5, column: 'period', columnIndex: 2, value: '2024' } },
   { code: 'PRODUCTION_UNUSED', plant: (d) => editFile(at(d, 'production.csv'), (t) => `${t}norwick-press-shop,2024,KV-EXT-6060,1100000,records 2024\n`), expected: { file: 'production.csv', line: 6, column: 'period', value: '2024', severity: 'warning' } },
+  // families.csv: the demo's family of three profiles (rows on lines 3–5).
+  { code: 'FAMILY_INCONSISTENT', plant: (d) => editLine(at(d, 'families.csv'), 4, 'profiles-6060-mill,,KV-EXT-6060-T19,', 'profiles-6060-mill,,KV-BR-40,'), expected: { file: 'families.csv', line: 4, column: 'product_id', value: 'KV-BR-40' } },
   {
     code: 'PRODUCTION_PERIODS',
     plant: async (d) => {
@@ -136,7 +138,7 @@ describe('the demo project', () => {
     const { problems, project } = await loadProject(path.resolve('data'));
     expect(problems.filter((p) => p.severity === 'error')).toEqual([]);
     expect(problems.map((p) => p.code)).toEqual(['FACTOR_VALUE_MISSING']);
-    expect(project?.products.rows.map((r) => r.value.product_id)).toEqual(['KV-EXT-6060', 'KV-CU-BB10', 'KV-BR-40', 'KV-EXT-6060-50', 'KV-EXT-6060-60']);
+    expect(project?.products.rows.map((r) => r.value.product_id)).toEqual(['KV-EXT-6060', 'KV-CU-BB10', 'KV-BR-40', 'KV-EXT-6060-T19', 'KV-EXT-6060-T22']);
   });
 
   it('labels its factor values as illustrative', async () => {

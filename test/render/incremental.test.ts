@@ -41,7 +41,7 @@ describe('build --changed', () => {
     const changed = await build(data, out, '--changed');
     expect(changed.code, changed.stderr).toBe(0);
     expect(changed.stdout).toContain('rebuilt 4 of 7 products (3 kept from the previous build):');
-    for (const id of ['KV-EXT-6060', 'KV-EXT-6060-50', 'KV-EXT-6060-60', 'KV-CU-BB10']) expect(changed.stdout).toContain(`  ${id}: factors.csv line 16`);
+    for (const id of ['KV-EXT-6060', 'KV-EXT-6060-T19', 'KV-EXT-6060-T22', 'KV-CU-BB10']) expect(changed.stdout).toContain(`  ${id}: factors.csv line 16`);
     for (const id of ['KV-BR-40', 'KV-BR-41', 'KV-BR-42']) expect(changed.stdout).not.toContain(`  ${id}:`);
     // A kept product's files are the previous files (hard links), not rewritten ones.
     expect((await stat(path.join(out, 'KV-BR-41', 'audit.html'))).ino).toBe(keptBefore.ino);
@@ -69,7 +69,7 @@ describe('build --changed', () => {
     await editLine(path.join(data, 'production.csv'), 5, ',260000,', ',300000,');
     const output = await build(data, out, '--changed');
     expect(output.stdout).toContain('rebuilt 3 of 7 products (4 kept from the previous build):');
-    for (const id of ['KV-EXT-6060', 'KV-EXT-6060-50', 'KV-EXT-6060-60']) expect(output.stdout).toContain(`  ${id}: production.csv line 5`);
+    for (const id of ['KV-EXT-6060', 'KV-EXT-6060-T19', 'KV-EXT-6060-T22']) expect(output.stdout).toContain(`  ${id}: production.csv line 5`);
 
     await editFile(path.join(data, 'declaration.json'), (text) => text.replace('"pcr": "', '"pcr": "Revised '));
     const settings = await build(data, out, '--changed');

@@ -14,7 +14,7 @@ import { DEMO, ROOT, demoCopy, editFile, removeDir, runCli, tempDir } from '../h
  * finds no serious or critical accessibility violation, and hostile input text stays text.
  */
 const axeSource = (createRequire(import.meta.url)('axe-core') as { source: string }).source;
-const PRODUCTS = ['KV-EXT-6060', 'KV-CU-BB10', 'KV-BR-40', 'KV-EXT-6060-50', 'KV-EXT-6060-60'];
+const PRODUCTS = ['KV-EXT-6060', 'KV-CU-BB10', 'KV-BR-40', 'KV-EXT-6060-T19', 'KV-EXT-6060-T22'];
 const ARTIFACTS = path.join(ROOT, 'test', 'artifacts');
 
 const found = await findBrowser();
@@ -82,7 +82,7 @@ describe.skipIf(!found)('the site in a real Chromium', () => {
   it('opens every page with no console error, page error or failed request', async () => {
     const pages = await htmlPages(out);
     // catalogue, factor table, verification pack, and a declaration and an audit trail per product
-    expect(pages).toEqual(['KV-BR-40/audit.html', 'KV-BR-40/index.html', 'KV-CU-BB10/audit.html', 'KV-CU-BB10/index.html', 'KV-EXT-6060-50/audit.html', 'KV-EXT-6060-50/index.html', 'KV-EXT-6060-60/audit.html', 'KV-EXT-6060-60/index.html', 'KV-EXT-6060/audit.html', 'KV-EXT-6060/index.html', 'factors/index.html', 'index.html', 'verification/index.html']);
+    expect(pages).toEqual(['KV-BR-40/audit.html', 'KV-BR-40/index.html', 'KV-CU-BB10/audit.html', 'KV-CU-BB10/index.html', 'KV-EXT-6060-T19/audit.html', 'KV-EXT-6060-T19/index.html', 'KV-EXT-6060-T22/audit.html', 'KV-EXT-6060-T22/index.html', 'KV-EXT-6060/audit.html', 'KV-EXT-6060/index.html', 'factors/index.html', 'families/profiles-6060-mill/audit.html', 'families/profiles-6060-mill/index.html', 'index.html', 'verification/index.html']);
     for (const file of pages) {
       const { page, errors } = await open(file);
       // Every link inside the build points at a file that exists.
@@ -153,6 +153,45 @@ describe.skipIf(!found)('the site in a real Chromium', () => {
     expect(errors).toEqual([]);
   });
 
+  it('the family page shows the output-weighted mean of its members’ own results.json, each linked to its derivation and on to the member’s audit trail', async () => {
+    const family = 'families/profiles-6060-mill';
+    // Weights read here from production.csv itself (the demo's family leaves its weight cells empty).
+    const production = (await readFile(path.join(DEMO, 'production.csv'), 'utf8')).split('\n').filter((line) => line.startsWith('norwick-press-shop,'));
+    const weights = new Map(production.map((line) => [line.split(',')[2]!, Number(line.split(',')[3])]));
+    expect([...weights.keys()]).toEqual(['KV-EXT-6060', 'KV-EXT-6060-T19', 'KV-EXT-6060-T22']);
+    const members = await Promise.all([...weights.keys()].map(async (id) => [id, JSON.parse(await readFile(path.join(out, id, 'results.json'), 'utf8'))] as const));
+    // Weighted arithmetic mean, Σ w·v / Σ w (any statistics text).
+    const mean = (module: string, code: string) => {
+      const values = members.map(([id, r]) => [weights.get(id)!, r.methods.cutoff.modules[module][code] as number | null] as const);
+      if (values.some(([, v]) => v === null)) return null;
+      return values.reduce((sum, [w, v]) => sum + w * v!, 0) / values.reduce((sum, [w]) => sum + w, 0);
+    };
+    const { page, errors } = await open(`${family}/index.html`);
+    const cells = await page.$$eval('table.family a.fig', (anchors) => anchors.map((a) => ({ href: a.getAttribute('href')!, text: a.textContent!.trim() })));
+    await page.close();
+    expect(cells.length).toBeGreaterThan(100);
+    const audit = await open(`${family}/audit.html`);
+    for (const cell of cells) {
+      const [file, hash] = cell.href.split('#');
+      expect(file).toBe('audit.html');
+      const [method, module, code] = decodeURIComponent(hash!).split('/');
+      expect(method).toBe('cutoff');
+      expect(cell.text, `${module} ${code}`).toBe(declared(mean(module!, code!)));
+      expect(await audit.page.evaluate((anchor) => document.getElementById(anchor) !== null, decodeURIComponent(hash!))).toBe(true);
+    }
+    // From a family figure on to the members' own derivations.
+    const memberLinks = await audit.page.$$eval('[id="cutoff/A1-A3/GWP-total"] td a', (anchors) => anchors.map((a) => a.getAttribute('href')!));
+    expect(memberLinks).toHaveLength(3);
+    for (const link of memberLinks) {
+      const [file, hash] = link.split('#');
+      const member = await open(path.join(family, file!));
+      expect(await member.page.evaluate((anchor) => document.getElementById(anchor) !== null, decodeURIComponent(hash!)), link).toBe(true);
+      await member.page.close();
+    }
+    await audit.page.close();
+    expect([...errors, ...audit.errors]).toEqual([]);
+  });
+
   it('the factor table names, per row, the products that read it, each link landing on the row in that audit trail', async () => {
     const { page } = await open('factors/index.html');
     const links = await page.$$eval('a[href*="audit.html#input:factors.csv:"]', (anchors) => anchors.map((a) => a.getAttribute('href')!));
@@ -170,7 +209,7 @@ describe.skipIf(!found)('the site in a real Chromium', () => {
     }
   });
 
-  it.each(['index.html', 'KV-CU-BB10/index.html', 'KV-CU-BB10/audit.html', 'factors/index.html', 'verification/index.html'])('axe-core finds no serious or critical violation on %s', async (file) => {
+  it.each(['index.html', 'KV-CU-BB10/index.html', 'KV-CU-BB10/audit.html', 'factors/index.html', 'verification/index.html', 'families/profiles-6060-mill/index.html', 'families/profiles-6060-mill/audit.html'])('axe-core finds no serious or critical violation on %s', async (file) => {
     const { page } = await open(file);
     await page.addScriptTag({ content: axeSource });
     const violations = await page.evaluate(async () => {

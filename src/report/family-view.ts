@@ -1,0 +1,151 @@
+import type { Project } from '../model/types.ts';
+import { findIndicator } from '../reference/indicators.ts';
+import { GROUPS, METHOD_SENTENCES } from './declaration-view.ts';
+import { familyWarnings, type FamilyResults, type FamilyStat } from './families.ts';
+import { AUDIT_PAGE, fragment } from './figure-links.ts';
+import { formatInput, formatScientific, formatShare } from './format.ts';
+
+/** A family figure as the page shows it: the mean (a link to its derivation) and the range. */
+export interface FamilyCell {
+  text: string;
+  range: string;
+  href: string;
+  moduleD?: boolean;
+}
+
+export interface FamilyAuditEntry {
+  id: string;
+  anchor: string;
+  label: string;
+  unit: string;
+  mean: string;
+  terms: Array<{ product: string; weight: string; share: string; value: string; href: string }>;
+}
+
+export interface FamilyView {
+  id: string;
+  name: string;
+  declaredUnit: string;
+  url: string;
+  tolerance: string;
+  warnings: string[];
+  members: Array<{ id: string; name: string; url: string; weight: string; weightFrom: string; share: string; gwp: string; gwpHref: string; deviation: string; outside: boolean }>;
+  modulesNotDeclared: string[];
+  modules: Array<{ code: string; moduleD: boolean }>;
+  tables: Array<{ title: string; caption: string; rows: Array<{ code: string; name: string; unit: string; cells: FamilyCell[] }> }>;
+  comparison: { indicators: Array<{ code: string; unit: string }>; rows: Array<{ name: string; cells: FamilyCell[] }> };
+  recycledContent: Array<{ label: string; mean: string; range: string }>;
+  headline: { a1a3: FamilyCell | undefined; a1a3Value: string };
+  audit: FamilyAuditEntry[];
+  resultsJson: string;
+  resultsCsv: string;
+}
+
+/** Where a family's pages live: families/<family_id>/. */
+export const familyDir = (familyId: string): string => `families/${familyId}`;
+
+/**
+ * The family declaration page and its audit page, from the family's results and the members'
+ * names. Every mean links to its derivation: Σ w·v / Σ w with each member's value linked to
+ * the member's own audit trail.
+ */
+export function familyView(project: Project, results: FamilyResults, names: ReadonlyMap<string, string>): FamilyView {
+  const digits = project.declaration.report.significant_figures;
+  const sci = (value: number | null): string => (value === null ? 'n/a' : formatScientific(value, digits));
+  const audit: FamilyAuditEntry[] = [];
+  const entry = (figureId: string, label: string, code: string, stat: FamilyStat, perMember: (productId: string) => number | null, moduleD = false): FamilyCell => {
+    const unit = findIndicator(code)?.unit ?? '';
+    const flows = findIndicator(code)?.basis === 'flows';
+    audit.push({
+      id: figureId,
+      anchor: figureId,
+      label,
+      unit,
+      mean: sci(stat.mean),
+      terms: results.members.map((m) => ({
+        product: m.product_id,
+        weight: formatInput(m.weight),
+        share: formatShare(m.share),
+        value: sci(perMember(m.product_id)),
+        // Flow indicators have their own figure ids in a member's graph: link to its results table.
+        href: flows ? `../../${m.product_id}/index.html#results` : `../../${m.product_id}/${AUDIT_PAGE}#${fragment(figureId)}`,
+      })),
+    });
+    return { text: sci(stat.mean), range: stat.min === null ? '' : `${sci(stat.min)} … ${sci(stat.max)}`, href: `${AUDIT_PAGE}#${fragment(figureId)}`, ...(moduleD ? { moduleD } : {}) };
+  };
+  return buildView(project, results, names, sci, entry, audit);
+}
+
+type Entry = (figureId: string, label: string, code: string, stat: FamilyStat, perMember: (productId: string) => number | null, moduleD?: boolean) => FamilyCell;
+
+function buildView(project: Project, results: FamilyResults, names: ReadonlyMap<string, string>, sci: (v: number | null) => string, entry: Entry, audit: FamilyAuditEntry[]): FamilyView {
+  const cutoff = results.methods.cutoff;
+  const moduleCodes = Object.keys(cutoff.modules);
+  const memberValue = memberValueOf(results);
+  const tables = GROUPS.flatMap(({ group, title, caption }) => {
+    const codes = results.indicators.filter((i) => findIndicator(i.code)?.group === group);
+    if (codes.length === 0) return [];
+    return [{
+      title,
+      caption,
+      rows: codes.map((indicator) => ({
+        code: indicator.code,
+        name: indicator.name,
+        unit: indicator.unit,
+        cells: moduleCodes.map((module) => entry(`cutoff/${module}/${indicator.code}`, `${indicator.code}, ${module}, cut-off`, indicator.code, cutoff.modules[module]![indicator.code]!, (p) => memberValue(p, 'cutoff', module, indicator.code), module === 'D')),
+      })),
+    }];
+  });
+  // As on a product's page: the comparison shows indicators computed from factors.
+  const compared = project.declaration.report.compare_indicators.filter((code) => findIndicator(code)?.basis === 'factors' && results.indicators.some((i) => i.code === code));
+  const comparisonRows = [
+    { name: METHOD_SENTENCES.cutoff!.name, cells: compared.map((code) => entry(`cutoff/total/${code}`, `${code}, total, cut-off`, code, cutoff.total[code]!, (p) => memberValue(p, 'cutoff', 'total', code))) },
+    ...(['cff', 'eol-recycling', 'fifty-fifty'] as const)
+      .filter((method) => results.methods[method])
+      .map((method) => ({ name: METHOD_SENTENCES[method]!.name, cells: compared.map((code) => entry(`${method}/total/${code}`, `${code}, total, ${method}`, code, results.methods[method]!.total[code]!, (p) => memberValue(p, method, 'total', code))) })),
+  ];
+  const rc = results.flows.recycled_content;
+  const share = (s: FamilyStat) => ({ mean: s.mean === null ? 'n/a' : formatShare(s.mean), range: s.min === null ? '' : `${formatShare(s.min)} … ${formatShare(s.max!)}` });
+  const headlineStat = cutoff.modules['A1-A3']?.['GWP-total'];
+  const headline = headlineStat ? { a1a3: { text: sci(headlineStat.mean), range: headlineStat.min === null ? '' : `${sci(headlineStat.min)} … ${sci(headlineStat.max)}`, href: `${familyDir(results.family_id)}/${AUDIT_PAGE}#${fragment('cutoff/A1-A3/GWP-total')}` }, a1a3Value: String(headlineStat.mean ?? '') } : { a1a3: undefined, a1a3Value: '' };
+  return {
+    id: results.family_id,
+    name: results.name,
+    declaredUnit: results.declared_unit,
+    url: `${familyDir(results.family_id)}/index.html`,
+    tolerance: formatShare(results.tolerance),
+    warnings: familyWarnings(results),
+    members: results.members.map((m) => ({
+      id: m.product_id,
+      name: names.get(m.product_id) ?? m.product_id,
+      url: `../../${m.product_id}/index.html`,
+      weight: formatInput(m.weight),
+      weightFrom: m.weight_from.map((cell) => `${cell.file}:${cell.line}`).join(', '),
+      share: formatShare(m.share),
+      gwp: sci(m.gwp_a1_a3),
+      gwpHref: `../../${m.product_id}/${AUDIT_PAGE}#${fragment('cutoff/A1-A3/GWP-total')}`,
+      deviation: m.deviation === null ? 'n/a' : `${m.deviation >= 0 ? '+' : '−'}${(Math.abs(m.deviation) * 100).toFixed(1)} %`,
+      outside: m.outside_tolerance,
+    })),
+    modulesNotDeclared: results.modules_not_declared.map((m) => `${m.module} (declared by ${m.declared_by.join(', ')} only)`),
+    modules: moduleCodes.map((code) => ({ code, moduleD: code === 'D' })),
+    tables,
+    comparison: { indicators: compared.map((code) => ({ code, unit: findIndicator(code)?.unit ?? '' })), rows: comparisonRows },
+    recycledContent: [
+      { label: 'Pre-consumer (ISO 14021)', ...share(rc.pre) },
+      { label: 'Post-consumer (ISO 14021)', ...share(rc.post) },
+      { label: 'Total recycled content', ...share(rc.total) },
+    ],
+    headline,
+    audit,
+    resultsJson: 'results.json',
+    resultsCsv: 'results.csv',
+  };
+}
+
+/** A member's own value of a method/module/indicator, kept beside the family's results. */
+function memberValueOf(results: FamilyResults): (productId: string, method: string, module: string, code: string) => number | null {
+  const values = results.member_values;
+  return (productId, method, module, code) => values[productId]?.[method]?.[module]?.[code] ?? null;
+}
+
