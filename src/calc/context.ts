@@ -77,6 +77,13 @@ export class CalcContext {
     return resolved;
   }
 
+  /** A factors.csv row by id (validation guarantees every id the project uses). */
+  factorRow(id: string): Row<FactorRow> {
+    const row = this.factorRows.get(id);
+    if (!row) throw new Error(`factor ${id} not in the validated project`);
+    return row;
+  }
+
   private tableFactor(id: string): ResolvedFactor {
     const row = this.factorRows.get(id);
     if (!row) throw new Error(`factor ${id} not in the validated project`);
@@ -180,6 +187,19 @@ export class CalcContext {
       });
     };
     return { id, unit: 'kg', values, term: (symbol) => figureTerm(factorNodeId, symbol), ensure };
+  }
+
+  /**
+   * What one kg of a process's metal takes of each factor its flows name (kWh of
+   * electricity, kg of alumina, kg of CO2 as ghg:CO2): the process factor is Σ perKg × F.
+   */
+  processFlows(id: string): Array<{ factor: string; perKg: number }> {
+    const definition = this.project.processes.find((process) => `${PROCESS_PREFIX}${process.id}` === id);
+    if (!definition) throw new Error(`process ${id} not in the validated project`);
+    return definition.result.inventory.map((flow) => {
+      const factorId = flowFactor(definition, flow.flow).factor!;
+      return { factor: factorId, perKg: (flow.amount / 1000) * conversionFactor(flow.unit, this.factor(factorId).unit) };
+    });
   }
 
   private readonly netRecycling = new Map<string, Vec>();

@@ -5,7 +5,7 @@ import type { Row } from '../schema/table.ts';
 import { cellTerm, figureTerm, type FigureGraph, type Term } from '../trace/graph.ts';
 import { conversionTerm, type CalcContext, type ResolvedFactor } from './context.ts';
 import type { Inventory, LineFlows, MaterialEol } from './inventory.ts';
-import { sumFigure, vectorFigure } from './nodes.ts';
+import { sumFigure, useFactor, vectorFigure } from './nodes.ts';
 import { addScaled, scaled, zeros } from './vector.ts';
 
 /** Modules in EN 15804+A2 order. A4 and A5 appear only when the product has rows for them. */
@@ -73,6 +73,7 @@ export function cutoff(ctx: CalcContext, graph: FigureGraph, inv: Inventory, row
     const factorId = fate === 'landfill' ? material.landfill! : material.incineration!;
     const f = factor(factorId);
     const id = `cutoff/A3/scrap:${line.line.line_id}`;
+    useFactor(graph, id, factorId, line.scrapKg, { file: 'bom.csv', line: line.row.line });
     vectorFigure(graph, id, scaled(f.values, line.scrapKg), `scrap·${fate === 'landfill' ? 'ED' : 'E_inc'}`, `Treatment of the process scrap of ${line.line.component} (${fate}).`, [figureTerm(line.ids.scrap, 'scrap'), f.term(fate === 'landfill' ? 'ED' : 'E_inc')]);
     scrapIds.push(id);
   }
@@ -165,6 +166,9 @@ function productionFigure(graph: FigureGraph, id: string, line: LineFlows, facto
     terms.push(erec.term('Erec'));
   }
   vectorFigure(graph, id, values, 'G·[(1−R1)·Ev + R1·Erec]', `Production of ${line.line.component} (${material.material}).`, terms);
+  const input = { file: 'bom.csv', line: line.row.line };
+  useFactor(graph, id, material.virgin, line.grossKg * (1 - line.r1), input);
+  if (line.r1 > 0) useFactor(graph, id, material.recycled!, line.grossKg * line.r1, input);
   return id;
 }
 
@@ -177,6 +181,7 @@ function activityFigures(ctx: CalcContext, graph: FigureGraph, module: string, a
       const f = factor(a.factor);
       const conversion = conversionTerm(graph, a.unit, f.unit);
       const id = `cutoff/${module}/activity:${row.line}`;
+      useFactor(graph, id, a.factor, a.amount * conversion.factor, { file: table.file, line: row.line });
       vectorFigure(graph, id, scaled(f.values, a.amount * conversion.factor), conversion.terms.length ? 'amount·(unit→factor unit)·F' : 'amount·F', a.activity, [
         cellTerm(ctx.cell(table, row, 'amount'), 'amount'),
         cellTerm(ctx.cell(table, row, 'unit'), 'unit'),
@@ -210,6 +215,7 @@ function transportFigures(ctx: CalcContext, graph: FigureGraph, module: string, 
       const tonnes = conversionTerm(graph, 'kg', 't');
       const km = conversionTerm(graph, 'tkm', f.unit);
       const id = `cutoff/${module}/transport:${row.line}`;
+      useFactor(graph, id, leg.factor, massKg * tonnes.factor * leg.distance_km * km.factor, { file: table.file, line: row.line });
       vectorFigure(graph, id, scaled(f.values, massKg * tonnes.factor * leg.distance_km * km.factor), `(${inbound ? 'G' : 'm'}/1000)·d·F_tkm`, leg.leg, [
         massTerm,
         ...tonnes.terms,
@@ -257,6 +263,9 @@ function moduleD(ctx: CalcContext, graph: FigureGraph, m: MaterialEol, factor: (
     const recycling = factor(material.eol_recycling!);
     const substituted = factor(material.substituted ?? material.virgin);
     const id = `cutoff/D/material:${m.materialId}`;
+    const materialRow = { file: ctx.project.materials.file, line: m.material.line };
+    useFactor(graph, id, material.eol_recycling!, netKg, materialRow);
+    useFactor(graph, id, material.substituted ?? material.virgin, -netKg * material.q_out, materialRow);
     vectorFigure(graph, id, scaled(ctx.netRecyclingPerKg(m.material), netKg), '(M_MR,out − M_MR,in)·(E_MR − E_VMSub·Q_out)', `Net recycling of ${m.materialId}: recycling after end of waste minus the virgin material it replaces.`, [
       figureTerm(`${base}/M_MR_net`, 'M_net'),
       recycling.term('E_MR'),
@@ -276,6 +285,8 @@ function moduleD(ctx: CalcContext, graph: FigureGraph, m: MaterialEol, factor: (
     const values = scaled(elec.values, -mj * energy.electricity_efficiency * toElec.factor);
     addScaled(values, heat.values, -mj * energy.heat_efficiency * toHeat.factor);
     const id = `cutoff/D/energy:${m.materialId}`;
+    useFactor(graph, id, energy.electricity_factor, -mj * energy.electricity_efficiency * toElec.factor, { file: ctx.project.materials.file, line: m.material.line });
+    useFactor(graph, id, energy.heat_factor, -mj * energy.heat_efficiency * toHeat.factor, { file: ctx.project.materials.file, line: m.material.line });
     const declarationCell = (column: string) => cellTerm(ctx.declarationCell(['energy_recovery', column]), column);
     vectorFigure(graph, id, values, '−M_eol·energy_recovery·LHV·(η_el·E_el + η_heat·E_heat)', `Electricity and heat exported from incinerating ${m.materialId}, replacing the declared substituted energy.`, [
       figureTerm(m.ids.mass, 'M_eol'),
@@ -292,3 +303,4 @@ function moduleD(ctx: CalcContext, graph: FigureGraph, m: MaterialEol, factor: (
   }
   return ids;
 }
+

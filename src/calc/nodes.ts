@@ -12,3 +12,8 @@ export function sumFigure(graph: FigureGraph, id: string, childIds: readonly str
   for (const child of childIds) add(values, graph.vector(child).values);
   return vectorFigure(graph, id, values, formula, description, childIds.map((child) => figureTerm(child, symbol(child))));
 }
+
+/** Records a factor use of a leaf figure (module from the figure id: cutoff/<module>/…). */
+export function useFactor(graph: FigureGraph, figure: string, factor: string, amount: number, input?: { file: string; line: number }): void {
+  graph.uses.push({ module: figure.split('/')[1]!, figure, factor, amount, ...(input ? { input } : {}) });
+}

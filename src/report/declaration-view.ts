@@ -1,3 +1,4 @@
+import { dataQualityView, type DataQualityView } from './data-quality-view.ts';
 import type { CalcContext } from '../calc/context.ts';
 import type { ProductResult } from '../calc/product.ts';
 import type { ProductRows } from '../model/by-product.ts';
@@ -36,6 +37,8 @@ export interface DeclarationResultsView {
   charts: ChartView[];
   /** The declarant's own processes this product's figures rest on (process.csv). */
   processes: ProcessModelView[];
+  /** Data quality of the cradle-to-gate result (PEF DQR, contribution-weighted). */
+  dataQuality?: DataQualityView;
   /** Headline figures for the catalogue. */
   headline: { a1a3: FigureCell; moduleD: FigureCell; recycledContent: FigureCell; a1a3Value: string; moduleDValue: string; recycledValue: string };
 }
@@ -160,7 +163,8 @@ export function declarationResultsView(ctx: CalcContext, rows: ProductRows, resu
   };
 
   const charts = hasHeadline ? chartsOf(ctx, rows, result, json, headlineCode, sci) : [];
-  return { significantFigures: digits, boundary, modules, tables, recycledContent, biogenic, comparison, charts, processes: processModels(ctx, result, sci), headline };
+  const dataQuality = json.data_quality ? dataQualityView(json.data_quality, (id) => `../factors/index.html#f-${encodeURIComponent(id).replace(/%/g, '_')}`) : undefined;
+  return { significantFigures: digits, boundary, modules, tables, recycledContent, biogenic, comparison, charts, processes: processModels(ctx, result, sci), headline, ...(dataQuality ? { dataQuality } : {}) };
 }
 
 function chartsOf(ctx: CalcContext, rows: ProductRows, result: ProductResult, json: ResultsSummary, code: string, sci: (v: number | null | undefined) => string): ChartView[] {

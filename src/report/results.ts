@@ -1,3 +1,4 @@
+import { productDataQuality, type DataQualityJson } from './data-quality.ts';
 import type { CalcContext } from '../calc/context.ts';
 import type { ProductResult } from '../calc/product.ts';
 import { toNullable } from '../calc/vector.ts';
@@ -27,6 +28,8 @@ export interface ResultsJson {
     biogenic_carbon_kg: { product: number | null; packaging: number | null };
     biogenic_co2_kg: { product: number | null; packaging: number | null };
   };
+  /** The data quality of the cradle-to-gate result (PEF DQR, contribution-weighted); see src/report/data-quality.ts. */
+  data_quality?: DataQualityJson;
   figures: Record<string, FigureJson>;
 }
 
@@ -94,6 +97,7 @@ export function resultsSummary(ctx: CalcContext, result: ProductResult): Results
       biogenic_carbon_kg: { product: scalarValue(graph, f.biogenicCarbon.product), packaging: scalarValue(graph, f.biogenicCarbon.packaging) },
       biogenic_co2_kg: { product: scalarValue(graph, f.biogenicCarbon.productCo2), packaging: scalarValue(graph, f.biogenicCarbon.packagingCo2) },
     },
+    data_quality: productDataQuality(ctx, result),
   };
 }
 

@@ -13,6 +13,7 @@ import { AUDIT_PAGE, fragment, inputAnchor } from './figure-links.ts';
 import { physicalLines } from './written.ts';
 import { PROCESS_PREFIX } from '../schema/process-parameters.ts';
 import { allocationBase } from '../calc/allocation.ts';
+import { DQR_BANDS, dqrRating } from './data-quality.ts';
 import { familyDir, type FamilyView } from './family-view.ts';
 
 /** What the site shows of one product's results, taken while its figure graph is alive. */
@@ -103,7 +104,7 @@ export interface SiteView {
   pdfs: boolean;
   methodology: Array<{ title: string; paragraphs: string[] }>;
   products: ProductView[];
-  verification: { inputs: Array<{ file: string; sha256: string; bytes: number }>; datasets: Array<{ name: string; rows: number }> };
+  verification: { inputs: Array<{ file: string; sha256: string; bytes: number }>; datasets: Array<{ name: string; rows: number }>; factorQuality: TableView };
   /** The products that have an audit trail page (those with results). */
   audits: ProductView[];
   /** Every product of the catalogue (in the render that writes the catalogue pages). */
@@ -213,7 +214,7 @@ export function buildSiteView(project: Project, problems: readonly Problem[], op
     catalogue: catalogue ?? [],
     cataloguePages: catalogue ? [1] : [],
     families: catalogue ? [...(options.families ?? [])] : [],
-    verification: { inputs: [...(options.inputs ?? [])], datasets: catalogue ? datasetCounts(project) : [] },
+    verification: { inputs: [...(options.inputs ?? [])], datasets: catalogue ? datasetCounts(project) : [], factorQuality: catalogue ? factorQualityTable(project, catalogue) : { title: '', caption: '', headers: [], rows: [], empty: '' } },
     factors: catalogue ? factorTable(project, project.factors.rows, catalogue) : { title: '', caption: '', headers: [], rows: [], empty: '' },
     // Family spreads are known once every member is computed: the catalogue render adds them.
     warnings: [...problems.filter((p) => p.severity === 'warning').map(formatProblem), ...(catalogue ? (options.families ?? []).flatMap((family) => family.warnings) : [])],
@@ -228,8 +229,36 @@ export function buildSiteView(project: Project, problems: readonly Problem[], op
 /** A fragment id for a factor row (ids may hold characters that are awkward in URLs). */
 export const factorAnchor = (factorId: string) => `f-${encodeURIComponent(factorId).replace(/%/g, '_')}`;
 
-function factorTable(project: Project, rows: Project['factors']['rows'], catalogue: readonly CatalogueEntry[]): TableView {
-  const codes = project.indicators.filter((code) => project.factorIndicators.includes(code));
+/** The verification pack's data-quality table: every factor row with its pedigree scores, DQR, rating and data type, and the products whose figures it feeds. */
+function factorQualityTable(project: Project, catalogue: readonly CatalogueEntry[]): TableView {
+  const readBy = readersOf(catalogue);
+  const score = (value: number | null | undefined): Cell => ({ text: value === null || value === undefined ? '—' : String(value), numeric: true });
+  return {
+    title: 'Data quality of the factors',
+    caption: `Every row of factors.csv with its pedigree scores (1 best to 5), DQR = (TeR + GeR + TiR + P) / 4 and rating (PEF method, Recommendation (EU) 2021/2279; ${DQR_BANDS.map((b, k) => (b.upTo === Number.POSITIVE_INFINITY ? `> ${DQR_BANDS[k - 1]!.upTo}` : `≤ ${b.upTo}`) + ` ${b.rating}`).join(', ')}), its data type, and the products whose figures it feeds, each linked to the row in that product’s audit trail (where the figures that read it are listed). A row without all four scores has no DQR: it is not guessed.`,
+    headers: [{ text: 'Factor' }, { text: 'TeR', numeric: true }, { text: 'GeR', numeric: true }, { text: 'TiR', numeric: true }, { text: 'P', numeric: true }, { text: 'DQR', numeric: true }, { text: 'Rating' }, { text: 'Data' }, { text: 'Feeds' }],
+    rows: project.factors.rows.map((row) => {
+      const { ter, ger, tir, p } = row.value;
+      const given = [ter, ger, tir, p].filter((s): s is number => s !== null && s !== undefined);
+      const dqr = given.length === 4 ? given.reduce((a, b) => a + b, 0) / 4 : null;
+      return {
+        source: sourceOf(project.factors, row),
+        cells: [
+          { text: row.value.factor_id, href: `../factors/index.html#${factorAnchor(row.value.factor_id)}` },
+          score(ter), score(ger), score(tir), score(p),
+          { text: dqr === null ? '—' : dqr.toFixed(2), numeric: true },
+          txt(dqr === null ? (given.length === 0 ? 'not scored' : 'partly scored') : dqrRating(dqr)),
+          txt(row.value.data_type ?? 'not stated'),
+          readBy(row.line),
+        ],
+      };
+    }),
+    empty: 'No factors.',
+  };
+}
+
+/** Per factors.csv line, the products that read it, as a cell with links into their audit trails. */
+function readersOf(catalogue: readonly CatalogueEntry[]): (line: number) => Cell {
   const readers = new Map<number, CatalogueEntry[]>();
   for (const entry of catalogue) {
     for (const line of entry.factorLines) {
@@ -237,7 +266,7 @@ function factorTable(project: Project, rows: Project['factors']['rows'], catalog
       readers.get(line)!.push(entry);
     }
   }
-  const readBy = (line: number): Cell => {
+  return (line: number): Cell => {
     const products = readers.get(line) ?? [];
     const rest = products.length - LINKED_PRODUCTS;
     return {
@@ -245,6 +274,11 @@ function factorTable(project: Project, rows: Project['factors']['rows'], catalog
       links: products.slice(0, LINKED_PRODUCTS).map((product) => ({ text: product.id, href: `../${product.id}/${AUDIT_PAGE}#${fragment(inputAnchor(FACTORS_FILE, line))}` })),
     };
   };
+}
+
+function factorTable(project: Project, rows: Project['factors']['rows'], catalogue: readonly CatalogueEntry[]): TableView {
+  const codes = project.indicators.filter((code) => project.factorIndicators.includes(code));
+  const readBy = readersOf(catalogue);
   return {
     title: 'Factor table',
     caption: 'Every row of factors.csv, values per row unit. An empty cell is “not available”, never zero. “Read by”: the products whose figures read the row, each linked to the row in its audit trail.',

@@ -218,6 +218,39 @@ export function choice<const T extends readonly [string, ...string[]]>(descripti
   );
 }
 
+/** One of a fixed set of words, or empty (undefined). */
+export function optionalChoice<const T extends readonly [string, ...string[]]>(description: string, choices: T) {
+  const expected = `one of ${choices.join(', ')}, or empty`;
+  return withMeta(
+    cell().transform((raw, ctx): T[number] | undefined => {
+      if (isBlank(raw)) return undefined;
+      const value = raw.trim().toLowerCase();
+      const found = choices.find((c) => c.toLowerCase() === value);
+      if (found === undefined) {
+        const near = nearestName(raw.trim(), choices);
+        return report(ctx, 'BAD_CHOICE', `is not ${expected}`, expected, near ? `did you mean "${near}"?` : undefined);
+      }
+      return found;
+    }),
+    { description, kind: 'choice', required: false, choices },
+  );
+}
+
+/** A pedigree score: a whole number from 1 (best) to 5, or empty (not scored, never guessed). */
+export function pedigreeScore(description: string) {
+  const expected = 'a whole number from 1 (best) to 5, or empty for "not scored"';
+  return withMeta(
+    cell().transform((raw, ctx): number | null => {
+      if (isBlank(raw)) return null;
+      const value = Number(raw.trim());
+      if (!/^\s*\d+\s*$/.test(raw)) return report(ctx, 'NOT_A_NUMBER', `expected ${expected}`, expected);
+      if (value < 1 || value > 5) return report(ctx, 'OUT_OF_RANGE', 'is outside 1–5', expected);
+      return value;
+    }),
+    { description, kind: 'number', required: false, unit: 'score 1–5' },
+  );
+}
+
 /** A unit from the unit registry, optionally of one dimension. Returns the canonical spelling. */
 export function unitCell(description: string, dimension?: Dimension) {
   const allowed = dimension ? unitsOf(dimension) : [...KNOWN_UNITS];

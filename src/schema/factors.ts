@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { id, optionalQuantity, requiredText, text, unitCell } from './cells.ts';
+import { id, optionalChoice, optionalQuantity, pedigreeScore, requiredText, text, unitCell } from './cells.ts';
 import { defineCsv } from './csv-file.ts';
 import { INDICATORS } from '../reference/indicators.ts';
 import type { Dialect } from './numbers.ts';
@@ -12,6 +12,12 @@ function baseShape() {
     unit: unitCell('What one row is per: kg, t, kWh, MJ, tkm, m3, piece (and g, GJ, L and the like).'),
     dataset: requiredText('The background dataset the values come from, with its version.'),
     source: text('Where the row was taken from (database, EPD, supplier).'),
+    // Pedigree scores of the PEF data quality rating (Recommendation (EU) 2021/2279): DQR = (TeR + GeR + TiR + P)/4.
+    ter: pedigreeScore('Technological representativeness, 1 (best) to 5; empty: not scored.'),
+    ger: pedigreeScore('Geographical representativeness, 1 (best) to 5; empty: not scored.'),
+    tir: pedigreeScore('Time representativeness, 1 (best) to 5; empty: not scored.'),
+    p: pedigreeScore('Precision, 1 (best) to 5; empty: not scored.'),
+    data_type: optionalChoice('specific (your own or a supplier’s data) or generic (database data); empty: not stated.', ['specific', 'generic']),
   };
 }
 

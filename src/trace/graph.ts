@@ -53,8 +53,27 @@ export interface ScalarNode extends NodeBase {
 
 export type FigureNode = VectorNode | ScalarNode;
 
+/**
+ * One use of a factor by a leaf figure: how much of the factor's reference unit the figure
+ * takes, and the input row that drives it. A leaf's value per indicator is Σ amount × F over
+ * its uses, so a module's uses add up to the module (test/calc/contributions.test.ts): the
+ * base of contribution analysis and of the contribution-weighted data quality.
+ */
+export interface FactorUse {
+  /** The cut-off module the figure belongs to (A1, A2, A3, …, D). */
+  module: string;
+  figure: string;
+  /** The factor id as the inputs name it (factors.csv id, ghg:…, process:…). */
+  factor: string;
+  amount: number;
+  /** The input row behind the amount (a BOM line, an activity, a leg, a site row). */
+  input?: { file: string; line: number };
+}
+
 export class FigureGraph {
   readonly nodes = new Map<string, FigureNode>();
+  /** The factor uses of the leaf figures, in the order they were made. */
+  readonly uses: FactorUse[] = [];
 
   constructor(
     /** Indicator codes, in the order of every vector's values. */
