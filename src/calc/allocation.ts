@@ -3,7 +3,7 @@ import type { Product } from '../model/types.ts';
 import type { Row } from '../schema/table.ts';
 import { cellTerm, figureTerm, type FigureGraph, type Term } from '../trace/graph.ts';
 import { conversionTerm, type CalcContext, type ResolvedFactor } from './context.ts';
-import { useFactor, vectorFigure } from './nodes.ts';
+import { driver, useFactor, vectorFigure } from './nodes.ts';
 import { scaled } from './vector.ts';
 
 /**
@@ -27,7 +27,7 @@ export function siteFigures(ctx: CalcContext, graph: FigureGraph, module: string
       const share = shareFigure(ctx, graph, a);
       const perUnit = (s.amount * a.share) / a.production.value.output;
       const id = `cutoff/${module}/site:${a.row.line}`;
-      useFactor(graph, id, s.factor, perUnit * conversion.factor, { file: site.file, line: a.row.line });
+      useFactor(graph, id, s.factor, perUnit * conversion.factor, [[driver(site.file, a.row.line, 'amount')]]);
       vectorFigure(graph, id, scaled(f.values, perUnit * conversion.factor), `amount·share/output${conversion.terms.length ? '·(unit→factor unit)' : ''}·F`, `${s.activity}: ${a.group.site}, ${a.group.period}, shared by ${a.key.name}.`, [
         cellTerm(ctx.cell(site, a.row, 'amount'), 'amount'),
         cellTerm(ctx.cell(site, a.row, 'unit'), 'unit'),

@@ -2,6 +2,7 @@ import type { FactorUse, FigureGraph } from '../trace/graph.ts';
 import { PROCESS_PREFIX } from '../schema/process-parameters.ts';
 import type { CalcContext } from './context.ts';
 import type { Vec } from './vector.ts';
+import { findGas } from '../reference/ghg.ts';
 
 /** A factor's share in a set of modules: how much of it they take and what that adds, per indicator. */
 export interface FactorContribution {
@@ -43,4 +44,48 @@ export function factorContributions(ctx: CalcContext, graph: FigureGraph, module
     if (use.input && !entry.inputs.some((i) => i.file === use.input!.file && i.line === use.input!.line)) entry.inputs.push(use.input);
   }
   return [...byFactor.values()];
+}
+
+/** An input a result scales with: a factor row, or a cell of a BOM line, activity, leg or site row. */
+export interface InputContribution {
+  kind: 'factor' | 'bom' | 'activity' | 'transport' | 'site';
+  file: string;
+  line: number;
+  /** The cell varied: mass_kg, amount, distance_km; for a factor row, its indicator values. */
+  column: string;
+  /** The factor id, for a factor row. */
+  factor?: string;
+  /** The part of the result that scales with the input, per indicator. */
+  values: Vec;
+}
+
+const KIND: Record<string, InputContribution['kind']> = { 'bom.csv': 'bom', 'activities.csv': 'activity', 'transport.csv': 'transport', 'site.csv': 'site' };
+
+/**
+ * Each input's contribution to the given modules: the part of the result proportional to it
+ * (x·∂R/∂x, exact because every formula is linear in each input). For a factor row, every
+ * use of it (processes opened); for an input cell, its share of every use it drives. Factor
+ * rows and input cells overlap — the billet's kilograms appear under both the BOM line and
+ * the ingot factor — so contributions of different kinds do not add up to the result; the
+ * factor rows' do. Built-in greenhouse-gas values are constants, not inputs, and are left out.
+ */
+export function inputContributions(ctx: CalcContext, graph: FigureGraph, modules: readonly string[]): InputContribution[] {
+  const byKey = new Map<string, InputContribution>();
+  const K = ctx.length;
+  const add = (key: string, make: () => Omit<InputContribution, 'values'>, amount: number, values: Vec) => {
+    let entry = byKey.get(key);
+    if (!entry) byKey.set(key, (entry = { ...make(), values: new Array<number>(K).fill(0) }));
+    for (let i = 0; i < K; i++) entry.values[i]! += amount * values[i]!;
+  };
+  for (const use of expandedUses(ctx, graph, modules)) {
+    const f = ctx.factor(use.factor);
+    if (!findGas(use.factor)) {
+      const row = ctx.factorRow(use.factor);
+      add(`factors.csv:${row.line}`, () => ({ kind: 'factor', file: ctx.project.factors.file, line: row.line, column: '', factor: use.factor }), use.amount, f.values);
+    }
+    for (const group of use.drivers) {
+      for (const d of group) add(`${d.file}:${d.line}:${d.column}`, () => ({ kind: KIND[d.file] ?? 'bom', file: d.file, line: d.line, column: d.column }), use.amount * d.share, f.values);
+    }
+  }
+  return [...byKey.values()];
 }

@@ -5,7 +5,8 @@ import type { Row } from '../schema/table.ts';
 import { cellTerm, figureTerm, type FigureGraph, type Term } from '../trace/graph.ts';
 import { conversionTerm, type CalcContext, type ResolvedFactor } from './context.ts';
 import type { Inventory, LineFlows, MaterialEol } from './inventory.ts';
-import { sumFigure, useFactor, vectorFigure } from './nodes.ts';
+import { driver, sumFigure, useFactor, vectorFigure } from './nodes.ts';
+import { bomCsv } from '../schema/bom.ts';
 import { addScaled, scaled, zeros } from './vector.ts';
 
 /** Modules in EN 15804+A2 order. A4 and A5 appear only when the product has rows for them. */
@@ -73,7 +74,7 @@ export function cutoff(ctx: CalcContext, graph: FigureGraph, inv: Inventory, row
     const factorId = fate === 'landfill' ? material.landfill! : material.incineration!;
     const f = factor(factorId);
     const id = `cutoff/A3/scrap:${line.line.line_id}`;
-    useFactor(graph, id, factorId, line.scrapKg, { file: 'bom.csv', line: line.row.line });
+    useFactor(graph, id, factorId, line.scrapKg, [[bomMass(line)]]);
     vectorFigure(graph, id, scaled(f.values, line.scrapKg), `scrap·${fate === 'landfill' ? 'ED' : 'E_inc'}`, `Treatment of the process scrap of ${line.line.component} (${fate}).`, [figureTerm(line.ids.scrap, 'scrap'), f.term(fate === 'landfill' ? 'ED' : 'E_inc')]);
     scrapIds.push(id);
   }
@@ -166,9 +167,9 @@ function productionFigure(graph: FigureGraph, id: string, line: LineFlows, facto
     terms.push(erec.term('Erec'));
   }
   vectorFigure(graph, id, values, 'G·[(1−R1)·Ev + R1·Erec]', `Production of ${line.line.component} (${material.material}).`, terms);
-  const input = { file: 'bom.csv', line: line.row.line };
-  useFactor(graph, id, material.virgin, line.grossKg * (1 - line.r1), input);
-  if (line.r1 > 0) useFactor(graph, id, material.recycled!, line.grossKg * line.r1, input);
+  const mass = [[bomMass(line)]];
+  useFactor(graph, id, material.virgin, line.grossKg * (1 - line.r1), mass);
+  if (line.r1 > 0) useFactor(graph, id, material.recycled!, line.grossKg * line.r1, mass);
   return id;
 }
 
@@ -181,7 +182,7 @@ function activityFigures(ctx: CalcContext, graph: FigureGraph, module: string, a
       const f = factor(a.factor);
       const conversion = conversionTerm(graph, a.unit, f.unit);
       const id = `cutoff/${module}/activity:${row.line}`;
-      useFactor(graph, id, a.factor, a.amount * conversion.factor, { file: table.file, line: row.line });
+      useFactor(graph, id, a.factor, a.amount * conversion.factor, [[driver(table.file, row.line, 'amount')]]);
       vectorFigure(graph, id, scaled(f.values, a.amount * conversion.factor), conversion.terms.length ? 'amount·(unit→factor unit)·F' : 'amount·F', a.activity, [
         cellTerm(ctx.cell(table, row, 'amount'), 'amount'),
         cellTerm(ctx.cell(table, row, 'unit'), 'unit'),
@@ -215,7 +216,13 @@ function transportFigures(ctx: CalcContext, graph: FigureGraph, module: string, 
       const tonnes = conversionTerm(graph, 'kg', 't');
       const km = conversionTerm(graph, 'tkm', f.unit);
       const id = `cutoff/${module}/transport:${row.line}`;
-      useFactor(graph, id, leg.factor, massKg * tonnes.factor * leg.distance_km * km.factor, { file: table.file, line: row.line });
+      // The carried mass: one line's, or shared among the lines it adds up from.
+      const carried = line
+        ? [bomMass(line)]
+        : inbound
+          ? inv.productLines.map((l) => bomMass(l, l.grossKg / inv.grossKg))
+          : inv.materials.flatMap((m) => m.lines.map((l) => bomMass(l, l.line.mass_kg / massKg)));
+      useFactor(graph, id, leg.factor, massKg * tonnes.factor * leg.distance_km * km.factor, [[driver(table.file, row.line, 'distance_km')], carried]);
       vectorFigure(graph, id, scaled(f.values, massKg * tonnes.factor * leg.distance_km * km.factor), `(${inbound ? 'G' : 'm'}/1000)·d·F_tkm`, leg.leg, [
         massTerm,
         ...tonnes.terms,
@@ -263,9 +270,11 @@ function moduleD(ctx: CalcContext, graph: FigureGraph, m: MaterialEol, factor: (
     const recycling = factor(material.eol_recycling!);
     const substituted = factor(material.substituted ?? material.virgin);
     const id = `cutoff/D/material:${m.materialId}`;
-    const materialRow = { file: ctx.project.materials.file, line: m.material.line };
-    useFactor(graph, id, material.eol_recycling!, netKg, materialRow);
-    useFactor(graph, id, material.substituted ?? material.virgin, -netKg * material.q_out, materialRow);
+    // Each line's own net flow: (m·recycling + scrap to recycling)·yield − G·R1, proportional to its mass.
+    const lineNet = m.lines.map((l) => (l.line.mass_kg * e.recycling + (l.line.scrap_fate === 'recycled' ? l.scrapKg : 0)) * e.recycling_yield - l.grossKg * l.r1);
+    const lines = [m.lines.map((l, k) => bomMass(l, lineNet[k]! / netKg))];
+    useFactor(graph, id, material.eol_recycling!, netKg, lines);
+    useFactor(graph, id, material.substituted ?? material.virgin, -netKg * material.q_out, lines);
     vectorFigure(graph, id, scaled(ctx.netRecyclingPerKg(m.material), netKg), '(M_MR,out − M_MR,in)·(E_MR − E_VMSub·Q_out)', `Net recycling of ${m.materialId}: recycling after end of waste minus the virgin material it replaces.`, [
       figureTerm(`${base}/M_MR_net`, 'M_net'),
       recycling.term('E_MR'),
@@ -285,8 +294,9 @@ function moduleD(ctx: CalcContext, graph: FigureGraph, m: MaterialEol, factor: (
     const values = scaled(elec.values, -mj * energy.electricity_efficiency * toElec.factor);
     addScaled(values, heat.values, -mj * energy.heat_efficiency * toHeat.factor);
     const id = `cutoff/D/energy:${m.materialId}`;
-    useFactor(graph, id, energy.electricity_factor, -mj * energy.electricity_efficiency * toElec.factor, { file: ctx.project.materials.file, line: m.material.line });
-    useFactor(graph, id, energy.heat_factor, -mj * energy.heat_efficiency * toHeat.factor, { file: ctx.project.materials.file, line: m.material.line });
+    const burnt = [m.lines.map((l) => bomMass(l, l.line.mass_kg / m.massKg))];
+    useFactor(graph, id, energy.electricity_factor, -mj * energy.electricity_efficiency * toElec.factor, burnt);
+    useFactor(graph, id, energy.heat_factor, -mj * energy.heat_efficiency * toHeat.factor, burnt);
     const declarationCell = (column: string) => cellTerm(ctx.declarationCell(['energy_recovery', column]), column);
     vectorFigure(graph, id, values, '−M_eol·energy_recovery·LHV·(η_el·E_el + η_heat·E_heat)', `Electricity and heat exported from incinerating ${m.materialId}, replacing the declared substituted energy.`, [
       figureTerm(m.ids.mass, 'M_eol'),
@@ -304,3 +314,6 @@ function moduleD(ctx: CalcContext, graph: FigureGraph, m: MaterialEol, factor: (
   return ids;
 }
 
+
+/** A BOM line's mass cell as a driver. */
+const bomMass = (line: LineFlows, share = 1) => driver(bomCsv.file, line.row.line, 'mass_kg', share);

@@ -1,4 +1,4 @@
-import { figureTerm, type FigureGraph, type Term, type VectorNode } from '../trace/graph.ts';
+import { figureTerm, type Driver, type FigureGraph, type Term, type VectorNode } from '../trace/graph.ts';
 import { zeros, add, type Vec } from './vector.ts';
 
 /** Adds a vector figure. */
@@ -13,7 +13,14 @@ export function sumFigure(graph: FigureGraph, id: string, childIds: readonly str
   return vectorFigure(graph, id, values, formula, description, childIds.map((child) => figureTerm(child, symbol(child))));
 }
 
-/** Records a factor use of a leaf figure (module from the figure id: cutoff/<module>/…). */
-export function useFactor(graph: FigureGraph, figure: string, factor: string, amount: number, input?: { file: string; line: number }): void {
-  graph.uses.push({ module: figure.split('/')[1]!, figure, factor, amount, ...(input ? { input } : {}) });
+/**
+ * Records a factor use of a leaf figure (module from the figure id: cutoff/<module>/…), with
+ * the input cells its amount is proportional to; its input row is the first driver's.
+ */
+export function useFactor(graph: FigureGraph, figure: string, factor: string, amount: number, drivers: Driver[][]): void {
+  const first = drivers[0]?.[0];
+  graph.uses.push({ module: figure.split('/')[1]!, figure, factor, amount, ...(first ? { input: { file: first.file, line: first.line } } : {}), drivers });
 }
+
+/** One driver cell with the whole of the amount. */
+export const driver = (file: string, line: number, column: string, share = 1): Driver => ({ file, line, column, share });

@@ -42,7 +42,7 @@ export class ResultsWriter {
     await writeFile(path.join(dir, 'results.json'), `${resultsJsonText(ctx, product, summary)}\n`);
     await writeFile(path.join(dir, 'results.csv'), resultsCsv([summary]));
     const view = declarationResultsView(ctx, rows, product, summary);
-    for (const chart of view.charts) chart.svg = await renderChartSvg(chart);
+    for (const chart of [...view.charts, ...(view.sensitivity?.scopes.flatMap((scope) => scope.charts) ?? [])]) chart.svg = await renderChartSvg(chart);
     const outside = readsOutside(ctx.project, productReach(ctx.project, rows), product.graph);
     // A row the key does not cover would let `build --changed` keep a stale product: stop instead.
     if (outside) throw new Error(`internal: figure ${outside.figure} of ${summary.product_id} reads ${outside.file} line ${outside.line}, which its input key does not cover (src/render/input-key.ts productReach); please report this`);

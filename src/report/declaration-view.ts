@@ -1,3 +1,4 @@
+import { sensitivityView, type SensitivityView } from './sensitivity-view.ts';
 import { dataQualityView, type DataQualityView } from './data-quality-view.ts';
 import type { CalcContext } from '../calc/context.ts';
 import type { ProductResult } from '../calc/product.ts';
@@ -39,6 +40,8 @@ export interface DeclarationResultsView {
   processes: ProcessModelView[];
   /** Data quality of the cradle-to-gate result (PEF DQR, contribution-weighted). */
   dataQuality?: DataQualityView;
+  /** Top contributors and one-at-a-time sensitivity of GWP-total A1-A3 and D. */
+  sensitivity?: SensitivityView;
   /** Headline figures for the catalogue. */
   headline: { a1a3: FigureCell; moduleD: FigureCell; recycledContent: FigureCell; a1a3Value: string; moduleDValue: string; recycledValue: string };
 }
@@ -164,7 +167,8 @@ export function declarationResultsView(ctx: CalcContext, rows: ProductRows, resu
 
   const charts = hasHeadline ? chartsOf(ctx, rows, result, json, headlineCode, sci) : [];
   const dataQuality = json.data_quality ? dataQualityView(json.data_quality, (id) => `../factors/index.html#f-${encodeURIComponent(id).replace(/%/g, '_')}`) : undefined;
-  return { significantFigures: digits, boundary, modules, tables, recycledContent, biogenic, comparison, charts, processes: processModels(ctx, result, sci), headline, ...(dataQuality ? { dataQuality } : {}) };
+  const sensitivity = json.sensitivity ? sensitivityView(json.sensitivity, digits) : undefined;
+  return { significantFigures: digits, boundary, modules, tables, recycledContent, biogenic, comparison, charts, processes: processModels(ctx, result, sci), headline, ...(dataQuality ? { dataQuality } : {}), ...(sensitivity ? { sensitivity } : {}) };
 }
 
 function chartsOf(ctx: CalcContext, rows: ProductRows, result: ProductResult, json: ResultsSummary, code: string, sci: (v: number | null | undefined) => string): ChartView[] {

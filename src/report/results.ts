@@ -1,4 +1,5 @@
 import { productDataQuality, type DataQualityJson } from './data-quality.ts';
+import { productSensitivity, type SensitivityJson } from './sensitivity.ts';
 import type { CalcContext } from '../calc/context.ts';
 import type { ProductResult } from '../calc/product.ts';
 import { toNullable } from '../calc/vector.ts';
@@ -30,6 +31,8 @@ export interface ResultsJson {
   };
   /** The data quality of the cradle-to-gate result (PEF DQR, contribution-weighted); see src/report/data-quality.ts. */
   data_quality?: DataQualityJson;
+  /** The ten inputs that contribute most to GWP-total A1-A3 and to D, and ±step on each; see src/report/sensitivity.ts. */
+  sensitivity?: SensitivityJson;
   figures: Record<string, FigureJson>;
 }
 
@@ -98,6 +101,7 @@ export function resultsSummary(ctx: CalcContext, result: ProductResult): Results
       biogenic_co2_kg: { product: scalarValue(graph, f.biogenicCarbon.productCo2), packaging: scalarValue(graph, f.biogenicCarbon.packagingCo2) },
     },
     data_quality: productDataQuality(ctx, result),
+    ...withSensitivity(ctx, result),
   };
 }
 
@@ -186,4 +190,9 @@ export function figuresJsonText(graph: FigureGraph): string {
     }
   }
   return `{${parts.join(',')}}`;
+}
+
+function withSensitivity(ctx: CalcContext, result: ProductResult): { sensitivity?: SensitivityJson } {
+  const sensitivity = productSensitivity(ctx, result, ctx.project.declaration.report.sensitivity_step);
+  return sensitivity ? { sensitivity } : {};
 }

@@ -93,8 +93,14 @@ export const declarationSchema = z
           .max(1)
           .default(0.1)
           .meta({ description: 'A family member whose GWP-total A1-A3 lies further than this share from the family’s weighted average is flagged on the family page and on stderr; default 0.1 (10 %, a grouping rule of EN 15804+A2 practice).' }),
+        sensitivity_step: z
+          .number()
+          .gt(0)
+          .max(1)
+          .default(0.1)
+          .meta({ description: 'One-at-a-time sensitivity: each of the ten inputs that contribute most to GWP-total A1-A3 and to module D is moved by ± this share; default 0.1 (±10 %).' }),
       })
-      .default({ significant_figures: 3, compare_indicators: ['GWP-total'], family_tolerance: 0.1 })
+      .default({ significant_figures: 3, compare_indicators: ['GWP-total'], family_tolerance: 0.1, sensitivity_step: 0.1 })
       .meta({ description: 'How the declaration pages present the results.' }),
     illustrative: z
       .boolean()
@@ -124,7 +130,7 @@ export const DECLARATION_KEYS: Record<string, readonly string[]> = {
   verification: ['status', 'verifier', 'date'],
   'background_data[]': ['name', 'version', 'licence'],
   energy_recovery: ['electricity_efficiency', 'heat_efficiency', 'electricity_factor', 'heat_factor'],
-  report: ['significant_figures', 'compare_indicators', 'family_tolerance'],
+  report: ['significant_figures', 'compare_indicators', 'family_tolerance', 'sensitivity_step'],
 };
 
 export const declarationExample = {

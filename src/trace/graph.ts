@@ -68,6 +68,22 @@ export interface FactorUse {
   amount: number;
   /** The input row behind the amount (a BOM line, an activity, a leg, a site row). */
   input?: { file: string; line: number };
+  /**
+   * The input cells the amount is proportional to: amount ∝ Π over the groups of
+   * Σ share·(x / x₀) over a group's cells (a leg: its distance × the mass it carries, the
+   * mass being one line's or shared among the product's lines). Every formula is linear in
+   * each of these cells, so the part of a result that scales with a cell is its contribution,
+   * and ±10 % on the cell moves the result by ±10 % of that part (src/calc/contributions.ts).
+   */
+  drivers: Driver[][];
+}
+
+/** An input cell a factor use scales with, and the share of the use's amount that does. */
+export interface Driver {
+  file: string;
+  line: number;
+  column: string;
+  share: number;
 }
 
 export class FigureGraph {
