@@ -26,6 +26,8 @@ export interface SyntheticSize {
   linesPerProduct: number;
   indicators: number;
   seed?: number;
+  /** Add gsd columns (every factor 1.2, every BOM mass 1.05, every activity 1.1), for the Monte Carlo benchmark. */
+  gsd?: boolean;
 }
 
 export async function writeSyntheticProject(dir: string, size: SyntheticSize): Promise<void> {
@@ -39,7 +41,7 @@ export async function writeSyntheticProject(dir: string, size: SyntheticSize): P
   const factorRows: string[] = [];
   const factor = (id: string, unit: string) => {
     const values = codes.map(() => fmt(rand() * 10));
-    factorRows.push([id, `Synthetic ${id}`, unit, 'synthetic benchmark set', 'generated', ...values].join(','));
+    factorRows.push([id, `Synthetic ${id}`, unit, 'synthetic benchmark set', 'generated', ...values, ...(size.gsd ? ['1.2'] : [])].join(','));
   };
   for (let m = 0; m < materialCount; m++) for (const stage of ['virgin', 'recycled', 'eolrec', 'landfill']) factor(`m${m}-${stage}`, 'kg');
   factor('electricity', 'kWh');
@@ -56,8 +58,8 @@ export async function writeSyntheticProject(dir: string, size: SyntheticSize): P
   for (let s = 0; s < scenarios; s++) eol.push(`s${s},*,0.9,0.1,0.95,50,lorry,sorting,generated`);
 
   const products = ['product_id,name,declared_unit,unit_mass_kg,eol_scenario'];
-  const bom = ['product_id,line_id,component,material,role,mass_kg,recycled_pre,recycled_post,scrap_rate,scrap_fate,source'];
-  const activities = ['product_id,module,activity,factor,amount,unit,source'];
+  const bom = [`product_id,line_id,component,material,role,mass_kg,recycled_pre,recycled_post,scrap_rate,scrap_fate,source${size.gsd ? ',gsd' : ''}`];
+  const activities = [`product_id,module,activity,factor,amount,unit,source${size.gsd ? ',gsd' : ''}`];
   const transport = ['product_id,module,line_id,leg,factor,distance_km,source'];
   for (let p = 0; p < size.products; p++) {
     const id = `P${String(p).padStart(6, '0')}`;
@@ -67,11 +69,11 @@ export async function writeSyntheticProject(dir: string, size: SyntheticSize): P
     masses.forEach((mass, l) => {
       const pre = (rand() * 0.4).toFixed(3);
       const post = (rand() * 0.4).toFixed(3);
-      bom.push(`${id},L${l},Part ${l},mat${Math.floor(rand() * materialCount)},product,${mass},${pre},${post},${(rand() * 0.2).toFixed(3)},recycled,generated`);
+      bom.push(`${id},L${l},Part ${l},mat${Math.floor(rand() * materialCount)},product,${mass},${pre},${post},${(rand() * 0.2).toFixed(3)},recycled,generated${size.gsd ? ',1.05' : ''}`);
     });
     bom.push(`${id},P1,Box,mat0,packaging,0.02,0,0,0,recycled,generated`);
     bom.push(`${id},P2,Film,mat1,packaging,0.005,0,0,0,recycled,generated`);
-    activities.push(`${id},A3,Electricity,electricity,${fmt(rand() * 3)},kWh,generated`);
+    activities.push(`${id},A3,Electricity,electricity,${fmt(rand() * 3)},kWh,generated${size.gsd ? ',1.1' : ''}`);
     activities.push(`${id},A3,Gas,gas,${fmt(rand() * 10)},MJ,generated`);
     activities.push(`${id},C1,Dismantling,gas,${fmt(rand())},MJ,generated`);
     if (p % 100 === 0) activities.push(`${id},A3,Powder coating,powder-coating,0.05,kg,generated`);
@@ -96,7 +98,7 @@ export async function writeSyntheticProject(dir: string, size: SyntheticSize): P
     'eol.csv': eol,
     'activities.csv': activities,
     'transport.csv': transport,
-    'factors.csv': [['factor_id', 'name', 'unit', 'dataset', 'source', ...codes].join(','), ...factorRows],
+    'factors.csv': [['factor_id', 'name', 'unit', 'dataset', 'source', ...codes, ...(size.gsd ? ['gsd'] : [])].join(','), ...factorRows],
   };
   for (const [name, lines] of Object.entries(files)) await writeFile(path.join(dir, name), `${lines.join('\n')}\n`);
   await writeFile(path.join(dir, 'declaration.json'), JSON.stringify(declaration, null, 2));

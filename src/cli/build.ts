@@ -20,6 +20,8 @@ export interface BuildOptions {
   shard?: ShardSpec;
   /** Keep the files of every product whose inputs did not change since the build in `out`. */
   changed?: boolean;
+  /** Run the Monte Carlo analysis even where declaration.json does not ask for it. */
+  uncertainty?: boolean;
 }
 
 /** Products named in the --changed summary; the rest are counted. */
@@ -37,6 +39,8 @@ export async function runBuild(options: BuildOptions, io: Io): Promise<number> {
     return EXIT.input;
   }
 
+  // The flag asks for what declaration.json `uncertainty` would: its settings, else the defaults.
+  if (options.uncertainty) project.declaration.uncertainty ??= { iterations: 1000, seed: 1 };
   const browser = options.pdf === 'off' ? undefined : await findBrowser();
   if (options.pdf === 'required' && !browser) {
     io.err('no browser found for the PDFs (looked at PUPPETEER_EXECUTABLE_PATH, chromium/chrome on the PATH, puppeteer’s cache); nothing was written');

@@ -26,7 +26,7 @@ what was expected. Exit 0 when there are no errors (warnings allowed), 1 with er
   },
   build: {
     summary: 'validate, compute and render the declarations',
-    usage: `loopsheet build [--data DIR] [--out DIR] [--no-pdf] [--pdf] [--changed] [--shard K/N]
+    usage: `loopsheet build [--data DIR] [--out DIR] [--no-pdf] [--pdf] [--changed] [--shard K/N] [--uncertainty]
 
 Validates the data folder and renders the site into --out. Nothing is written when
 validation fails, and a failed build leaves the previous output untouched. The same inputs
@@ -40,8 +40,10 @@ give the same bytes.
                reach) changed since the build in --out; keep the others' files, refresh
                the catalogue and the manifest, and print what was rebuilt and why
   --shard K/N  build the K-th of N shares of the products (by a stable hash of
-               product_id), for a CI matrix; join the shards with loopsheet merge`,
-    options: { data: { type: 'string' }, out: { type: 'string' }, 'no-pdf': { type: 'boolean' }, pdf: { type: 'boolean' }, changed: { type: 'boolean' }, shard: { type: 'string' } },
+               product_id), for a CI matrix; join the shards with loopsheet merge
+  --uncertainty  run the Monte Carlo uncertainty analysis (inputs with a gsd column vary;
+               iterations and seed from declaration.json uncertainty, else 1 000 and 1)`,
+    options: { data: { type: 'string' }, out: { type: 'string' }, 'no-pdf': { type: 'boolean' }, pdf: { type: 'boolean' }, changed: { type: 'boolean' }, shard: { type: 'string' }, uncertainty: { type: 'boolean' } },
     positionals: { min: 0, max: 0 },
     run: async (values, _positionals, io) => {
       const shard = str(values.shard);
@@ -51,6 +53,7 @@ give the same bytes.
           out: str(values.out) ?? 'out',
           pdf: values['no-pdf'] === true ? 'off' : values.pdf === true ? 'required' : 'auto',
           changed: values.changed === true,
+          uncertainty: values.uncertainty === true,
           ...(shard !== undefined ? { shard: (await import('../render/shards.ts')).parseShard(shard) } : {}),
         },
         io,

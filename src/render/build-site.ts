@@ -126,7 +126,7 @@ export async function buildSite(project: Project, problems: readonly Problem[], 
       progress(shard.length);
     }
   } else {
-    const tasks = Array.from({ length: workers }, (_, worker): WorkerTask => ({ shards: shards.filter((_, k) => k % workers === worker).map((shard) => shard.map((item) => item.index)), pdfs: options.pdfs, context }));
+    const tasks = Array.from({ length: workers }, (_, worker): WorkerTask => ({ shards: shards.filter((_, k) => k % workers === worker).map((shard) => shard.map((item) => item.index)), pdfs: options.pdfs, context, ...(project.declaration.uncertainty ? { uncertainty: project.declaration.uncertainty } : {}) }));
     const results = await Promise.all(tasks.map((task, worker) => runWorker(project.dir, outDir, task, `${worker + 1} of ${workers}`, progress, options.onWorkerEnd)));
     outcomes.push(...results.flat());
   }
@@ -181,6 +181,8 @@ export interface WorkerTask {
   shards: number[][];
   pdfs: boolean;
   context: string;
+  /** The Monte Carlo settings when the build asked for them on the command line (build --uncertainty). */
+  uncertainty?: { iterations: number; seed: number };
 }
 
 export type WorkerMessage = { kind: 'shard'; products: number } | { kind: 'done'; outcomes: ProductOutcome[]; peakRssMb: number } | { kind: 'failed'; message: string };

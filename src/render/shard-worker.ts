@@ -11,9 +11,10 @@ const task = new Promise<WorkerTask>((resolve) => process.once('message', (messa
 
 const [dataDir, outDir] = process.argv.slice(2);
 try {
-  const [{ project, problems }, { shards, pdfs, context }] = await Promise.all([loadProject(dataDir!), task]);
+  const [{ project, problems }, { shards, pdfs, context, uncertainty }] = await Promise.all([loadProject(dataDir!), task]);
   // The parent validated the same files a moment ago; a change in between is a failure, not a different build.
   if (!project || hasErrors(problems)) throw new Error('the data folder changed during the build and no longer validates');
+  if (uncertainty) project.declaration.uncertainty = uncertainty;
   const all = rowsByProduct(project);
   const outcomes: ProductOutcome[] = [];
   for (const indices of shards) {

@@ -1,4 +1,5 @@
 import { sensitivityView, type SensitivityView } from './sensitivity-view.ts';
+import type { UncertaintyJson } from '../calc/uncertainty.ts';
 import { dataQualityView, type DataQualityView } from './data-quality-view.ts';
 import type { CalcContext } from '../calc/context.ts';
 import type { ProductResult } from '../calc/product.ts';
@@ -42,6 +43,8 @@ export interface DeclarationResultsView {
   dataQuality?: DataQualityView;
   /** Top contributors and one-at-a-time sensitivity of GWP-total A1-A3 and D. */
   sensitivity?: SensitivityView;
+  /** Monte Carlo ranges, when the build ran them. */
+  uncertainty?: UncertaintyView;
   /** Headline figures for the catalogue. */
   headline: { a1a3: FigureCell; moduleD: FigureCell; recycledContent: FigureCell; a1a3Value: string; moduleDValue: string; recycledValue: string };
 }
@@ -168,7 +171,8 @@ export function declarationResultsView(ctx: CalcContext, rows: ProductRows, resu
   const charts = hasHeadline ? chartsOf(ctx, rows, result, json, headlineCode, sci) : [];
   const dataQuality = json.data_quality ? dataQualityView(json.data_quality, (id) => `../factors/index.html#f-${encodeURIComponent(id).replace(/%/g, '_')}`) : undefined;
   const sensitivity = json.sensitivity ? sensitivityView(json.sensitivity, digits) : undefined;
-  return { significantFigures: digits, boundary, modules, tables, recycledContent, biogenic, comparison, charts, processes: processModels(ctx, result, sci), headline, ...(dataQuality ? { dataQuality } : {}), ...(sensitivity ? { sensitivity } : {}) };
+  const uncertainty = json.uncertainty ? uncertaintyView(json.uncertainty, sci) : undefined;
+  return { significantFigures: digits, boundary, modules, tables, recycledContent, biogenic, comparison, charts, processes: processModels(ctx, result, sci), headline, ...(dataQuality ? { dataQuality } : {}), ...(sensitivity ? { sensitivity } : {}), ...(uncertainty ? { uncertainty } : {}) };
 }
 
 function chartsOf(ctx: CalcContext, rows: ProductRows, result: ProductResult, json: ResultsSummary, code: string, sci: (v: number | null | undefined) => string): ChartView[] {
@@ -228,4 +232,26 @@ function processModels(ctx: CalcContext, result: ProductResult, sci: (v: number 
     });
   }
   return views;
+}
+
+export interface UncertaintyView {
+  iterations: string;
+  seed: number;
+  varied: string;
+  rows: Array<{ figure: string; deterministic: string; median: string; low: string; high: string; mean: string }>;
+}
+
+/** The uncertainty section: how the run was made, what varied, and the ranges. */
+function uncertaintyView(u: UncertaintyJson, sci: (v: number | null | undefined) => string): UncertaintyView {
+  const count = (n: number, one: string, many: string) => `${n} ${n === 1 ? one : many}`;
+  const variedCount = u.varied.factors.length + u.varied.bom.length + u.varied.activities.length;
+  return {
+    iterations: u.iterations.toLocaleString('en'),
+    seed: u.seed,
+    varied:
+      variedCount === 0
+        ? `No input behind these results has a gsd column, so nothing varied: the ranges equal the result (${u.fixed} inputs fixed).`
+        : `${count(variedCount, 'input', 'inputs')} varied — ${count(u.varied.factors.length, 'factor row', 'factor rows')}${u.varied.factors.length ? ` (${u.varied.factors.join(', ')})` : ''}, ${count(u.varied.bom.length, 'BOM mass', 'BOM masses')}${u.varied.bom.length ? ` (bom.csv line${u.varied.bom.length === 1 ? '' : 's'} ${u.varied.bom.join(', ')})` : ''}, ${count(u.varied.activities.length, 'activity amount', 'activity amounts')}${u.varied.activities.length ? ` (activities.csv line${u.varied.activities.length === 1 ? '' : 's'} ${u.varied.activities.join(', ')})` : ''}; ${u.fixed} inputs without a gsd stayed fixed.`,
+    rows: u.figures.map((f) => ({ figure: `${f.indicator} ${f.module}`, deterministic: sci(f.deterministic), median: sci(f.median), low: sci(f.p2_5), high: sci(f.p97_5), mean: sci(f.mean) })),
+  };
 }

@@ -1,5 +1,6 @@
 import { productDataQuality, type DataQualityJson } from './data-quality.ts';
 import { productSensitivity, type SensitivityJson } from './sensitivity.ts';
+import { productUncertainty, type UncertaintyJson } from '../calc/uncertainty.ts';
 import type { CalcContext } from '../calc/context.ts';
 import type { ProductResult } from '../calc/product.ts';
 import { toNullable } from '../calc/vector.ts';
@@ -33,6 +34,8 @@ export interface ResultsJson {
   data_quality?: DataQualityJson;
   /** The ten inputs that contribute most to GWP-total A1-A3 and to D, and ±step on each; see src/report/sensitivity.ts. */
   sensitivity?: SensitivityJson;
+  /** Monte Carlo ranges of GWP-total A1-A3 and D, when asked for (declaration.json uncertainty or build --uncertainty). */
+  uncertainty?: UncertaintyJson;
   figures: Record<string, FigureJson>;
 }
 
@@ -102,6 +105,7 @@ export function resultsSummary(ctx: CalcContext, result: ProductResult): Results
     },
     data_quality: productDataQuality(ctx, result),
     ...withSensitivity(ctx, result),
+    ...withUncertainty(ctx, result),
   };
 }
 
@@ -195,4 +199,11 @@ export function figuresJsonText(graph: FigureGraph): string {
 function withSensitivity(ctx: CalcContext, result: ProductResult): { sensitivity?: SensitivityJson } {
   const sensitivity = productSensitivity(ctx, result, ctx.project.declaration.report.sensitivity_step);
   return sensitivity ? { sensitivity } : {};
+}
+
+/** Monte Carlo runs only when asked for: ordinary builds do not pay for it. */
+function withUncertainty(ctx: CalcContext, result: ProductResult): { uncertainty?: UncertaintyJson } {
+  const settings = ctx.project.declaration.uncertainty;
+  const uncertainty = settings ? productUncertainty(ctx, result, settings) : undefined;
+  return uncertainty ? { uncertainty } : {};
 }

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { choice, quantity, reference, requiredText, text, unitCell } from './cells.ts';
+import { choice, gsdCell, quantity, reference, requiredText, text, unitCell } from './cells.ts';
 import { defineCsv } from './csv-file.ts';
 
 export const ACTIVITY_MODULES = ['A1', 'A2', 'A3', 'A4', 'A5', 'C1', 'C2', 'C3', 'C4'] as const;
@@ -17,6 +17,7 @@ export const activitiesCsv = defineCsv({
       amount: quantity(d, 'Amount per declared unit, in `unit`.', 'the row’s unit'),
       unit: unitCell('Unit of the amount; must convert to the factor’s unit (kWh ↔ MJ ↔ GJ, g ↔ kg ↔ t, L ↔ m3).'),
       source: text('Where the figure comes from (meter, allocation sheet).'),
+      gsd: gsdCell(d, 'Uncertainty of amount for an uncertainty run: geometric standard deviation of a lognormal whose median is amount; empty: fixed.'),
     }),
   example: {
     product_id: 'EXT-6060-40',

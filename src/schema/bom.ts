@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { choice, id, quantity, reference, requiredText, share, text, reportAt } from './cells.ts';
+import { choice, gsdCell, id, quantity, reference, requiredText, share, text, reportAt } from './cells.ts';
 import { defineCsv } from './csv-file.ts';
 
 export const BOM_ROLES = ['product', 'packaging'] as const;
@@ -24,6 +24,7 @@ export const bomCsv = defineCsv({
         scrap_rate: share(d, 'Share of the gross input that leaves manufacturing as process scrap; gross input = mass_kg / (1 − scrap_rate).', { default: 0, belowOne: true }),
         scrap_fate: choice('Where the process scrap goes.', SCRAP_FATES, 'recycled'),
         source: text('Where the figure comes from: drawing, meter, supplier declaration.'),
+        gsd: gsdCell(d, 'Uncertainty of mass_kg for an uncertainty run: geometric standard deviation of a lognormal whose median is mass_kg; empty: fixed.'),
       })
       .superRefine((row, ctx) => {
         // ISO 14021 §7.8: pre- and post-consumer shares are parts of one input.

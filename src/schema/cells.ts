@@ -236,6 +236,24 @@ export function optionalChoice<const T extends readonly [string, ...string[]]>(d
   );
 }
 
+/**
+ * The geometric standard deviation of a lognormal around the row's value (its median), at
+ * least 1; empty: the value is fixed in an uncertainty run.
+ */
+export function gsdCell(dialect: Dialect, description: string) {
+  const expected = 'a geometric standard deviation of at least 1 (1.1 is about ±10 % at one sigma), or empty for "fixed"';
+  return withMeta(
+    cell().transform((raw, ctx): number | null => {
+      if (isBlank(raw)) return null;
+      const read = readNumber(raw, dialect);
+      if (!read.ok) return report(ctx, read.code, `expected ${expected}: ${read.reason}`, expected);
+      if (!(read.value >= 1)) return report(ctx, 'OUT_OF_RANGE', 'is below 1', expected);
+      return read.value;
+    }),
+    { description, kind: 'number', required: false, unit: 'GSD (≥ 1)' },
+  );
+}
+
 /** A pedigree score: a whole number from 1 (best) to 5, or empty (not scored, never guessed). */
 export function pedigreeScore(description: string) {
   const expected = 'a whole number from 1 (best) to 5, or empty for "not scored"';

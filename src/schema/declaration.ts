@@ -102,6 +102,13 @@ export const declarationSchema = z
       })
       .default({ significant_figures: 3, compare_indicators: ['GWP-total'], family_tolerance: 0.1, sensitivity_step: 0.1 })
       .meta({ description: 'How the declaration pages present the results.' }),
+    uncertainty: z
+      .object({
+        iterations: z.int().min(100).max(100_000).default(1000).meta({ description: 'Monte Carlo iterations; default 1 000.' }),
+        seed: z.int().min(0).max(2 ** 31 - 1).default(1).meta({ description: 'Seed of the random numbers: the same seed gives the same numbers; default 1.' }),
+      })
+      .optional()
+      .meta({ description: 'Run the Monte Carlo uncertainty analysis on every build (also `build --uncertainty`): inputs with a gsd column vary as lognormals around their values; the declarations show the median and the 2.5 and 97.5 percentiles of GWP-total A1-A3 and D.' }),
     illustrative: z
       .boolean()
       .default(false)
@@ -131,6 +138,7 @@ export const DECLARATION_KEYS: Record<string, readonly string[]> = {
   'background_data[]': ['name', 'version', 'licence'],
   energy_recovery: ['electricity_efficiency', 'heat_efficiency', 'electricity_factor', 'heat_factor'],
   report: ['significant_figures', 'compare_indicators', 'family_tolerance', 'sensitivity_step'],
+  uncertainty: ['iterations', 'seed'],
 };
 
 export const declarationExample = {

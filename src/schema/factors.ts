@@ -1,11 +1,11 @@
 import { z } from 'zod';
-import { id, optionalChoice, optionalQuantity, pedigreeScore, requiredText, text, unitCell } from './cells.ts';
+import { gsdCell, id, optionalChoice, optionalQuantity, pedigreeScore, requiredText, text, unitCell } from './cells.ts';
 import { defineCsv } from './csv-file.ts';
 import { INDICATORS } from '../reference/indicators.ts';
 import type { Dialect } from './numbers.ts';
 
 /** The fixed columns; one optional column per EN 15804+A2 indicator code follows. */
-function baseShape() {
+function baseShape(d: Dialect) {
   return {
     factor_id: id('Identifier of the factor row.'),
     name: requiredText('What the factor is.'),
@@ -17,6 +17,7 @@ function baseShape() {
     ger: pedigreeScore('Geographical representativeness, 1 (best) to 5; empty: not scored.'),
     tir: pedigreeScore('Time representativeness, 1 (best) to 5; empty: not scored.'),
     p: pedigreeScore('Precision, 1 (best) to 5; empty: not scored.'),
+    gsd: gsdCell(d, 'Uncertainty of the row’s values for an uncertainty run: geometric standard deviation of a lognormal whose median is each value (one draw scales every indicator of the row); empty: fixed.'),
     data_type: optionalChoice('specific (your own or a supplier’s data) or generic (database data); empty: not stated.', ['specific', 'generic']),
   };
 }
@@ -30,14 +31,14 @@ function indicatorShape(dialect: Dialect) {
   ) as Record<string, ReturnType<typeof optionalQuantity>>;
 }
 
-export const FACTOR_BASE_COLUMNS = Object.keys(baseShape());
+export const FACTOR_BASE_COLUMNS = Object.keys(baseShape({ decimalComma: false }));
 
 export const factorsCsv = defineCsv({
   file: 'factors.csv',
   purpose: 'Impact factors per unit of a flow, one column per EN 15804+A2 indicator code.',
   key: ['factor_id'],
   needsRows: true,
-  row: (d) => z.object({ ...baseShape(), ...indicatorShape(d) }),
+  row: (d) => z.object({ ...baseShape(d), ...indicatorShape(d) }),
   example: {
     factor_id: 'grid-electricity',
     name: 'Electricity, medium voltage, national grid',
