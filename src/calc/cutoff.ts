@@ -101,22 +101,27 @@ export function cutoff(ctx: CalcContext, graph: FigureGraph, inv: Inventory, row
     const e = m.eol.value;
     const eolCell = (column: string) => cellTerm(ctx.cell(ctx.project.eol, m.eol, column), column);
     const M = figureTerm(m.ids.mass, 'M_eol');
+    // End-of-life amounts scale with the material's lines' masses, each by its share of M_eol.
+    const eolMass = [m.lines.map((l) => bomMass(l, l.line.mass_kg / m.massKg))];
     if (e.transport_km > 0 && e.transport_factor) {
       const f = factor(e.transport_factor);
       const tonnes = conversionTerm(graph, 'kg', 't');
       const id = `cutoff/C2/material:${m.materialId}`;
+      useFactor(graph, id, e.transport_factor, m.massKg * tonnes.factor * e.transport_km, eolMass);
       vectorFigure(graph, id, scaled(f.values, m.massKg * tonnes.factor * e.transport_km), 'M_eol/1000·km·F_tkm', `Transport of end-of-life ${m.materialId} to waste processing.`, [M, ...tonnes.terms, eolCell('transport_km'), f.term('F_tkm')]);
       c2Ids.push(id);
     }
     if (e.recycling > 0 && e.processing_factor) {
       const f = factor(e.processing_factor);
       const id = `cutoff/C3/material:${m.materialId}`;
+      useFactor(graph, id, e.processing_factor, m.massKg * e.recycling, eolMass);
       vectorFigure(graph, id, scaled(f.values, m.massKg * e.recycling), 'M_eol·recycling·F_proc', `Waste processing of the ${m.materialId} sent to recycling, up to the end-of-waste state.`, [M, eolCell('recycling'), f.term('F_proc')]);
       c3ProcessingIds.push(id);
     }
     if (e.energy_recovery > 0 && m.material.value.incineration) {
       const f = factor(m.material.value.incineration);
       const id = `cutoff/C3/energy-recovery:${m.materialId}`;
+      useFactor(graph, id, m.material.value.incineration, m.massKg * e.energy_recovery, eolMass);
       vectorFigure(graph, id, scaled(f.values, m.massKg * e.energy_recovery), 'M_eol·energy_recovery·E_inc', `Incineration of ${m.materialId} with energy recovery (benefits in D).`, [M, eolCell('energy_recovery'), f.term('E_inc')]);
       c3EnergyIds.push(id);
     }
@@ -134,6 +139,8 @@ export function cutoff(ctx: CalcContext, graph: FigureGraph, inv: Inventory, row
     }
     if (disposal.length > 0) {
       const id = `cutoff/C4/material:${m.materialId}`;
+      if (e.landfill > 0) useFactor(graph, id, m.material.value.landfill!, m.massKg * e.landfill, eolMass);
+      if (e.incineration > 0) useFactor(graph, id, m.material.value.incineration!, m.massKg * e.incineration, eolMass);
       vectorFigure(graph, id, c4, 'M_eol·(landfill·ED + incineration·E_inc)', `Disposal of end-of-life ${m.materialId}.`, [M, ...disposal]);
       c4Ids.push(id);
     }

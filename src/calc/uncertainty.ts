@@ -7,7 +7,7 @@ import type { CalcContext } from './context.ts';
 import type { ProductResult } from './product.ts';
 
 /**
- * Monte Carlo uncertainty of a product's headline results. Inputs with a `gsd` column —
+ * Monte Carlo uncertainty of a product's headline results (GWP-total A1-A3, D and the A1–C4 total). Inputs with a `gsd` column —
  * factor rows (one draw scales every indicator of the row), BOM line masses and activity
  * amounts — vary as lognormals whose median is the value written, ln X ~ N(ln x, (ln gsd)²)
  * (the common pedigree-matrix convention); the rest stay fixed. The results are sums over
@@ -39,9 +39,11 @@ export interface UncertaintyJson {
   figures: UncertaintyFigure[];
 }
 
+/** The headline results: cradle to gate, module D, and the A1–C4 total (D not added). */
 const SCOPES = [
   { module: 'A1-A3', modules: ['A1', 'A2', 'A3'] },
   { module: 'D', modules: ['D'] },
+  { module: 'total', modules: ['A1', 'A2', 'A3', 'A4', 'A5', 'C1', 'C2', 'C3', 'C4'] },
 ] as const;
 const INDICATOR = 'GWP-total';
 
@@ -114,7 +116,7 @@ export function productUncertainty(ctx: CalcContext, result: ProductResult, sett
   const draws = new Map(varying.map(([key, gsd]) => [key, lognormalMultipliers(normal, gsd!, n)]));
 
   const figures = scopes.map(({ module, uses }) => {
-    const id = result.cutoff.modules[module];
+    const id = module === 'total' ? result.cutoff.total : result.cutoff.modules[module];
     const deterministic = id ? result.graph.vector(id).values[index]! : null;
     const out = new Float64Array(n);
     const scratch = new Float64Array(n);

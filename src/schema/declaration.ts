@@ -108,7 +108,7 @@ export const declarationSchema = z
         seed: z.int().min(0).max(2 ** 31 - 1).default(1).meta({ description: 'Seed of the random numbers: the same seed gives the same numbers; default 1.' }),
       })
       .optional()
-      .meta({ description: 'Run the Monte Carlo uncertainty analysis on every build (also `build --uncertainty`): inputs with a gsd column vary as lognormals around their values; the declarations show the median and the 2.5 and 97.5 percentiles of GWP-total A1-A3 and D.' }),
+      .meta({ description: 'Run the Monte Carlo uncertainty analysis on every build (also `build --uncertainty`): inputs with a gsd column vary as lognormals around their values; the declarations show the median and the 2.5 and 97.5 percentiles of GWP-total A1-A3, D and the A1–C4 total.' }),
     illustrative: z
       .boolean()
       .default(false)

@@ -12,11 +12,11 @@ import { DEMO } from '../helpers.ts';
 const demo = await compute(DEMO);
 
 describe('factor contributions add up to the modules they come from', () => {
-  it.each(demo.map((d) => [d.results.product_id, d] as const))('%s: A1-A3 and D, every indicator', (_id, d) => {
-    for (const [modules, module] of [[['A1', 'A2', 'A3'], 'A1-A3'], [['D'], 'D']] as const) {
+  it.each(demo.map((d) => [d.results.product_id, d] as const))('%s: A1-A3, D and the A1–C4 total, every indicator', (_id, d) => {
+    for (const [modules, module] of [[['A1', 'A2', 'A3'], 'A1-A3'], [['D'], 'D'], [['A1', 'A2', 'A3', 'A4', 'A5', 'C1', 'C2', 'C3', 'C4'], 'total']] as const) {
       const parts = factorContributions(d.ctx, d.result.graph, modules);
       d.ctx.indicators.forEach((code, i) => {
-        const expected = d.results.methods.cutoff.modules[module]![code];
+        const expected = module === 'total' ? d.results.methods.cutoff.total[code] : d.results.methods.cutoff.modules[module]![code];
         const sum = parts.reduce((total, c) => total + c.values[i]!, 0);
         if (expected === null || expected === undefined) expect(Number.isNaN(sum) || sum === 0, `${module} ${code}`).toBe(true);
         else expect(sum, `${module} ${code}`).toBeCloseTo(expected, 9);

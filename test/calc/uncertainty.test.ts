@@ -79,6 +79,10 @@ describe('Monte Carlo on a linear model', () => {
     expect(a13.p2_5! / (2 * Math.exp(-1.96 * sigma))).toBeCloseTo(1, 1);
     expect(a13.p97_5! / (2 * Math.exp(1.96 * sigma))).toBeCloseTo(1, 1);
     expect(u.varied).toEqual({ factors: ['ev'], bom: [], activities: [] });
+    // The A1–C4 total adds C4, 2 kg landfilled at a fixed 0.1: mean 2·exp(σ²/2) + 0.2.
+    const total = u.figures.find((f) => f.module === 'total')!;
+    expect(total.deterministic).toBeCloseTo(2.2, 12);
+    expect(Math.abs(total.mean! - (2 * Math.exp(sigma ** 2 / 2) + 0.2))).toBeLessThan(4 * se);
   });
 
   it('combines a varied factor and a varied mass as independent lognormals: σ² = σ_F² + σ_m²', async () => {
