@@ -4,7 +4,7 @@ import { findBrowser } from '../render/browser.ts';
 import { buildSite } from '../render/build-site.ts';
 import { keptHashes, readPreviousBuild } from '../render/incremental.ts';
 import { checkOutputDir, withStagedOutput } from '../render/output.ts';
-import { declarationPdfJobs, printPdfs } from '../render/pdf.ts';
+import { declarationPdfJobs, familyPdfJobs, printPdfs } from '../render/pdf.ts';
 import { shardOf, writeShardRecord, type ShardSpec } from '../render/shards.ts';
 import { copyInputs, hashInputs, writeManifest } from '../render/verification.ts';
 import { EXIT, UsageError, type Io } from './io.ts';
@@ -67,11 +67,13 @@ export async function runBuild(options: BuildOptions, io: Io): Promise<number> {
     const rebuilt = new Set(built.rebuilt.map((r) => r.id));
     const printed = built.outcomes.filter((o) => rebuilt.has(o.entry.id)).map((o) => ({ id: o.entry.id, name: o.entry.name }));
     if (browser) {
-      progress.phase(`PDF (${printed.length})`);
+      // Family pages are written again by every build (their members may have changed): so are their PDFs.
+      const jobs = [...declarationPdfJobs(project, staging, printed), ...familyPdfJobs(project, staging, built.families)];
+      progress.phase(`PDF (${jobs.length})`);
       io.err(`PDF: using ${browser.executablePath} (found via ${browser.how})`);
-      await printPdfs(browser, staging, declarationPdfJobs(project, staging, printed));
+      await printPdfs(browser, staging, jobs);
     } else if (options.pdf === 'auto') {
-      missingPdfs = printed.map((product) => `${product.id}/declaration.pdf`);
+      missingPdfs = [...printed.map((product) => `${product.id}/declaration.pdf`), ...built.families.map((family) => `families/${family.id}/declaration.pdf`)];
     }
     if (shard) {
       await writeShardRecord(staging, { shard, pdfs: browser !== undefined, context: built.context, inputs, outcomes: built.outcomes });

@@ -1,7 +1,9 @@
 import path from 'node:path';
 import { loadProject } from '../model/project.ts';
 import { hasErrors } from '../problems.ts';
+import { findBrowser } from '../render/browser.ts';
 import { writeCatalogue } from '../render/build-site.ts';
+import { familyPdfJobs, printPdfs } from '../render/pdf.ts';
 import { keepProduct } from '../render/incremental.ts';
 import { checkOutputDir, withStagedOutput } from '../render/output.ts';
 import { readShardRecords } from '../render/shards.ts';
@@ -38,8 +40,14 @@ export async function runMerge(options: { dirs: string[]; out: string }, io: Io)
       }
     }
     outcomes.sort((a, b) => a.index - b.index);
-    const familyWarnings = await writeCatalogue(project, problems, staging, outcomes, { inputs, pdfs: records[0]!.pdfs, context: records[0]!.context });
-    for (const warning of familyWarnings) io.err(`warning ${warning}`);
+    const catalogue = await writeCatalogue(project, problems, staging, outcomes, { inputs, pdfs: records[0]!.pdfs, context: records[0]!.context });
+    for (const warning of catalogue.warnings) io.err(`warning ${warning}`);
+    // Family declarations are made here, from every shard's products: where the shards printed PDFs, so does the merge.
+    if (records[0]!.pdfs && catalogue.families.length > 0) {
+      const browser = await findBrowser();
+      if (!browser) throw new UsageError('the shards printed PDFs, and the family declarations are printed by merge: no browser found (PUPPETEER_EXECUTABLE_PATH, chromium/chrome on the PATH, puppeteer’s cache)');
+      await printPdfs(browser, staging, familyPdfJobs(project, staging, catalogue.families));
+    }
     await writeManifest(staging, inputs);
     count = outcomes.length;
   });

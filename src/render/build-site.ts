@@ -66,6 +66,8 @@ export interface SiteBuildResult {
   context: string;
   /** Family members outside the grouping tolerance, one line each (empty for a shard build). */
   familyWarnings: string[];
+  /** The family declarations written (empty for a shard build): their PDFs are printed with the products'. */
+  families: Array<{ id: string; name: string }>;
 }
 
 const chunk = <T>(items: T[], size: number): T[][] => Array.from({ length: Math.ceil(items.length / size) }, (_, i) => items.slice(i * size, (i + 1) * size));
@@ -131,22 +133,23 @@ export async function buildSite(project: Project, problems: readonly Problem[], 
     outcomes.push(...results.flat());
   }
   outcomes.sort((a, b) => a.index - b.index);
-  const familyWarnings = options.catalogue ?? true ? await writeCatalogue(project, problems, outDir, outcomes, { inputs: options.inputs, pdfs: options.pdfs, context }) : [];
-  return { outcomes, rebuilt, kept, context, familyWarnings };
+  const catalogue = options.catalogue ?? true ? await writeCatalogue(project, problems, outDir, outcomes, { inputs: options.inputs, pdfs: options.pdfs, context }) : { warnings: [], families: [] };
+  return { outcomes, rebuilt, kept, context, familyWarnings: catalogue.warnings, families: catalogue.families };
 }
 
 /**
  * The catalogue-wide files and pages (catalogue, families, factor table, verification page)
  * and the build cache, from every product's outcome. Returns the family warnings (members
- * beyond the grouping tolerance) for the caller to print.
+ * beyond the grouping tolerance) for the caller to print, and the families whose PDFs the
+ * caller prints.
  */
-export async function writeCatalogue(project: Project, problems: readonly Problem[], outDir: string, outcomes: readonly ProductOutcome[], options: { inputs: SiteView['verification']['inputs']; pdfs: boolean; context: string }): Promise<string[]> {
+export async function writeCatalogue(project: Project, problems: readonly Problem[], outDir: string, outcomes: readonly ProductOutcome[], options: { inputs: SiteView['verification']['inputs']; pdfs: boolean; context: string }): Promise<{ warnings: string[]; families: Array<{ id: string; name: string }> }> {
   await writeCatalogueResults(outDir, outcomes.map((o) => o.summary));
   const catalogue = outcomes.map((o) => o.entry);
   const families = await writeFamilies(project, outDir, outcomes);
   await renderSite(buildSiteView(project, problems, { products: [], catalogue, pdfs: options.pdfs, inputs: options.inputs, families }), outDir);
   await writeBuildCache(outDir, options.context, outcomes);
-  return families.flatMap((family) => family.warnings);
+  return { warnings: families.flatMap((family) => family.warnings), families: families.map((family) => ({ id: family.id, name: family.name })) };
 }
 
 /** Each family's results.json and results.csv under families/<id>/, and its page view. */

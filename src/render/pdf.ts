@@ -42,15 +42,24 @@ export function reproduciblePdf(pdf: Uint8Array, isoDate: string): Buffer {
 
 /** One PDF per declaration page, with its running head (product, verification status) and footer. */
 export function declarationPdfJobs(project: Project, outDir: string, products: ReadonlyArray<{ id: string; name: string }>): PdfJob[] {
+  return products.map((product) => pdfJob(project, path.join(outDir, product.id), `${product.name} (${product.id})`));
+}
+
+/** The family declarations' PDFs, families/<family_id>/declaration.pdf. */
+export function familyPdfJobs(project: Project, outDir: string, families: ReadonlyArray<{ id: string; name: string }>): PdfJob[] {
+  return families.map((family) => pdfJob(project, path.join(outDir, 'families', family.id), `Family ${family.name} (${family.id})`));
+}
+
+function pdfJob(project: Project, dir: string, title: string): PdfJob {
   const { verification, illustrative, issued } = project.declaration;
-  return products.map((product) => ({
-    html: path.join(outDir, product.id, 'index.html'),
-    pdf: path.join(outDir, product.id, 'declaration.pdf'),
-    title: `${product.name} (${product.id})`,
+  return {
+    html: path.join(dir, 'index.html'),
+    pdf: path.join(dir, 'declaration.pdf'),
+    title,
     status: verification.status === 'verified' ? `verified ${verification.date ?? ''}` : 'DRAFT — not verified',
     ...(illustrative ? { footnote: 'Illustrative data: invented values, not a real dataset' } : {}),
     date: issued,
-  }));
+  };
 }
 
 const PAGE_POOL = 2;

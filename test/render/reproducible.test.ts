@@ -28,7 +28,7 @@ describe('reproducible builds', () => {
     const treeA = await hashTree(path.join(a, 'out'));
     const treeB = await hashTree(path.join(b, 'site'));
     expect(Object.keys(treeA).length).toBeGreaterThan(20);
-    if (found) expect(Object.keys(treeA).filter((file) => file.endsWith('.pdf'))).toHaveLength(5);
+    if (found) expect(Object.keys(treeA).filter((file) => file.endsWith('.pdf'))).toHaveLength(6);
     expect(treeB).toEqual(treeA);
 
     for (const file of Object.keys(treeA).filter((f) => /\.(html|json|csv|svg|css|js)$/.test(f))) {

@@ -86,6 +86,22 @@ describe('PDF in a real Chromium', async () => {
     // No link in the PDF points into the build folder (it would be a file:// path of this machine).
     expect(readFileSync(path.join(out, 'KV-CU-BB10', 'declaration.pdf'), 'latin1')).not.toContain('file://');
   });
+
+  it.skipIf(!browser)('prints the family page with its weighted averages, the draft status on every page (poppler pdftotext)', async () => {
+    const file = path.join(out, 'families', 'profiles-6060-mill', 'declaration.pdf');
+    expect((await readFile(file)).subarray(0, 5).toString()).toBe('%PDF-');
+    let text: string;
+    try {
+      text = execFileSync('pdftotext', ['-layout', file, '-'], { encoding: 'utf8' });
+    } catch {
+      console.warn('*** pdftotext (poppler-utils) not installed: PDF text not checked ***');
+      return;
+    }
+    const family = JSON.parse(readFileSync(path.join(out, 'families', 'profiles-6060-mill', 'results.json'), 'utf8'));
+    expect(text).toContain('Extruded hollow profiles, EN AW-6060, mill finish');
+    expect(text).toContain(family.methods.cutoff.modules['A1-A3']['GWP-total'].mean.toExponential(2));
+    for (const page of text.split('\f').filter((p) => p.trim() !== '')) expect(page).toContain('DRAFT — not verified');
+  });
 });
 
 describe('declaration.json report settings', () => {
