@@ -43,10 +43,11 @@ describe('loopsheet usage', () => {
 });
 
 describe('loopsheet check', () => {
-  it('passes the demo (exit 0, warnings allowed) and prints problems to stderr only', async () => {
+  it('passes the demo (exit 0, warnings allowed), prints problems to stderr and the site shares to stdout', async () => {
     const result = await runCli(['check', '--data', DEMO]);
     expect(result.code).toBe(0);
-    expect(result.stdout).toBe('');
+    // Mass keys: 1 200 000 m × 0.83 kg = 996 000 kg, 450 000 × 0.78 = 351 000, 260 000 × 0.9 = 234 000; Σ 1 581 000 kg.
+    expect(result.stdout).toBe('site norwick-press-shop, 2025, shared by mass (ISO 14044 §4.3.4): KV-EXT-6060 62.998 %, KV-EXT-6060-T19 22.201 %, KV-EXT-6060-T22 14.801 %\n');
     expect(result.stderr).toContain('0 errors, 1 warning');
     expect(result.stderr).toContain('warning factors.csv:23: ODP "":');
   });
