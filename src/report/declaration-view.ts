@@ -1,16 +1,16 @@
-import { sensitivityView, type SensitivityView } from './sensitivity-view.ts';
-import type { UncertaintyJson } from '../calc/uncertainty.ts';
-import { dataQualityView, type DataQualityView } from './data-quality-view.ts';
 import type { CalcContext } from '../calc/context.ts';
 import type { ProductResult } from '../calc/product.ts';
+import type { UncertaintyJson } from '../calc/uncertainty.ts';
+import { toNullable } from '../calc/vector.ts';
 import type { ProductRows } from '../model/by-product.ts';
 import { findIndicator, type IndicatorGroup } from '../reference/indicators.ts';
 import { LIFE_CYCLE_MODULES } from '../reference/modules.ts';
 import { barChart, type ChartDatum, type ChartView } from './charts.ts';
+import { dataQualityView, type DataQualityView } from './data-quality-view.ts';
 import { figureHref } from './figure-links.ts';
 import { formatInput, formatScientific, formatShare } from './format.ts';
-import { toNullable } from '../calc/vector.ts';
 import type { ResultsSummary } from './results.ts';
+import { sensitivityView, type SensitivityView } from './sensitivity-view.ts';
 
 /**
  * What a declaration page shows of the results, formatted, every number with the link to

@@ -1,11 +1,11 @@
-import { productDataQuality, type DataQualityJson } from './data-quality.ts';
-import { productSensitivity, type SensitivityJson } from './sensitivity.ts';
-import { productUncertainty, type UncertaintyJson } from '../calc/uncertainty.ts';
 import type { CalcContext } from '../calc/context.ts';
 import type { ProductResult } from '../calc/product.ts';
+import { productUncertainty, type UncertaintyJson } from '../calc/uncertainty.ts';
 import { toNullable } from '../calc/vector.ts';
 import { findIndicator } from '../reference/indicators.ts';
 import type { FigureGraph, FigureNode, Term } from '../trace/graph.ts';
+import { productDataQuality, type DataQualityJson } from './data-quality.ts';
+import { productSensitivity, type SensitivityJson } from './sensitivity.ts';
 
 /**
  * The results contract (`out/<product_id>/results.json`): keys and nesting are what CI users
