@@ -76,8 +76,14 @@ describe('build --changed', () => {
     expect(settings.stdout).toContain('rebuilt 7 of 7 products (0 kept from the previous build):');
     expect(settings.stdout).toContain('KV-BR-42: declaration.json or the page settings changed');
 
+    // Without the uncertainty setting, the command-line flag is what asks for the Monte Carlo ranges: a page setting too.
+    await editFile(path.join(data, 'declaration.json'), (text) => text.replace(/\n\s*"uncertainty": \{[^}]*\},/, ''));
+    expect((await build(data, out, '--changed')).stdout).toContain('rebuilt 7 of 7 products');
+    expect((await build(data, out, '--changed', '--uncertainty')).stdout).toContain('rebuilt 7 of 7 products (0 kept from the previous build):');
+    expect((await build(data, out, '--changed', '--uncertainty')).stdout).toContain('rebuilt 0 of 7 products');
+
     const clean = path.join(work, 'clean');
-    expect((await build(data, clean)).code).toBe(0);
+    expect((await build(data, clean, '--uncertainty')).code).toBe(0);
     expect(await hashTree(out)).toEqual(await hashTree(clean));
   });
 });
