@@ -19,6 +19,18 @@ export interface FactorContribution {
  * counts as the electricity factor it is.
  */
 export function expandedUses(ctx: CalcContext, graph: FigureGraph, modules: readonly string[]): FactorUse[] {
+  // Data quality, sensitivity and the Monte Carlo run all ask for A1-A3 of the same product: open it once.
+  let cached = expandedCache.get(graph);
+  if (!cached) expandedCache.set(graph, (cached = new Map()));
+  const key = modules.join(',');
+  let uses = cached.get(key);
+  if (!uses) cached.set(key, (uses = openProcesses(ctx, graph, modules)));
+  return uses;
+}
+
+const expandedCache = new WeakMap<FigureGraph, Map<string, FactorUse[]>>();
+
+function openProcesses(ctx: CalcContext, graph: FigureGraph, modules: readonly string[]): FactorUse[] {
   const wanted = new Set(modules);
   const out: FactorUse[] = [];
   const expand = (use: FactorUse, depth: number) => {

@@ -5,7 +5,7 @@ import { parameterSpec, PROCESS_PREFIX } from '../schema/process-parameters.ts';
 import { findIndicator } from '../reference/indicators.ts';
 import { nearestName } from '../reference/nearest.ts';
 import { convertible, dimensionOf, unitsOf, type Dimension } from '../reference/units.ts';
-import type { Row, Table } from '../schema/table.ts';
+import { cellProblem, type Row, type Table } from '../schema/table.ts';
 import { indicatorValue, type BomLine, type EolRow, type FactorRow, type Material, type Product, type Project } from './types.ts';
 
 /**
@@ -41,14 +41,7 @@ class CheckContext {
   ) {}
 
   at(table: AnyTable, line: number, raw: Record<string, string>, column: string, severity: Severity, code: ProblemCode, message: string, extra: Partial<Problem> = {}): void {
-    const value = raw[column];
-    const columnIndex = table.columns[column];
-    this.problems.push({
-      severity, code, file: table.file, line, column,
-      ...(columnIndex === undefined ? {} : { columnIndex }),
-      ...(value === undefined ? {} : { value }),
-      message, ...extra,
-    });
+    this.problems.push(cellProblem(table, { line, raw }, column, severity, code, message, extra));
   }
 
   /** Ids written in a table's column, valid rows or not, so one bad cell elsewhere in a row does not make references to it dangle. */

@@ -1,7 +1,7 @@
 import type { Problem } from '../problems.ts';
 import type { familiesCsv } from '../schema/families.ts';
 import type { RowOf } from '../schema/csv-file.ts';
-import type { Row, Table } from '../schema/table.ts';
+import { cellProblem, type Row, type Table } from '../schema/table.ts';
 import type { ProductionRow } from './sites.ts';
 import type { Product } from './types.ts';
 
@@ -39,11 +39,7 @@ export interface Family {
  */
 export function readFamilies(table: Table<FamilyRow>, products: Table<Product>, production: Table<ProductionRow>): { families: Family[]; problems: Problem[] } {
   const problems: Problem[] = [];
-  const at = (row: Row<FamilyRow>, column: string, code: Problem['code'], message: string, expected: string) => {
-    const value = row.raw[column];
-    const columnIndex = table.columns[column];
-    problems.push({ severity: 'error', code, file: table.file, line: row.line, column, ...(columnIndex === undefined ? {} : { columnIndex }), ...(value === undefined ? {} : { value }), message, expected });
-  };
+  const at = (row: Row<FamilyRow>, column: string, code: Problem['code'], message: string, expected: string) => problems.push(cellProblem(table, row, column, 'error', code, message, { expected }));
   const productById = new Map(products.rows.map((row) => [row.value.product_id, row.value]));
   const outputs = new Map<string, Row<ProductionRow>[]>();
   for (const row of production.rows) outputs.set(row.value.product_id, [...(outputs.get(row.value.product_id) ?? []), row]);

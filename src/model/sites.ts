@@ -1,10 +1,10 @@
-import type { Problem, ProblemCode, Severity } from '../problems.ts';
+import type { Problem } from '../problems.ts';
 import { nearestName } from '../reference/nearest.ts';
 import { readNumber, type Dialect } from '../schema/numbers.ts';
 import { BUILT_IN_KEYS, type siteCsv } from '../schema/site.ts';
 import { productionCsv } from '../schema/production.ts';
 import { columnsOf, type RowOf } from '../schema/csv-file.ts';
-import type { Row, Table } from '../schema/table.ts';
+import { cellProblem, type Row, type Table } from '../schema/table.ts';
 import type { Product } from './types.ts';
 
 export type SiteRow = RowOf<typeof siteCsv>;
@@ -71,11 +71,7 @@ const groupKey = (site: string, period: string) => `${site}\u0000${period}`;
  */
 export function readSites(site: Table<SiteRow>, production: Table<ProductionRow>, products: Table<Product>): { allocation: SiteAllocation; problems: Problem[] } {
   const problems: Problem[] = [];
-  const at = (table: Table<unknown>, row: { line: number; raw: Record<string, string> }, column: string, severity: Severity, code: ProblemCode, message: string, extra: Partial<Problem> = {}) => {
-    const value = row.raw[column];
-    const columnIndex = table.columns[column];
-    problems.push({ severity, code, file: table.file, line: row.line, column, ...(columnIndex === undefined ? {} : { columnIndex }), ...(value === undefined ? {} : { value }), message, ...extra });
-  };
+  const at = (...args: Parameters<typeof cellProblem>) => problems.push(cellProblem(...args));
 
   const productById = new Map(products.rows.map((row) => [row.value.product_id, row]));
   const groups = new Map<string, SitePeriod>();

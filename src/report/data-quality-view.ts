@@ -1,5 +1,5 @@
 import { findIndicator } from '../reference/indicators.ts';
-import { DQR_BANDS, type DataQualityJson } from './data-quality.ts';
+import { dqrBandsText, type DataQualityJson } from './data-quality.ts';
 import { formatShare } from './format.ts';
 
 export interface DataQualityView {
@@ -24,7 +24,7 @@ export function dataQualityView(dq: DataQualityJson, factorHref: (id: string) =>
       t.specific === null
         ? 'GWP-total is not reported, so the share of specific data is not computed.'
         : `Of GWP-total A1-A3 (absolute contributions), ${share(t.specific)} rests on specific data (own or supplier-specific), ${share(t.generic)} on generic database data${t.not_stated ? ` and ${share(t.not_stated)} on factors whose data type factors.csv does not state` : ''}.`,
-    bands: DQR_BANDS.map((band, k) => `${band.upTo === Number.POSITIVE_INFINITY ? `> ${DQR_BANDS[k - 1]!.upTo}` : `≤ ${band.upTo}`} ${band.rating}`).join(', '),
+    bands: dqrBandsText(),
     indicators: Object.entries(dq.indicators).map(([code, q]) => ({
       code: findIndicator(code)?.code ?? code,
       dqr: q.dqr === null ? 'n/a' : q.dqr.toFixed(2),

@@ -17,6 +17,16 @@ export const DQR_BANDS: ReadonlyArray<{ upTo: number; rating: string }> = [
 
 export const dqrRating = (dqr: number): string => DQR_BANDS.find((band) => dqr <= band.upTo)!.rating;
 
+/** The bands as a reader sees them: "≤ 1.5 excellent, …, > 4 poor". */
+export const dqrBandsText = (): string => DQR_BANDS.map((band, k) => `${band.upTo === Number.POSITIVE_INFINITY ? `> ${DQR_BANDS[k - 1]!.upTo}` : `≤ ${band.upTo}`} ${band.rating}`).join(', ');
+
+/** A factor row's DQR, or null unless all four scores are given (a partial score is not averaged), with the scores missing. */
+export function pedigreeDqr(scores: { ter?: number | null; ger?: number | null; tir?: number | null; p?: number | null }): { dqr: number | null; missing: string[] } {
+  const entries = Object.entries({ ter: scores.ter, ger: scores.ger, tir: scores.tir, p: scores.p });
+  const missing = entries.filter(([, v]) => v === null || v === undefined).map(([k]) => k.toUpperCase());
+  return { dqr: missing.length === 0 ? entries.reduce((sum, [, v]) => sum + v!, 0) / 4 : null, missing };
+}
+
 export type DataType = 'specific' | 'generic';
 
 export interface FactorQuality {
@@ -40,9 +50,7 @@ export function factorQuality(ctx: CalcContext, id: string): FactorQuality {
   }
   const row = ctx.factorRow(id);
   const { ter, ger, tir, p } = row.value;
-  const scores = { ter, ger, tir, p };
-  const given = [ter, ger, tir, p].filter((s): s is number => s !== null && s !== undefined);
-  const dqr = given.length === 4 ? given.reduce((a, b) => a + b, 0) / 4 : null;
+  const { dqr, missing } = pedigreeDqr(row.value);
   return {
     factor_id: id,
     line: row.line,
@@ -50,7 +58,7 @@ export function factorQuality(ctx: CalcContext, id: string): FactorQuality {
     dqr,
     rating: dqr === null ? null : dqrRating(dqr),
     data_type: row.value.data_type ?? null,
-    unscored_reason: given.length === 4 ? null : given.length === 0 ? 'not scored' : `partly scored (${Object.entries(scores).filter(([, v]) => v === null || v === undefined).map(([k]) => k.toUpperCase()).join(', ')} missing)`,
+    unscored_reason: missing.length === 0 ? null : missing.length === 4 ? 'not scored' : `partly scored (${missing.join(', ')} missing)`,
   };
 }
 

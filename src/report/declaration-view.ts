@@ -7,7 +7,7 @@ import { findIndicator, type IndicatorGroup } from '../reference/indicators.ts';
 import { LIFE_CYCLE_MODULES } from '../reference/modules.ts';
 import { barChart, type ChartDatum, type ChartView } from './charts.ts';
 import { dataQualityView, type DataQualityView } from './data-quality-view.ts';
-import { figureHref } from './figure-links.ts';
+import { factorHref, figureHref } from './figure-links.ts';
 import { formatInput, formatScientific, formatShare } from './format.ts';
 import type { ResultsSummary } from './results.ts';
 import { sensitivityView, type SensitivityView } from './sensitivity-view.ts';
@@ -61,13 +61,21 @@ export interface ProcessModelView {
 export const PROCESS_CAUTION =
   'Emission figures computed here from operating data serve this declaration. Emission figures for regulatory reporting must follow the monitoring rules of the jurisdiction and be verified by an accredited body; this tool supports, and does not replace, that practice.';
 
-export const GROUPS: Array<{ group: IndicatorGroup; title: string; caption: string }> = [
+const GROUPS: Array<{ group: IndicatorGroup; title: string; caption: string }> = [
   { group: 'core', title: 'Core environmental impact indicators', caption: 'EN 15804+A2 core impact indicators.' },
   { group: 'additional', title: 'Additional environmental impact indicators', caption: 'EN 15804+A2 additional impact indicators.' },
   { group: 'resource', title: 'Use of resources', caption: 'Resource use; SM is the product’s own secondary material input.' },
   { group: 'waste', title: 'Waste categories', caption: 'Waste disposed of.' },
   { group: 'output', title: 'Output flows', caption: 'CRU, MFR and MER are the product’s own mass flows, not factors.' },
 ];
+
+/** Results tables in EN 15804+A2 groups: a row per indicator the results hold, its cells made by the caller. */
+export function groupedTables<C>(indicators: ReadonlyArray<{ code: string; name: string; unit: string }>, cells: (code: string) => C[]): Array<{ title: string; caption: string; rows: Array<{ code: string; name: string; unit: string; cells: C[] }> }> {
+  return GROUPS.flatMap(({ group, title, caption }) => {
+    const codes = indicators.filter((i) => findIndicator(i.code)?.group === group);
+    return codes.length === 0 ? [] : [{ title, caption, rows: codes.map(({ code, name, unit }) => ({ code, name, unit, cells: cells(code) })) }];
+  });
+}
 
 /** One sentence per method: what it rewards. */
 export const METHOD_SENTENCES: Record<string, { name: string; rewards: string; scope: string }> = {
@@ -103,21 +111,7 @@ export function declarationResultsView(ctx: CalcContext, rows: ProductRows, resu
   const modules = moduleCodes.map((code) => ({ code, moduleD: code === 'D' }));
   const figureOf = (module: string, code: string): string => (findIndicator(code)?.basis === 'flows' ? result.flows.moduleFlows[module]![code]! : `${result.cutoff.modules[module as 'A1']}/${code}`);
 
-  const tables: ResultsTableView[] = [];
-  for (const { group, title, caption } of GROUPS) {
-    const codes = json.indicators.filter((i) => findIndicator(i.code)?.group === group);
-    if (codes.length === 0) continue;
-    tables.push({
-      title,
-      caption,
-      rows: codes.map((indicator) => ({
-        code: indicator.code,
-        name: indicator.name,
-        unit: indicator.unit,
-        cells: moduleCodes.map((module) => cell(cutoff.modules[module]?.[indicator.code], figureOf(module, indicator.code), module === 'D')),
-      })),
-    });
-  }
+  const tables: ResultsTableView[] = groupedTables(json.indicators, (code) => moduleCodes.map((module) => cell(cutoff.modules[module]?.[code], figureOf(module, code), module === 'D')));
 
   const boundary = LIFE_CYCLE_MODULES.map((m) => ({ ...m, declared: moduleCodes.includes(m.code) }));
 
@@ -169,7 +163,7 @@ export function declarationResultsView(ctx: CalcContext, rows: ProductRows, resu
   };
 
   const charts = hasHeadline ? chartsOf(ctx, rows, result, json, headlineCode, sci) : [];
-  const dataQuality = json.data_quality ? dataQualityView(json.data_quality, (id) => `../factors/index.html#f-${encodeURIComponent(id).replace(/%/g, '_')}`) : undefined;
+  const dataQuality = json.data_quality ? dataQualityView(json.data_quality, factorHref) : undefined;
   const sensitivity = json.sensitivity ? sensitivityView(json.sensitivity, digits) : undefined;
   const uncertainty = json.uncertainty ? uncertaintyView(json.uncertainty, sci) : undefined;
   return { significantFigures: digits, boundary, modules, tables, recycledContent, biogenic, comparison, charts, processes: processModels(ctx, result, sci), headline, ...(dataQuality ? { dataQuality } : {}), ...(sensitivity ? { sensitivity } : {}), ...(uncertainty ? { uncertainty } : {}) };

@@ -1,6 +1,6 @@
 import type { Project } from '../model/types.ts';
 import { findIndicator } from '../reference/indicators.ts';
-import { GROUPS, METHOD_SENTENCES } from './declaration-view.ts';
+import { groupedTables, METHOD_SENTENCES } from './declaration-view.ts';
 import { familyWarnings, type FamilyResults, type FamilyStat } from './families.ts';
 import { AUDIT_PAGE, fragment } from './figure-links.ts';
 import { formatInput, formatScientific, formatShare } from './format.ts';
@@ -15,7 +15,6 @@ export interface FamilyCell {
 
 export interface FamilyAuditEntry {
   id: string;
-  anchor: string;
   label: string;
   unit: string;
   mean: string;
@@ -46,68 +45,50 @@ export const familyDir = (familyId: string): string => `families/${familyId}`;
 
 /**
  * The family declaration page and its audit page, from the family's results and the members'
- * names. Every mean links to its derivation: Σ w·v / Σ w with each member's value linked to
- * the member's own audit trail.
+ * names. Every mean links to its derivation: Σ w·v / Σ w with each member's value (from
+ * results.json `member_values`) linked to the member's own audit trail.
  */
 export function familyView(project: Project, results: FamilyResults, names: ReadonlyMap<string, string>): FamilyView {
   const digits = project.declaration.report.significant_figures;
   const sci = (value: number | null): string => (value === null ? 'n/a' : formatScientific(value, digits));
+  const range = (stat: FamilyStat, format: (v: number) => string) => (stat.min === null ? '' : `${format(stat.min)} … ${format(stat.max!)}`);
   const audit: FamilyAuditEntry[] = [];
-  const entry = (figureId: string, label: string, code: string, stat: FamilyStat, perMember: (productId: string) => number | null, moduleD = false): FamilyCell => {
-    const unit = findIndicator(code)?.unit ?? '';
+  /** The cell of figure method/module/code, its audit entry added on the way. */
+  const entry = (method: string, module: string, code: string, stat: FamilyStat, moduleD = false): FamilyCell => {
+    const id = `${method}/${module}/${code}`;
     const flows = findIndicator(code)?.basis === 'flows';
     audit.push({
-      id: figureId,
-      anchor: figureId,
-      label,
-      unit,
+      id,
+      label: `${code}, ${module}, ${method === 'cutoff' ? 'cut-off' : method}`,
+      unit: findIndicator(code)?.unit ?? '',
       mean: sci(stat.mean),
       terms: results.members.map((m) => ({
         product: m.product_id,
         weight: formatInput(m.weight),
         share: formatShare(m.share),
-        value: sci(perMember(m.product_id)),
+        value: sci(results.member_values[m.product_id]?.[method]?.[module]?.[code] ?? null),
         // Flow indicators have their own figure ids in a member's graph: link to its results table.
-        href: flows ? `../../${m.product_id}/index.html#results` : `../../${m.product_id}/${AUDIT_PAGE}#${fragment(figureId)}`,
+        href: flows ? `../../${m.product_id}/index.html#results` : `../../${m.product_id}/${AUDIT_PAGE}#${fragment(id)}`,
       })),
     });
-    return { text: sci(stat.mean), range: stat.min === null ? '' : `${sci(stat.min)} … ${sci(stat.max)}`, href: `${AUDIT_PAGE}#${fragment(figureId)}`, ...(moduleD ? { moduleD } : {}) };
+    return { text: sci(stat.mean), range: range(stat, (v) => sci(v)), href: `${AUDIT_PAGE}#${fragment(id)}`, ...(moduleD ? { moduleD } : {}) };
   };
-  return buildView(project, results, names, sci, entry, audit);
-}
 
-type Entry = (figureId: string, label: string, code: string, stat: FamilyStat, perMember: (productId: string) => number | null, moduleD?: boolean) => FamilyCell;
-
-function buildView(project: Project, results: FamilyResults, names: ReadonlyMap<string, string>, sci: (v: number | null) => string, entry: Entry, audit: FamilyAuditEntry[]): FamilyView {
   const cutoff = results.methods.cutoff;
   const moduleCodes = Object.keys(cutoff.modules);
-  const memberValue = memberValueOf(results);
-  const tables = GROUPS.flatMap(({ group, title, caption }) => {
-    const codes = results.indicators.filter((i) => findIndicator(i.code)?.group === group);
-    if (codes.length === 0) return [];
-    return [{
-      title,
-      caption,
-      rows: codes.map((indicator) => ({
-        code: indicator.code,
-        name: indicator.name,
-        unit: indicator.unit,
-        cells: moduleCodes.map((module) => entry(`cutoff/${module}/${indicator.code}`, `${indicator.code}, ${module}, cut-off`, indicator.code, cutoff.modules[module]![indicator.code]!, (p) => memberValue(p, 'cutoff', module, indicator.code), module === 'D')),
-      })),
-    }];
-  });
+  const tables = groupedTables(results.indicators, (code) => moduleCodes.map((module) => entry('cutoff', module, code, cutoff.modules[module]![code]!, module === 'D')));
   // As on a product's page: the comparison shows indicators computed from factors.
   const compared = project.declaration.report.compare_indicators.filter((code) => findIndicator(code)?.basis === 'factors' && results.indicators.some((i) => i.code === code));
   const comparisonRows = [
-    { name: METHOD_SENTENCES.cutoff!.name, cells: compared.map((code) => entry(`cutoff/total/${code}`, `${code}, total, cut-off`, code, cutoff.total[code]!, (p) => memberValue(p, 'cutoff', 'total', code))) },
+    { name: METHOD_SENTENCES.cutoff!.name, cells: compared.map((code) => entry('cutoff', 'total', code, cutoff.total[code]!)) },
     ...(['cff', 'eol-recycling', 'fifty-fifty'] as const)
       .filter((method) => results.methods[method])
-      .map((method) => ({ name: METHOD_SENTENCES[method]!.name, cells: compared.map((code) => entry(`${method}/total/${code}`, `${code}, total, ${method}`, code, results.methods[method]!.total[code]!, (p) => memberValue(p, method, 'total', code))) })),
+      .map((method) => ({ name: METHOD_SENTENCES[method]!.name, cells: compared.map((code) => entry(method, 'total', code, results.methods[method]!.total[code]!)) })),
   ];
   const rc = results.flows.recycled_content;
-  const share = (s: FamilyStat) => ({ mean: s.mean === null ? 'n/a' : formatShare(s.mean), range: s.min === null ? '' : `${formatShare(s.min)} … ${formatShare(s.max!)}` });
+  const share = (s: FamilyStat) => ({ mean: s.mean === null ? 'n/a' : formatShare(s.mean), range: range(s, formatShare) });
   const headlineStat = cutoff.modules['A1-A3']?.['GWP-total'];
-  const headline = headlineStat ? { a1a3: { text: sci(headlineStat.mean), range: headlineStat.min === null ? '' : `${sci(headlineStat.min)} … ${sci(headlineStat.max)}`, href: `${familyDir(results.family_id)}/${AUDIT_PAGE}#${fragment('cutoff/A1-A3/GWP-total')}` }, a1a3Value: String(headlineStat.mean ?? '') } : { a1a3: undefined, a1a3Value: '' };
+  const headline = headlineStat ? { a1a3: { text: sci(headlineStat.mean), range: range(headlineStat, (v) => sci(v)), href: `${familyDir(results.family_id)}/${AUDIT_PAGE}#${fragment('cutoff/A1-A3/GWP-total')}` }, a1a3Value: String(headlineStat.mean ?? '') } : { a1a3: undefined, a1a3Value: '' };
   return {
     id: results.family_id,
     name: results.name,
@@ -142,10 +123,3 @@ function buildView(project: Project, results: FamilyResults, names: ReadonlyMap<
     resultsCsv: 'results.csv',
   };
 }
-
-/** A member's own value of a method/module/indicator, kept beside the family's results. */
-function memberValueOf(results: FamilyResults): (productId: string, method: string, module: string, code: string) => number | null {
-  const values = results.member_values;
-  return (productId, method, module, code) => values[productId]?.[method]?.[module]?.[code] ?? null;
-}
-

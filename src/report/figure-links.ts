@@ -8,6 +8,11 @@ export const AUDIT_PAGE = 'audit.html';
 /** A URL fragment for an id (ids hold `/`, `:` and `&`, and user-chosen line ids may hold anything). */
 export const fragment = (id: string): string => encodeURIComponent(id).replace(/%2F/g, '/').replace(/%3A/g, ':');
 
+/** The anchor of a factor row on the factor table page. */
+export const factorAnchor = (factorId: string) => `f-${encodeURIComponent(factorId).replace(/%/g, '_')}`;
+/** A factor row on the factor table, from a page one folder deep (a declaration, the verification pack). */
+export const factorHref = (factorId: string) => `../factors/index.html#${factorAnchor(factorId)}`;
+
 /** The link to a figure from a page beside the audit page (the declaration page). */
 export const figureHref = (figureId: string): string => `${AUDIT_PAGE}#${fragment(figureId)}`;
 

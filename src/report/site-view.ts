@@ -9,11 +9,11 @@ import { formatInput, formatShare } from './format.ts';
 import type { AuditView } from './audit-view.ts';
 import { PROCESS_CAUTION, type DeclarationResultsView } from './declaration-view.ts';
 import type { ResultsSummary } from './results.ts';
-import { AUDIT_PAGE, fragment, inputAnchor } from './figure-links.ts';
+import { AUDIT_PAGE, factorAnchor, factorHref, fragment, inputAnchor } from './figure-links.ts';
 import { physicalLines } from './written.ts';
 import { PROCESS_PREFIX } from '../schema/process-parameters.ts';
 import { allocationBase } from '../calc/allocation.ts';
-import { DQR_BANDS, dqrRating } from './data-quality.ts';
+import { dqrBandsText, dqrRating, pedigreeDqr } from './data-quality.ts';
 import { familyDir, type FamilyView } from './family-view.ts';
 
 /** What the site shows of one product's results, taken while its figure graph is alive. */
@@ -227,7 +227,6 @@ export function buildSiteView(project: Project, problems: readonly Problem[], op
 }
 
 /** A fragment id for a factor row (ids may hold characters that are awkward in URLs). */
-export const factorAnchor = (factorId: string) => `f-${encodeURIComponent(factorId).replace(/%/g, '_')}`;
 
 /** The verification pack's data-quality table: every factor row with its pedigree scores, DQR, rating and data type, and the products whose figures it feeds. */
 function factorQualityTable(project: Project, catalogue: readonly CatalogueEntry[]): TableView {
@@ -235,19 +234,18 @@ function factorQualityTable(project: Project, catalogue: readonly CatalogueEntry
   const score = (value: number | null | undefined): Cell => ({ text: value === null || value === undefined ? '—' : String(value), numeric: true });
   return {
     title: 'Data quality of the factors',
-    caption: `Every row of factors.csv with its pedigree scores (1 best to 5), DQR = (TeR + GeR + TiR + P) / 4 and rating (PEF method, Recommendation (EU) 2021/2279; ${DQR_BANDS.map((b, k) => (b.upTo === Number.POSITIVE_INFINITY ? `> ${DQR_BANDS[k - 1]!.upTo}` : `≤ ${b.upTo}`) + ` ${b.rating}`).join(', ')}), its data type, and the products whose figures it feeds, each linked to the row in that product’s audit trail (where the figures that read it are listed). A row without all four scores has no DQR: it is not guessed.`,
+    caption: `Every row of factors.csv with its pedigree scores (1 best to 5), DQR = (TeR + GeR + TiR + P) / 4 and rating (PEF method, Recommendation (EU) 2021/2279; ${dqrBandsText()}), its data type, and the products whose figures it feeds, each linked to the row in that product’s audit trail (where the figures that read it are listed). A row without all four scores has no DQR: it is not guessed.`,
     headers: [{ text: 'Factor' }, { text: 'TeR', numeric: true }, { text: 'GeR', numeric: true }, { text: 'TiR', numeric: true }, { text: 'P', numeric: true }, { text: 'DQR', numeric: true }, { text: 'Rating' }, { text: 'Data' }, { text: 'Feeds' }],
     rows: project.factors.rows.map((row) => {
       const { ter, ger, tir, p } = row.value;
-      const given = [ter, ger, tir, p].filter((s): s is number => s !== null && s !== undefined);
-      const dqr = given.length === 4 ? given.reduce((a, b) => a + b, 0) / 4 : null;
+      const { dqr, missing } = pedigreeDqr(row.value);
       return {
         source: sourceOf(project.factors, row),
         cells: [
-          { text: row.value.factor_id, href: `../factors/index.html#${factorAnchor(row.value.factor_id)}` },
+          { text: row.value.factor_id, href: factorHref(row.value.factor_id) },
           score(ter), score(ger), score(tir), score(p),
           { text: dqr === null ? '—' : dqr.toFixed(2), numeric: true },
-          txt(dqr === null ? (given.length === 0 ? 'not scored' : 'partly scored') : dqrRating(dqr)),
+          txt(dqr === null ? (missing.length === 4 ? 'not scored' : 'partly scored') : dqrRating(dqr)),
           txt(row.value.data_type ?? 'not stated'),
           readBy(row.line),
         ],
@@ -405,7 +403,7 @@ function productView(project: Project, rows: ProductRows, report: ProductReport 
       headers: [{ text: 'Factor' }, { text: 'Name' }, { text: 'Per' }, { text: 'Dataset' }],
       rows: factors.map((row) => ({
         source: sourceOf(project.factors, row),
-        cells: [{ text: row.value.factor_id, href: `../factors/index.html#${factorAnchor(row.value.factor_id)}` }, txt(row.value.name), txt(row.value.unit), txt(row.value.dataset)],
+        cells: [{ text: row.value.factor_id, href: factorHref(row.value.factor_id) }, txt(row.value.name), txt(row.value.unit), txt(row.value.dataset)],
       })),
       empty: 'No factors.',
     },

@@ -197,6 +197,15 @@ export function share(dialect: Dialect, description: string, options: ShareOptio
   );
 }
 
+/** A written word matched case-insensitively against the choices; a located issue with the nearest one otherwise. */
+function matchChoice<const T extends readonly [string, ...string[]]>(raw: string, choices: T, expected: string, ctx: Ctx): T[number] {
+  const value = raw.trim().toLowerCase();
+  const found = choices.find((c) => c.toLowerCase() === value);
+  if (found !== undefined) return found;
+  const near = nearestName(raw.trim(), choices);
+  return report(ctx, 'BAD_CHOICE', `is not ${expected}`, expected, near ? `did you mean "${near}"?` : undefined);
+}
+
 /** One of a fixed set of words, matched case-insensitively. */
 export function choice<const T extends readonly [string, ...string[]]>(description: string, choices: T, defaultValue?: T[number]) {
   const expected = `one of ${choices.join(', ')}`;
@@ -206,13 +215,7 @@ export function choice<const T extends readonly [string, ...string[]]>(descripti
         if (defaultValue !== undefined) return defaultValue;
         return report(ctx, 'VALUE_REQUIRED', 'is empty', expected);
       }
-      const value = raw.trim().toLowerCase();
-      const found = choices.find((c) => c.toLowerCase() === value);
-      if (found === undefined) {
-        const near = nearestName(raw.trim(), choices);
-        return report(ctx, 'BAD_CHOICE', `is not ${expected}`, expected, near ? `did you mean "${near}"?` : undefined);
-      }
-      return found;
+      return matchChoice(raw, choices, expected, ctx);
     }),
     { description, kind: 'choice', required: defaultValue === undefined, choices, ...(defaultValue === undefined ? {} : { default: defaultValue }) },
   );
@@ -224,13 +227,7 @@ export function optionalChoice<const T extends readonly [string, ...string[]]>(d
   return withMeta(
     cell().transform((raw, ctx): T[number] | undefined => {
       if (isBlank(raw)) return undefined;
-      const value = raw.trim().toLowerCase();
-      const found = choices.find((c) => c.toLowerCase() === value);
-      if (found === undefined) {
-        const near = nearestName(raw.trim(), choices);
-        return report(ctx, 'BAD_CHOICE', `is not ${expected}`, expected, near ? `did you mean "${near}"?` : undefined);
-      }
-      return found;
+      return matchChoice(raw, choices, expected, ctx);
     }),
     { description, kind: 'choice', required: false, choices },
   );

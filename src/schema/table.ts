@@ -160,3 +160,15 @@ export function parseTable<S extends CsvFileSchema>(csv: CsvFile, schema: S, opt
 
 /** factors.csv headers: indicator codes match whatever their case. */
 export const indicatorHeaderName = (header: string): string | undefined => findIndicator(header)?.code;
+
+/** A problem at a cell of a table's row: the file, line, column name and position, and the value as written. */
+export function cellProblem(table: { file: string; columns: Record<string, number> }, row: { line: number; raw: Record<string, string> }, column: string, severity: Problem['severity'], code: Problem['code'], message: string, extra: Partial<Problem> = {}): Problem {
+  const value = row.raw[column];
+  const columnIndex = table.columns[column];
+  return {
+    severity, code, file: table.file, line: row.line, column,
+    ...(columnIndex === undefined ? {} : { columnIndex }),
+    ...(value === undefined ? {} : { value }),
+    message, ...extra,
+  };
+}

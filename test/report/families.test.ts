@@ -30,6 +30,7 @@ const family = (weights: Record<string, number>): Family => ({
   members: Object.entries(weights).map(([productId, weight]) => ({ productId, weight, row: { line: 2, lineEnd: 2, value: {} as never, raw: {} }, weightCells: [] })),
 });
 
+// mean = Σ w·v / Σ w, the weighted arithmetic mean (common practice); deviations (v − mean)/|mean|.
 describe('family results: weighted mean, range, grouping tolerance (hand-worked)', () => {
   const summaries = new Map([
     ['A', summary('A', 2, -1, 0.5)],
