@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { readFile } from 'node:fs/promises';
 import path from 'node:path';
 import { columnReference, jsonSchemas, withGeneratedReference } from '../src/schema/reference-doc.ts';
+import { resultsJsonSchema } from '../src/report/results-schema.ts';
 import { ROOT } from './helpers.ts';
 
 // The docs are generated from the zod schemas; these tests fail when a schema changed and
@@ -13,7 +14,7 @@ describe('generated documentation is current', () => {
   });
 
   it('docs/schema/*', async () => {
-    for (const [name, schema] of Object.entries(jsonSchemas())) {
+    for (const [name, schema] of Object.entries({ ...jsonSchemas(), 'results.schema.json': resultsJsonSchema() })) {
       expect(JSON.parse(await readFile(path.join(ROOT, 'docs/schema', name), 'utf8')), name).toEqual(schema);
     }
     expect(await readFile(path.join(ROOT, 'docs/schema/columns.md'), 'utf8')).toContain(columnReference());

@@ -4,6 +4,7 @@ import type { Row } from '../schema/table.ts';
 import { cellTerm, figureTerm, type FigureGraph, type Term } from '../trace/graph.ts';
 import { conversionTerm, type CalcContext, type ResolvedFactor } from './context.ts';
 import { driver, useFactor, vectorFigure } from './nodes.ts';
+import { allocationStep, cutoffStep } from '../trace/ids.ts';
 import { scaled } from './vector.ts';
 
 /**
@@ -26,7 +27,7 @@ export function siteFigures(ctx: CalcContext, graph: FigureGraph, module: string
       const conversion = conversionTerm(graph, s.unit, f.unit);
       const share = shareFigure(ctx, graph, a);
       const perUnit = (s.amount * a.share) / a.production.value.output;
-      const id = `cutoff/${module}/site:${a.row.line}`;
+      const id = cutoffStep.site(module, a.row.line);
       useFactor(graph, id, s.factor, perUnit * conversion.factor, [[driver(site.file, a.row.line, 'amount')]]);
       vectorFigure(graph, id, scaled(f.values, perUnit * conversion.factor), `amount·share/output${conversion.terms.length ? '·(unit→factor unit)' : ''}·F`, `${s.activity}: ${a.group.site}, ${a.group.period}, shared by ${a.key.name}.`, [
         cellTerm(ctx.cell(site, a.row, 'amount'), 'amount'),
@@ -40,15 +41,14 @@ export function siteFigures(ctx: CalcContext, graph: FigureGraph, module: string
     });
 }
 
-/** The figure ids of a site period's key. */
-export const allocationBase = (a: AllocatedRow): string => `allocation/${a.group.site}/${a.group.period}/${a.key.name}`;
+/** A step of a site period's key: the product's key, Σ keys or its share. */
+export const allocationStepOf = (a: AllocatedRow, part: 'key' | 'total' | 'share'): string => allocationStep(a.group.site, a.group.period, a.key.name, part);
 
 const KEY_UNITS: Record<string, string> = { mass: 'kg', declared_unit: 'declared units' };
 
 /** key_p, Σ keys and the share, added once per graph (several site rows share a key). */
 function shareFigure(ctx: CalcContext, graph: FigureGraph, a: AllocatedRow): string {
-  const base = allocationBase(a);
-  const shareId = `${base}/share`;
+  const shareId = allocationStepOf(a, 'share');
   if (graph.get(shareId)) return shareId;
   const unit = KEY_UNITS[a.key.name] ?? a.key.name;
   const production = ctx.project.production;
@@ -59,9 +59,9 @@ function shareFigure(ctx: CalcContext, graph: FigureGraph, a: AllocatedRow): str
   };
   const formula = a.key.name === 'mass' ? 'output·unit_mass_kg' : a.key.name === 'declared_unit' ? 'output' : a.key.name;
   const own = a.key.values.get(a.production.value.product_id)!;
-  const keyId = `${base}/key`;
+  const keyId = allocationStepOf(a, 'key');
   graph.add({ kind: 'scalar', id: keyId, value: own, unit, formula: `key = ${formula}`, description: `The allocation key of this product at ${a.group.site} in ${a.group.period}.`, terms: keyTerms(a.production, '') });
-  const totalId = `${base}/total`;
+  const totalId = allocationStepOf(a, 'total');
   const members = a.group.production.filter((p) => a.key.values.has(p.value.product_id));
   graph.add({
     kind: 'scalar', id: totalId, value: a.key.total, unit,

@@ -1,5 +1,6 @@
 import { cellTerm, figureTerm, type FigureGraph, type Term } from '../trace/graph.ts';
 import { conversionTerm, type CalcContext, type ResolvedFactor } from './context.ts';
+import { methodStep, referenceStep } from '../trace/ids.ts';
 import type { CutoffResult } from './cutoff.ts';
 import type { Inventory, LineFlows, MaterialEol } from './inventory.ts';
 import { sumFigure, vectorFigure } from './nodes.ts';
@@ -29,14 +30,14 @@ export interface CffResult {
 function allocationOf(ctx: CalcContext, graph: FigureGraph, method: CffMethod, line: LineFlows): { a: number; term: Term } {
   if (method !== 'cff') {
     const a = PRESET_A[method];
-    const id = `reference/method/${method}/A`;
+    const id = referenceStep.methodA(method);
     graph.add({ kind: 'scalar', id, value: a, unit: 'share', formula: `A = ${a}`, description: `The ${method === 'eol-recycling' ? 'end-of-life recycling (0:100)' : '50:50'} method: the Circular Footprint Formula with A = ${a} for every material.`, terms: [] });
     return { a, term: figureTerm(id, 'A') };
   }
   const material = line.material.value;
   if (material.cff_a !== undefined) return { a: material.cff_a, term: cellTerm(ctx.cell(ctx.project.materials, line.material, 'cff_a'), 'A') };
   const a = defaultA(material.family);
-  const id = `reference/method/cff/default-A/${material.family === 'metal' ? 'metal' : 'other'}`;
+  const id = referenceStep.defaultA(material.family === 'metal' ? 'metal' : 'other');
   if (!graph.get(id)) graph.add({ kind: 'scalar', id, value: a, unit: 'share', formula: `A = ${a}`, description: material.family === 'metal' ? 'Default allocation factor for metals, Recommendation (EU) 2021/2279 Annex C.' : 'Default allocation factor where materials.csv gives none (from memory of the PEF default).', terms: [] });
   return { a, term: figureTerm(id, 'A') };
 }
@@ -62,8 +63,8 @@ export function cffSharedParts(ctx: CalcContext, graph: FigureGraph, inv: Invent
     energyIds.push(...energyPart(ctx, graph, line, m, factor));
     disposalIds.push(disposalPart(ctx, graph, line, m, factor));
   }
-  const energy = sumFigure(graph, 'cff/energy', energyIds, 'Σ lines (1−B)·R3·M·(EER − LHV·X_heat·E_heat − LHV·X_el·E_el), B = 0', 'Energy part: incineration with energy recovery, minus the energy it replaces; it does not depend on A, so the CFF, 0:100 and 50:50 share it.');
-  const disposal = sumFigure(graph, 'cff/disposal', disposalIds, 'Σ lines M·(1 − R2 − R3 − reuse)·ED', 'Disposal part: what is neither recycled, re-used nor recovered for energy; it does not depend on A, so the CFF, 0:100 and 50:50 share it.');
+  const energy = sumFigure(graph, methodStep.part('cff', 'energy'), energyIds, 'Σ lines (1−B)·R3·M·(EER − LHV·X_heat·E_heat − LHV·X_el·E_el), B = 0', 'Energy part: incineration with energy recovery, minus the energy it replaces; it does not depend on A, so the CFF, 0:100 and 50:50 share it.');
+  const disposal = sumFigure(graph, methodStep.part('cff', 'disposal'), disposalIds, 'Σ lines M·(1 − R2 − R3 − reuse)·ED', 'Disposal part: what is neither recycled, re-used nor recovered for energy; it does not depend on A, so the CFF, 0:100 and 50:50 share it.');
   return { energy: energy.id, disposal: disposal.id };
 }
 
@@ -122,22 +123,30 @@ export function circularFootprint(ctx: CalcContext, graph: FigureGraph, inv: Inv
         formula += ' + (M·R2 + scrap·yield)·(1−A)·(ErecEoL − E*v·Qsout/Qp)';
       }
     }
-    const id = `${method}/material/${line.key}`;
+    const id = methodStep.line(method, 'material', line.key);
     vectorFigure(graph, id, values, formula, `${method === 'cff' ? 'Circular Footprint Formula' : method} material part for ${line.line.component} (${material.material}).`, terms);
     materialIds.push(id);
   }
 
-  const materialPart = sumFigure(graph, `${method}/material`, materialIds, 'Σ lines material part', 'Material part: production of the inputs with the recycled-content credit shared by A, and the end-of-life recycling credit shared by 1 − A.');
+  const materialPart = sumFigure(graph, methodStep.part(method, 'material'), materialIds, 'Σ lines material part', 'Material part: production of the inputs with the recycled-content credit shared by A, and the end-of-life recycling credit shared by 1 − A.');
+  // The energy and disposal parts do not depend on A: computed once (cff/…), and named under each
+  // method too, so that every `<method>/<part>` a result reports is a step of the graph.
+  const energy = method === 'cff' ? shared.energy : sharedPart(graph, method, 'energy', shared.energy);
+  const disposal = method === 'cff' ? shared.disposal : sharedPart(graph, method, 'disposal', shared.disposal);
   const others = [cut.parts.a2, cut.parts.a3Activities, cut.parts.a3ScrapDisposal, ...(cut.parts.a4 ? [cut.parts.a4] : []), ...(cut.parts.a5 ? [cut.parts.a5] : []), cut.parts.c1, cut.parts.c2, cut.parts.c3Processing];
   const total = sumFigure(
     graph,
-    `${method}/total`,
-    [materialPart.id, shared.energy, shared.disposal, ...others],
+    methodStep.total(method),
+    [materialPart.id, energy, disposal, ...others],
     'total = material + energy + disposal + A2 + A3 activities + A3 scrap disposal + C1 + C2 + C3 processing',
     'Method total over the life cycle; the disposal part replaces C4 and the energy part replaces incineration with energy recovery in C3.',
     (child) => child.replace(/^cutoff\//, ''),
   );
-  return { parts: { material: materialPart.id, energy: shared.energy, disposal: shared.disposal }, total: total.id };
+  return { parts: { material: materialPart.id, energy, disposal }, total: total.id };
+}
+
+function sharedPart(graph: FigureGraph, method: CffMethod, part: 'energy' | 'disposal', sharedId: string): string {
+  return sumFigure(graph, methodStep.part(method, part), [sharedId], `${part} = cff ${part}`, `The ${part} part of the Circular Footprint Formula, which does not depend on A: the same for every method.`, () => 'cff').id;
 }
 
 function energyPart(ctx: CalcContext, graph: FigureGraph, line: LineFlows, m: MaterialEol, factor: (id: string) => ResolvedFactor): string[] {
@@ -169,7 +178,7 @@ function energyPart(ctx: CalcContext, graph: FigureGraph, line: LineFlows, m: Ma
       heat.term('E_heat'),
     );
   }
-  const id = `cff/energy/${line.key}`;
+  const id = methodStep.line('cff', 'energy', line.key);
   vectorFigure(graph, id, values, 'M·R3·(EER − LHV·X_heat·E_heat − LHV·X_el·E_el)', `Energy recovery from ${line.line.component}.`, terms);
   return [id];
 }
@@ -202,7 +211,7 @@ function disposalPart(ctx: CalcContext, graph: FigureGraph, line: LineFlows, m: 
     addScaled(values, inc.values, line.line.mass_kg * e.incineration);
     terms.push(eolCell('incineration', 'incineration'), inc.term('E_inc'));
   }
-  const id = `cff/disposal/${line.key}`;
+  const id = methodStep.line('cff', 'disposal', line.key);
   vectorFigure(graph, id, values, 'M·[(1 − R2 − R3 − reuse − incineration)·ED + incineration·E_inc]', `Disposal of ${line.line.component} at end of life.`, terms);
   return id;
 }

@@ -9,6 +9,7 @@ import { cellTerm, factorTerm, figureTerm, type CellRef, type FigureGraph, type 
 import { flowFactor } from '../process/run.ts';
 import { processReference } from '../process/references.ts';
 import { PROCESS_PREFIX } from '../schema/process-parameters.ts';
+import { processStep, referenceStep } from '../trace/ids.ts';
 import type { Vec } from './vector.ts';
 
 /** A factor resolved to an indicator vector, per one unit of `unit`. */
@@ -109,7 +110,7 @@ export class CalcContext {
     const gwp = gas[this.gwpSet];
     const part = gas.id === 'CH4-nonfossil' ? 'GWP-biogenic' : 'GWP-fossil';
     const values: Vec = this.indicators.map((code) => (code === 'GWP-total' || code === part ? gwp : 0));
-    const referenceId = `reference/gwp/${this.gwpSet}/${gas.id}`;
+    const referenceId = referenceStep.gwp(this.gwpSet, gas.id);
     return {
       id,
       unit: 'kg',
@@ -137,7 +138,6 @@ export class CalcContext {
     const definition = this.project.processes.find((process) => process.id === processId);
     if (!definition) throw new Error(`process ${processId} not in the validated project`);
     const { result } = definition;
-    const base = `process/${processId}`;
     const flows = result.inventory.map((flow) => {
       const factorId = flowFactor(definition, flow.flow).factor!;
       const factor = this.factor(factorId);
@@ -146,7 +146,7 @@ export class CalcContext {
       return { flow, factor, perKg };
     });
     const values: Vec = this.indicators.map((_, i) => flows.reduce((sum, f) => sum + f.perKg * f.factor.values[i]!, 0));
-    const factorNodeId = `${base}/factor`;
+    const factorNodeId = processStep.factor(processId);
     const project = this.project;
     const ensure = (graph: FigureGraph) => {
       if (graph.get(factorNodeId)) return;
@@ -160,7 +160,7 @@ export class CalcContext {
           }
           if (input.startsWith('ref:')) {
             const name = input.slice('ref:'.length);
-            const refId = `reference/process/${processId}/${name}`;
+            const refId = referenceStep.process(processId, name);
             if (!graph.get(refId)) {
               const ref = processReference(name, definition.values);
               if (!ref) throw new Error(`process ${processId}: no reference value ${name}`);
@@ -168,14 +168,14 @@ export class CalcContext {
             }
             return figureTerm(refId, name);
           }
-          return figureTerm(`${base}/${input}`, input);
+          return figureTerm(processStep.step(processId, input), input);
         });
-        graph.add({ kind: 'scalar', id: `${base}/${step.id}`, value: step.value, unit: step.unit, formula: step.formula, description: step.description, terms });
+        graph.add({ kind: 'scalar', id: processStep.step(processId, step.id), value: step.value, unit: step.unit, formula: step.formula, description: step.description, terms });
       }
       const terms: Term[] = [];
       for (const { flow, factor } of flows) {
         factor.ensure(graph);
-        terms.push(figureTerm(`${base}/${flow.step}`, flow.flow), factor.term(`F(${flow.flow})`));
+        terms.push(figureTerm(processStep.step(processId, flow.step), flow.flow), factor.term(`F(${flow.flow})`));
       }
       graph.add({
         kind: 'vector',
@@ -241,7 +241,7 @@ export class CalcContext {
 export function conversionTerm(graph: FigureGraph, from: string, to: string): { factor: number; terms: Term[] } {
   const factor = conversionFactor(from, to);
   if (factor === 1) return { factor, terms: [] };
-  const id = `reference/unit/${from}->${to}`;
+  const id = referenceStep.unit(from, to);
   if (!graph.get(id)) {
     graph.add({ kind: 'scalar', id, value: factor, unit: `${to} per ${from}`, formula: `1 ${from} = ${factor} ${to}`, description: 'Unit conversion (SI Brochure, 9th ed.).', terms: [] });
   }

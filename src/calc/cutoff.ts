@@ -3,6 +3,7 @@ import type { AllocatedRow } from '../model/sites.ts';
 import { siteFigures } from './allocation.ts';
 import type { Row } from '../schema/table.ts';
 import { cellTerm, figureTerm, type FigureGraph, type Term } from '../trace/graph.ts';
+import { cutoffModuleOf, cutoffStep, inventoryStep, type MaterialFlow } from '../trace/ids.ts';
 import { conversionTerm, type CalcContext, type ResolvedFactor } from './context.ts';
 import type { Inventory, LineFlows, MaterialEol } from './inventory.ts';
 import { driver, sumFigure, useFactor, vectorFigure } from './nodes.ts';
@@ -54,18 +55,18 @@ export function cutoff(ctx: CalcContext, graph: FigureGraph, inv: Inventory, row
   const activities = (module: string) => [...activityFigures(ctx, graph, module, rows.activities, factor), ...siteFigures(ctx, graph, module, rows.site, factor)];
 
   // A1: raw material supply of the product's lines.
-  const a1Lines = inv.productLines.map((line) => productionFigure(graph, `cutoff/A1/${line.key}`, line, factor));
+  const a1Lines = inv.productLines.map((line) => productionFigure(graph, cutoffStep.line('A1', line.key), line, factor));
   const a1Activities = activities('A1');
-  const a1 = sumFigure(graph, 'cutoff/A1', [...a1Lines, ...a1Activities], 'A1 = Σ lines G·[(1−R1)·Ev + R1·Erec] + Σ A1 activities', 'Raw material supply: each product line’s gross input, virgin share at the virgin factor, recycled share at the recycled-production factor.');
+  const a1 = sumFigure(graph, cutoffStep.module('A1'), [...a1Lines, ...a1Activities], 'A1 = Σ lines G·[(1−R1)·Ev + R1·Erec] + Σ A1 activities', 'Raw material supply: each product line’s gross input, virgin share at the virgin factor, recycled share at the recycled-production factor.');
 
   // A2: transport of inputs.
   const a2Legs = transportFigures(ctx, graph, 'A2', inv, rows.transport, factor);
   const a2Activities = activities('A2');
-  const a2 = sumFigure(graph, 'cutoff/A2', [...a2Legs, ...a2Activities], 'A2 = Σ legs (G/1000)·d·F_tkm', 'Transport of inputs to the factory: carried mass in tonnes × distance × factor per tonne-kilometre.');
+  const a2 = sumFigure(graph, cutoffStep.module('A2'), [...a2Legs, ...a2Activities], 'A2 = Σ legs (G/1000)·d·F_tkm', 'Transport of inputs to the factory: carried mass in tonnes × distance × factor per tonne-kilometre.');
 
   // A3: manufacturing.
   const a3ActivityIds = activities('A3');
-  const a3Activities = sumFigure(graph, 'cutoff/A3/activities', a3ActivityIds, 'Σ A3 activities: amount·unit conversion·F', 'Energy, ancillaries and direct emissions of manufacturing.');
+  const a3Activities = sumFigure(graph, cutoffStep.part('A3', 'activities'), a3ActivityIds, 'Σ A3 activities: amount·unit conversion·F', 'Energy, ancillaries and direct emissions of manufacturing.');
   const scrapIds: string[] = [];
   for (const line of inv.lines) {
     const fate = line.line.scrap_fate;
@@ -73,25 +74,25 @@ export function cutoff(ctx: CalcContext, graph: FigureGraph, inv: Inventory, row
     const material = line.material.value;
     const factorId = fate === 'landfill' ? material.landfill! : material.incineration!;
     const f = factor(factorId);
-    const id = `cutoff/A3/scrap:${line.line.line_id}`;
+    const id = cutoffStep.scrapDisposal(line.line.line_id);
     useFactor(graph, id, factorId, line.scrapKg, [[bomMass(line)]]);
     vectorFigure(graph, id, scaled(f.values, line.scrapKg), `scrap·${fate === 'landfill' ? 'ED' : 'E_inc'}`, `Treatment of the process scrap of ${line.line.component} (${fate}).`, [figureTerm(line.ids.scrap, 'scrap'), f.term(fate === 'landfill' ? 'ED' : 'E_inc')]);
     scrapIds.push(id);
   }
-  const a3Scrap = sumFigure(graph, 'cutoff/A3/scrap-disposal', scrapIds, 'Σ scrap to landfill·ED + scrap to incineration·E_inc', 'Process scrap that is disposed of; scrap sent to recycling leaves free of burden (reported as MFR).');
-  const packaging = inv.packagingLines.map((line) => productionFigure(graph, `cutoff/A3/${line.key}`, line, factor));
-  const a3 = sumFigure(graph, 'cutoff/A3', [a3Activities.id, a3Scrap.id, ...packaging], 'A3 = activities + scrap disposal + packaging production', 'Manufacturing: energy and ancillaries, disposal of process scrap, production of the packaging.');
+  const a3Scrap = sumFigure(graph, cutoffStep.part('A3', 'scrap-disposal'), scrapIds, 'Σ scrap to landfill·ED + scrap to incineration·E_inc', 'Process scrap that is disposed of; scrap sent to recycling leaves free of burden (reported as MFR).');
+  const packaging = inv.packagingLines.map((line) => productionFigure(graph, cutoffStep.line('A3', line.key), line, factor));
+  const a3 = sumFigure(graph, cutoffStep.module('A3'), [a3Activities.id, a3Scrap.id, ...packaging], 'A3 = activities + scrap disposal + packaging production', 'Manufacturing: energy and ancillaries, disposal of process scrap, production of the packaging.');
 
-  const a13 = sumFigure(graph, 'cutoff/A1-A3', [a1.id, a2.id, a3.id], 'A1-A3 = A1 + A2 + A3', 'Cradle to gate.');
+  const a13 = sumFigure(graph, cutoffStep.module('A1-A3'), [a1.id, a2.id, a3.id], 'A1-A3 = A1 + A2 + A3', 'Cradle to gate.');
 
   // A4, A5: only where the product has rows for them.
   const a4Ids = [...transportFigures(ctx, graph, 'A4', inv, rows.transport, factor), ...activities('A4')];
   const a5Ids = activities('A5');
-  const a4 = a4Ids.length > 0 ? sumFigure(graph, 'cutoff/A4', a4Ids, 'A4 = Σ legs and activities', 'Transport to the site.').id : undefined;
-  const a5 = a5Ids.length > 0 ? sumFigure(graph, 'cutoff/A5', a5Ids, 'A5 = Σ activities', 'Installation.').id : undefined;
+  const a4 = a4Ids.length > 0 ? sumFigure(graph, cutoffStep.module('A4'), a4Ids, 'A4 = Σ legs and activities', 'Transport to the site.').id : undefined;
+  const a5 = a5Ids.length > 0 ? sumFigure(graph, cutoffStep.module('A5'), a5Ids, 'A5 = Σ activities', 'Installation.').id : undefined;
 
   // C1–C4 and D, per material of the product.
-  const c1 = sumFigure(graph, 'cutoff/C1', activities('C1'), 'C1 = Σ C1 activities', 'De-construction and demolition.');
+  const c1 = sumFigure(graph, cutoffStep.module('C1'), activities('C1'), 'C1 = Σ C1 activities', 'De-construction and demolition.');
   const c2Ids: string[] = [];
   const c3ProcessingIds: string[] = [];
   const c3EnergyIds: string[] = [];
@@ -106,21 +107,21 @@ export function cutoff(ctx: CalcContext, graph: FigureGraph, inv: Inventory, row
     if (e.transport_km > 0 && e.transport_factor) {
       const f = factor(e.transport_factor);
       const tonnes = conversionTerm(graph, 'kg', 't');
-      const id = `cutoff/C2/material:${m.materialId}`;
+      const id = cutoffStep.material('C2', m.materialId);
       useFactor(graph, id, e.transport_factor, m.massKg * tonnes.factor * e.transport_km, eolMass);
       vectorFigure(graph, id, scaled(f.values, m.massKg * tonnes.factor * e.transport_km), 'M_eol/1000·km·F_tkm', `Transport of end-of-life ${m.materialId} to waste processing.`, [M, ...tonnes.terms, eolCell('transport_km'), f.term('F_tkm')]);
       c2Ids.push(id);
     }
     if (e.recycling > 0 && e.processing_factor) {
       const f = factor(e.processing_factor);
-      const id = `cutoff/C3/material:${m.materialId}`;
+      const id = cutoffStep.material('C3', m.materialId);
       useFactor(graph, id, e.processing_factor, m.massKg * e.recycling, eolMass);
       vectorFigure(graph, id, scaled(f.values, m.massKg * e.recycling), 'M_eol·recycling·F_proc', `Waste processing of the ${m.materialId} sent to recycling, up to the end-of-waste state.`, [M, eolCell('recycling'), f.term('F_proc')]);
       c3ProcessingIds.push(id);
     }
     if (e.energy_recovery > 0 && m.material.value.incineration) {
       const f = factor(m.material.value.incineration);
-      const id = `cutoff/C3/energy-recovery:${m.materialId}`;
+      const id = cutoffStep.energyRecovery(m.materialId);
       useFactor(graph, id, m.material.value.incineration, m.massKg * e.energy_recovery, eolMass);
       vectorFigure(graph, id, scaled(f.values, m.massKg * e.energy_recovery), 'M_eol·energy_recovery·E_inc', `Incineration of ${m.materialId} with energy recovery (benefits in D).`, [M, eolCell('energy_recovery'), f.term('E_inc')]);
       c3EnergyIds.push(id);
@@ -138,7 +139,7 @@ export function cutoff(ctx: CalcContext, graph: FigureGraph, inv: Inventory, row
       disposal.push(eolCell('incineration'), f.term('E_inc'));
     }
     if (disposal.length > 0) {
-      const id = `cutoff/C4/material:${m.materialId}`;
+      const id = cutoffStep.material('C4', m.materialId);
       if (e.landfill > 0) useFactor(graph, id, m.material.value.landfill!, m.massKg * e.landfill, eolMass);
       if (e.incineration > 0) useFactor(graph, id, m.material.value.incineration!, m.massKg * e.incineration, eolMass);
       vectorFigure(graph, id, c4, 'M_eol·(landfill·ED + incineration·E_inc)', `Disposal of end-of-life ${m.materialId}.`, [M, ...disposal]);
@@ -146,15 +147,15 @@ export function cutoff(ctx: CalcContext, graph: FigureGraph, inv: Inventory, row
     }
     dIds.push(...moduleD(ctx, graph, m, factor));
   }
-  const c2 = sumFigure(graph, 'cutoff/C2', [...c2Ids, ...transportFigures(ctx, graph, 'C2', inv, rows.transport, factor), ...activities('C2')], 'C2 = Σ materials M_eol·km/1000·F_tkm + C2 legs', 'Transport to waste processing.');
-  const c3Processing = sumFigure(graph, 'cutoff/C3/processing', [...c3ProcessingIds, ...activities('C3')], 'Σ M_eol·recycling·F_proc + C3 activities', 'Processing of material sent to recycling, and other C3 activities.');
-  const c3Energy = sumFigure(graph, 'cutoff/C3/energy-recovery', c3EnergyIds, 'Σ M_eol·energy_recovery·E_inc', 'Incineration with energy recovery.');
-  const c3 = sumFigure(graph, 'cutoff/C3', [c3Processing.id, c3Energy.id], 'C3 = processing + energy recovery', 'Waste processing up to the end-of-waste state.');
-  const c4 = sumFigure(graph, 'cutoff/C4', [...c4Ids, ...activities('C4')], 'C4 = Σ M_eol·(landfill·ED + incineration·E_inc) + C4 activities', 'Disposal.');
-  const d = sumFigure(graph, 'cutoff/D', dIds, 'D = Σ materials (M_MR,out − M_MR,in)·(E_MR − E_VMSub·Q) + energy recovery', 'Benefits and loads beyond the system boundary (EN 15804+A2 Annex D); declared separately and not added to A–C.');
+  const c2 = sumFigure(graph, cutoffStep.module('C2'), [...c2Ids, ...transportFigures(ctx, graph, 'C2', inv, rows.transport, factor), ...activities('C2')], 'C2 = Σ materials M_eol·km/1000·F_tkm + C2 legs', 'Transport to waste processing.');
+  const c3Processing = sumFigure(graph, cutoffStep.part('C3', 'processing'), [...c3ProcessingIds, ...activities('C3')], 'Σ M_eol·recycling·F_proc + C3 activities', 'Processing of material sent to recycling, and other C3 activities.');
+  const c3Energy = sumFigure(graph, cutoffStep.part('C3', 'energy-recovery'), c3EnergyIds, 'Σ M_eol·energy_recovery·E_inc', 'Incineration with energy recovery.');
+  const c3 = sumFigure(graph, cutoffStep.module('C3'), [c3Processing.id, c3Energy.id], 'C3 = processing + energy recovery', 'Waste processing up to the end-of-waste state.');
+  const c4 = sumFigure(graph, cutoffStep.module('C4'), [...c4Ids, ...activities('C4')], 'C4 = Σ M_eol·(landfill·ED + incineration·E_inc) + C4 activities', 'Disposal.');
+  const d = sumFigure(graph, cutoffStep.module('D'), dIds, 'D = Σ materials (M_MR,out − M_MR,in)·(E_MR − E_VMSub·Q) + energy recovery', 'Benefits and loads beyond the system boundary (EN 15804+A2 Annex D); declared separately and not added to A–C.');
 
   const totalIds = [a1.id, a2.id, a3.id, ...(a4 ? [a4] : []), ...(a5 ? [a5] : []), c1.id, c2.id, c3.id, c4.id];
-  const total = sumFigure(graph, 'cutoff/total', totalIds, `total = ${totalIds.map((id) => id.slice('cutoff/'.length)).join(' + ')}`, 'Sum of the declared modules A1 to C4; module D is not added (EN 15804+A2).');
+  const total = sumFigure(graph, cutoffStep.module('total'), totalIds, `total = ${totalIds.map(cutoffModuleOf).join(' + ')}`, 'Sum of the declared modules A1 to C4; module D is not added (EN 15804+A2).');
   return {
     modules: { A1: a1.id, A2: a2.id, A3: a3.id, 'A1-A3': a13.id, ...(a4 ? { A4: a4 } : {}), ...(a5 ? { A5: a5 } : {}), C1: c1.id, C2: c2.id, C3: c3.id, C4: c4.id, D: d.id },
     total: total.id,
@@ -188,7 +189,7 @@ function activityFigures(ctx: CalcContext, graph: FigureGraph, module: string, a
       const a = row.value;
       const f = factor(a.factor);
       const conversion = conversionTerm(graph, a.unit, f.unit);
-      const id = `cutoff/${module}/activity:${row.line}`;
+      const id = cutoffStep.activity(module, row.line);
       useFactor(graph, id, a.factor, a.amount * conversion.factor, [[driver(table.file, row.line, 'amount')]]);
       vectorFigure(graph, id, scaled(f.values, a.amount * conversion.factor), conversion.terms.length ? 'amount·(unit→factor unit)·F' : 'amount·F', a.activity, [
         cellTerm(ctx.cell(table, row, 'amount'), 'amount'),
@@ -222,7 +223,7 @@ function transportFigures(ctx: CalcContext, graph: FigureGraph, module: string, 
       const f = factor(leg.factor);
       const tonnes = conversionTerm(graph, 'kg', 't');
       const km = conversionTerm(graph, 'tkm', f.unit);
-      const id = `cutoff/${module}/transport:${row.line}`;
+      const id = cutoffStep.transport(module, row.line);
       // The carried mass: one line's, or shared among the lines it adds up from.
       const carried = line
         ? [bomMass(line)]
@@ -250,40 +251,40 @@ function moduleD(ctx: CalcContext, graph: FigureGraph, m: MaterialEol, factor: (
   const e = m.eol.value;
   const material = m.material.value;
   const eolCell = (column: string) => cellTerm(ctx.cell(ctx.project.eol, m.eol, column), column);
-  const base = `inventory/material:${m.materialId}`;
+  const mr = (flow: MaterialFlow) => inventoryStep.material(m.materialId, flow);
   const scrapLines = m.lines.filter((l) => l.line.scrap_fate === 'recycled' && l.scrapKg > 0);
   const scrapKg = scrapLines.reduce((t, l) => t + l.scrapKg, 0);
   const outKg = (m.massKg * e.recycling + scrapKg) * e.recycling_yield;
   graph.add({
-    kind: 'scalar', id: `${base}/M_MR_out`, value: outKg, unit: 'kg',
+    kind: 'scalar', id: mr('M_MR_out'), value: outKg, unit: 'kg',
     formula: 'M_MR,out = (M_eol·recycling + scrap to recycling)·yield',
     description: `${m.materialId} that leaves the system and reaches the point of substitution: end-of-life material sent to recycling and process scrap sent to recycling, times the recycling yield.`,
     terms: [figureTerm(m.ids.mass, 'M_eol'), eolCell('recycling'), ...scrapLines.map((l) => figureTerm(l.ids.scrap, `scrap(${l.line.line_id})`)), eolCell('recycling_yield')],
   });
   const inKg = m.lines.reduce((t, l) => t + l.grossKg * l.r1, 0);
   graph.add({
-    kind: 'scalar', id: `${base}/M_MR_in`, value: inKg, unit: 'kg',
+    kind: 'scalar', id: mr('M_MR_in'), value: inKg, unit: 'kg',
     formula: 'M_MR,in = Σ G·R1', description: `Secondary ${m.materialId} entering the system.`,
     terms: m.lines.flatMap((l) => [figureTerm(l.ids.gross, `G(${l.line.line_id})`), figureTerm(l.ids.r1, `R1(${l.line.line_id})`)]),
   });
   const netKg = outKg - inKg;
   graph.add({
-    kind: 'scalar', id: `${base}/M_MR_net`, value: netKg, unit: 'kg', formula: 'M_MR,out − M_MR,in',
+    kind: 'scalar', id: mr('M_MR_net'), value: netKg, unit: 'kg', formula: 'M_MR,out − M_MR,in',
     description: netKg >= 0 ? 'Net secondary material leaving the system: earns a credit.' : 'Net secondary material entering the system: a load (EN 15804+A2 Annex D).',
-    terms: [figureTerm(`${base}/M_MR_out`, 'M_MR,out'), figureTerm(`${base}/M_MR_in`, 'M_MR,in')],
+    terms: [figureTerm(mr('M_MR_out'), 'M_MR,out'), figureTerm(mr('M_MR_in'), 'M_MR,in')],
   });
   const ids: string[] = [];
   if (netKg !== 0) {
     const recycling = factor(material.eol_recycling!);
     const substituted = factor(material.substituted ?? material.virgin);
-    const id = `cutoff/D/material:${m.materialId}`;
+    const id = cutoffStep.material('D', m.materialId);
     // Each line's own net flow: (m·recycling + scrap to recycling)·yield − G·R1, proportional to its mass.
     const lineNet = m.lines.map((l) => (l.line.mass_kg * e.recycling + (l.line.scrap_fate === 'recycled' ? l.scrapKg : 0)) * e.recycling_yield - l.grossKg * l.r1);
     const lines = [m.lines.map((l, k) => bomMass(l, lineNet[k]! / netKg))];
     useFactor(graph, id, material.eol_recycling!, netKg, lines);
     useFactor(graph, id, material.substituted ?? material.virgin, -netKg * material.q_out, lines);
     vectorFigure(graph, id, scaled(ctx.netRecyclingPerKg(m.material), netKg), '(M_MR,out − M_MR,in)·(E_MR − E_VMSub·Q_out)', `Net recycling of ${m.materialId}: recycling after end of waste minus the virgin material it replaces.`, [
-      figureTerm(`${base}/M_MR_net`, 'M_net'),
+      figureTerm(mr('M_MR_net'), 'M_net'),
       recycling.term('E_MR'),
       substituted.term('E_VMSub'),
       cellTerm(ctx.cell(ctx.project.materials, m.material, 'q_out'), 'Q_out'),
@@ -300,7 +301,7 @@ function moduleD(ctx: CalcContext, graph: FigureGraph, m: MaterialEol, factor: (
     const toHeat = conversionTerm(graph, 'MJ', heat.unit);
     const values = scaled(elec.values, -mj * energy.electricity_efficiency * toElec.factor);
     addScaled(values, heat.values, -mj * energy.heat_efficiency * toHeat.factor);
-    const id = `cutoff/D/energy:${m.materialId}`;
+    const id = cutoffStep.exportedEnergy(m.materialId);
     const burnt = [m.lines.map((l) => bomMass(l, l.line.mass_kg / m.massKg))];
     useFactor(graph, id, energy.electricity_factor, -mj * energy.electricity_efficiency * toElec.factor, burnt);
     useFactor(graph, id, energy.heat_factor, -mj * energy.heat_efficiency * toHeat.factor, burnt);

@@ -1,4 +1,5 @@
 import { cellTerm, figureTerm, type FigureGraph, type Term } from '../trace/graph.ts';
+import { cutoffStep, flowStep, inventoryStep, referenceStep } from '../trace/ids.ts';
 import type { CalcContext } from './context.ts';
 import type { Inventory } from './inventory.ts';
 
@@ -36,7 +37,7 @@ export function flows(ctx: CalcContext, graph: FigureGraph, inv: Inventory, modu
 
   const defined: Partial<Record<string, Partial<Record<FlowCode, { value: number; terms: Term[]; formula: string; description: string }>>>> = {
     // The product's secondary input is module D's M_MR,in, summed over its materials.
-    A1: { SM: { ...sum(inv.materials.map((m) => ({ value: graph.scalar(`inventory/material:${m.materialId}/M_MR_in`).value, terms: [figureTerm(`inventory/material:${m.materialId}/M_MR_in`, `M_MR,in(${m.materialId})`)] }))), formula: 'SM = Σ materials M_MR,in', description: 'Secondary material in the product’s inputs.' } },
+    A1: { SM: { ...sum(inv.materials.map((m) => ({ value: graph.scalar(inventoryStep.material(m.materialId, 'M_MR_in')).value, terms: [figureTerm(inventoryStep.material(m.materialId, 'M_MR_in'), `M_MR,in(${m.materialId})`)] }))), formula: 'SM = Σ materials M_MR,in', description: 'Secondary material in the product’s inputs.' } },
     A3: {
       SM: { ...secondary(inv.packagingLines), formula: 'SM = Σ packaging lines G·R1', description: 'Secondary material in the packaging.' },
       MFR: { ...scrapToRecycling, formula: 'MFR = Σ process scrap sent to recycling', description: 'Process scrap leaving manufacturing for recycling.' },
@@ -52,7 +53,7 @@ export function flows(ctx: CalcContext, graph: FigureGraph, inv: Inventory, modu
   for (const module of modules) {
     moduleFlows[module] = {};
     for (const code of ctx.flowIndicators as FlowCode[]) {
-      const id = `cutoff/${module}/${code}`;
+      const id = cutoffStep.flow(module, code);
       const parts = composite[module];
       if (parts) {
         const ids = parts.map((p) => moduleFlows[p]![code]!);
@@ -69,7 +70,7 @@ export function flows(ctx: CalcContext, graph: FigureGraph, inv: Inventory, modu
   const totalFlows: Record<string, string> = {};
   for (const code of ctx.flowIndicators) {
     const ids = totalModules.map((module) => moduleFlows[module]![code]!);
-    totalFlows[code] = scalar(`cutoff/total/${code}`, ids.reduce((t, child) => t + graph.scalar(child).value, 0), 'kg', `${code} = ${totalModules.join(' + ')}`, `${code} over the declared modules A1 to C4.`, ids.map((child, i) => figureTerm(child, totalModules[i]!)));
+    totalFlows[code] = scalar(cutoffStep.flow('total', code), ids.reduce((t, child) => t + graph.scalar(child).value, 0), 'kg', `${code} = ${totalModules.join(' + ')}`, `${code} over the declared modules A1 to C4.`, ids.map((child, i) => figureTerm(child, totalModules[i]!)));
   }
 
   // Recycled content of the product, ISO 14021 terms, as shares of the product-role gross input.
@@ -81,9 +82,9 @@ export function flows(ctx: CalcContext, graph: FigureGraph, inv: Inventory, modu
     return scalar(id, value, 'share', `Σ G·${column ?? 'R1'} / Σ G`, `${label} recycled content of the product (ISO 14021), share of its gross input.`, [...terms, grossTerm]);
   };
   const recycledContent = {
-    pre: share('flows/recycled_content/pre', 'recycled_pre', 'Pre-consumer'),
-    post: share('flows/recycled_content/post', 'recycled_post', 'Post-consumer'),
-    total: share('flows/recycled_content/total', null, 'Total'),
+    pre: share(flowStep.recycledContent('pre'), 'recycled_pre', 'Pre-consumer'),
+    post: share(flowStep.recycledContent('post'), 'recycled_post', 'Post-consumer'),
+    total: share(flowStep.recycledContent('total'), null, 'Total'),
   };
 
   // Biogenic carbon content, kg C per declared unit, and its CO2 equivalent.
@@ -99,15 +100,15 @@ export function flows(ctx: CalcContext, graph: FigureGraph, inv: Inventory, modu
     }
     return scalar(id, value, 'kg C', 'Σ m·c', `Biogenic carbon content of the ${what}.`, terms);
   };
-  const ratioId = 'reference/molar/CO2-per-C';
+  const ratioId = referenceStep.co2PerC;
   graph.add({ kind: 'scalar', id: ratioId, value: CO2_PER_C, unit: 'kg CO2 per kg C', formula: '44/12', description: 'Molar mass of CO2 over that of C (EN 16449).', terms: [] });
-  const product = carbon('flows/biogenic_carbon_kg/product', inv.productLines, 'product');
-  const packaging = carbon('flows/biogenic_carbon_kg/packaging', inv.packagingLines, 'packaging');
+  const product = carbon(flowStep.biogenicCarbon('product'), inv.productLines, 'product');
+  const packaging = carbon(flowStep.biogenicCarbon('packaging'), inv.packagingLines, 'packaging');
   const co2 = (id: string, of: string, what: string) => scalar(id, graph.scalar(of).value * CO2_PER_C, 'kg CO2', 'C·44/12', `Biogenic carbon of the ${what} as CO2.`, [figureTerm(of, 'C'), figureTerm(ratioId, '44/12')]);
   return {
     moduleFlows,
     totalFlows,
     recycledContent,
-    biogenicCarbon: { product, packaging, productCo2: co2('flows/biogenic_co2_kg/product', product, 'product'), packagingCo2: co2('flows/biogenic_co2_kg/packaging', packaging, 'packaging') },
+    biogenicCarbon: { product, packaging, productCo2: co2(flowStep.biogenicCo2('product'), product, 'product'), packagingCo2: co2(flowStep.biogenicCo2('packaging'), packaging, 'packaging') },
   };
 }

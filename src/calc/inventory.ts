@@ -1,6 +1,7 @@
 import type { BomLine, EolRow, Material, Product } from '../model/types.ts';
 import type { Row } from '../schema/table.ts';
 import { cellTerm, figureTerm, type FigureGraph, type Term } from '../trace/graph.ts';
+import { inventoryStep, lineKey } from '../trace/ids.ts';
 import type { CalcContext } from './context.ts';
 
 /** One BOM line's mass flows, with the ids of the figures that hold them. */
@@ -47,11 +48,10 @@ export function inventory(ctx: CalcContext, graph: FigureGraph, product: Row<Pro
   const bom = ctx.project.bom;
   const lines = bomRows.map((row): LineFlows => {
     const b = row.value;
-    const key = `${b.role === 'packaging' ? 'packaging' : 'line'}:${b.line_id}`;
-    const base = `inventory/${key}`;
+    const key = lineKey(b.role, b.line_id);
     const grossKg = b.mass_kg / (1 - b.scrap_rate);
     const r1 = b.recycled_pre + b.recycled_post;
-    const ids = { gross: `${base}/G`, r1: `${base}/R1`, scrap: `${base}/scrap` };
+    const ids = { gross: inventoryStep.line(key, 'G'), r1: inventoryStep.line(key, 'R1'), scrap: inventoryStep.line(key, 'scrap') };
     scalar(graph, ids.gross, grossKg, 'kg', 'G = m / (1 − s)', `Gross input of ${b.component}: net mass over the share that does not leave as process scrap.`, [
       cellTerm(ctx.cell(bom, row, 'mass_kg'), 'm'),
       cellTerm(ctx.cell(bom, row, 'scrap_rate'), 's'),
@@ -77,13 +77,13 @@ export function inventory(ctx: CalcContext, graph: FigureGraph, product: Row<Pro
     byMaterial.set(line.line.material, list);
   }
   const materials = [...byMaterial.entries()].map(([materialId, materialLines]): MaterialEol => {
-    const id = `inventory/material:${materialId}/M_eol`;
+    const id = inventoryStep.material(materialId, 'M_eol');
     const massKg = materialLines.reduce((total, l) => total + l.line.mass_kg, 0);
     scalar(graph, id, massKg, 'kg', 'M_eol = Σ m', `End-of-life mass of ${materialId}: the net mass of its product lines.`, materialLines.map((l) => cellTerm(ctx.cell(bom, l.row, 'mass_kg'), `m(${l.line.line_id})`)));
     return { materialId, material: ctx.material(materialId), eol: ctx.eolRow(product.value.eol_scenario, materialId), lines: materialLines, massKg, ids: { mass: id } };
   });
 
-  const ids = { gross: 'inventory/product/G', mass: 'inventory/product/M' };
+  const ids = { gross: inventoryStep.product('G'), mass: inventoryStep.product('M') };
   const grossKg = productLines.reduce((total, l) => total + l.grossKg, 0);
   scalar(graph, ids.gross, grossKg, 'kg', 'G_product = Σ G', 'Gross input of the product’s own lines (role product).', productLines.map((l) => figureTerm(l.ids.gross, `G(${l.line.line_id})`)));
   scalar(graph, ids.mass, materials.reduce((t, m) => t + m.massKg, 0), 'kg', 'M = Σ M_eol', 'Net mass of the product (role product) at end of life.', materials.map((m) => figureTerm(m.ids.mass, `M_eol(${m.materialId})`)));

@@ -1,4 +1,5 @@
 import { figureTerm, type Driver, type FigureGraph, type Term, type VectorNode } from '../trace/graph.ts';
+import { cutoffModuleOf, lastSegment } from '../trace/ids.ts';
 import { zeros, add, type Vec } from './vector.ts';
 
 /** Adds a vector figure. */
@@ -7,7 +8,7 @@ export function vectorFigure(graph: FigureGraph, id: string, values: Vec, formul
 }
 
 /** A figure that is the sum of other vector figures: its terms are exactly its children. */
-export function sumFigure(graph: FigureGraph, id: string, childIds: readonly string[], formula: string, description: string, symbol = (child: string) => child.slice(child.lastIndexOf('/') + 1)): VectorNode {
+export function sumFigure(graph: FigureGraph, id: string, childIds: readonly string[], formula: string, description: string, symbol = lastSegment): VectorNode {
   const values = zeros(graph.indicators.length);
   for (const child of childIds) add(values, graph.vector(child).values);
   return vectorFigure(graph, id, values, formula, description, childIds.map((child) => figureTerm(child, symbol(child))));
@@ -19,7 +20,7 @@ export function sumFigure(graph: FigureGraph, id: string, childIds: readonly str
  */
 export function useFactor(graph: FigureGraph, figure: string, factor: string, amount: number, drivers: Driver[][]): void {
   const first = drivers[0]?.[0];
-  graph.uses.push({ module: figure.split('/')[1]!, figure, factor, amount, ...(first ? { input: { file: first.file, line: first.line } } : {}), drivers });
+  graph.uses.push({ module: cutoffModuleOf(figure), figure, factor, amount, ...(first ? { input: { file: first.file, line: first.line } } : {}), drivers });
 }
 
 /** One driver cell with the whole of the amount. */

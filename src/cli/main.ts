@@ -78,9 +78,10 @@ manifest: the same files a single build writes.
     usage: `loopsheet explain PRODUCT FIGURE_ID [--data DIR] [--depth N]
 
 Prints the derivation of one figure of a product as a tree: each step's formula and
-value, down to the CSV cells (file, line, column, value as written). Figure ids are the
-keys of results.json "figures", e.g. cutoff/A1/GWP-total, cutoff/D/GWP-total,
-cff/total/GWP-total, flows/recycled_content/total.
+value, down to the CSV cells (file, line, column, value as written). A figure id is a
+step of results.json "graph", followed by an indicator where the step has one value per
+indicator: cutoff/A1/GWP-total, cutoff/A1/line:L1/AP, cutoff/D/GWP-total,
+cff/total/GWP-total, inventory/line:L1/G, flows/recycled_content/total.
 
   --data DIR   the data folder (default ./data)
   --depth N    stop after N levels (default: all the way down)`,
@@ -131,6 +132,9 @@ listed. Markdown is short enough to paste as a review comment; JSON lists every 
   --fail-over SHARE  exit 1 when a headline figure (GWP-total of A1-A3, D and each method's
                      total; recycled content) moved by more than this share
 
+Both sides must be results format 2 (loopsheet 0.2 and later); a build of an earlier
+format is named as one to build again (exit 2).
+
 Shares are written 1%, 0.5 % or 0.01. Exit 0, 1 over --fail-over, 2 usage errors.`,
     options: { threshold: { type: 'string' }, format: { type: 'string' }, 'fail-over': { type: 'string' } },
     positionals: { min: 2, max: 2 },
@@ -168,7 +172,8 @@ declaration.json and a README explaining each column with its unit.
     usage: `loopsheet schema [--out DIR]
 
 Writes declaration.schema.json, a JSON Schema per CSV row and columns.md (the column
-reference of every CSV), all generated from the zod schemas the checks use.
+reference of every CSV), all generated from the zod schemas the checks use, and
+results.schema.json, the JSON Schema of each product's results.json (format 2).
 
   --out DIR    where to write (default ./schema)`,
     options: { out: { type: 'string' } },

@@ -1,12 +1,14 @@
 import { mkdir, writeFile } from 'node:fs/promises';
 import path from 'node:path';
+import { resultsJsonSchema } from '../report/results-schema.ts';
 import { columnReference, jsonSchemas } from '../schema/reference-doc.ts';
 import { EXIT, type Io } from './io.ts';
 
 export async function runSchema(options: { out: string }, io: Io): Promise<number> {
   await mkdir(options.out, { recursive: true });
   const written: string[] = [];
-  for (const [name, schema] of Object.entries(jsonSchemas())) {
+  // The inputs' schemas, and the results contract's.
+  for (const [name, schema] of Object.entries({ ...jsonSchemas(), 'results.schema.json': resultsJsonSchema() })) {
     await writeFile(path.join(options.out, name), `${JSON.stringify(schema, null, 2)}\n`);
     written.push(name);
   }

@@ -1,4 +1,4 @@
-import type { FigureJson, TermJson } from '../report/results.ts';
+import type { CellJson, GraphReader } from '../trace/graph-json.ts';
 
 /**
  * Which input cells changed underneath a figure, found through the figure graphs of the two
@@ -24,8 +24,6 @@ export interface CellChange {
 /** The key of the row at a physical line of an input file. */
 export type RowKeyOf = (file: string, line: number) => string;
 
-type Figures = Record<string, FigureJson>;
-type CellTerm = Exclude<TermJson, string>;
 
 const cellId = (file: string, row: string, column: string) => `${file}\u0000${row}\u0000${column}`;
 
@@ -37,18 +35,18 @@ export class ChangedCells {
   private readonly underNew = new Map<string, readonly number[]>();
 
   constructor(
-    private readonly oldFigures: Figures,
-    private readonly newFigures: Figures,
+    private readonly oldGraph: GraphReader,
+    private readonly newGraph: GraphReader,
     private readonly oldRow: RowKeyOf,
     private readonly newRow: RowKeyOf,
   ) {
     const before = new Map<string, { file: string; row: string; column: string; side: CellSide }>();
-    forEachCell(oldFigures, (cell) => {
+    forEachCell(oldGraph, (cell) => {
       const row = oldRow(cell.file, cell.line);
       before.set(cellId(cell.file, row, cell.column), { file: cell.file, row, column: cell.column, side: { line: cell.line, value: cell.value } });
     });
     const after = new Set<string>();
-    forEachCell(newFigures, (cell) => {
+    forEachCell(newGraph, (cell) => {
       const row = newRow(cell.file, cell.line);
       const id = cellId(cell.file, row, cell.column);
       if (after.has(id)) return;
@@ -68,24 +66,25 @@ export class ChangedCells {
   /** Indices into `cells` of the changed cells under a figure, in either build. */
   under(figure: string): number[] {
     if (this.cells.length === 0) return [];
-    const found = new Set([...this.walk(figure, this.newFigures, this.newRow, this.underNew), ...this.walk(figure, this.oldFigures, this.oldRow, this.underOld)]);
+    const found = new Set([...this.walk(figure, this.newGraph, this.newRow, this.underNew), ...this.walk(figure, this.oldGraph, this.oldRow, this.underOld)]);
     return [...found].sort((a, b) => a - b);
   }
 
   /** Depth-first, each figure once (the graph shares nodes), remembering what lies under each. */
-  private walk(figure: string, figures: Figures, rowOf: RowKeyOf, memo: Map<string, readonly number[]>): readonly number[] {
+  private walk(figure: string, graph: GraphReader, rowOf: RowKeyOf, memo: Map<string, readonly number[]>): readonly number[] {
     const known = memo.get(figure);
     if (known) return known;
     memo.set(figure, []);
-    const node = figures[figure];
+    const node = graph.figure(figure);
     if (!node) return [];
     const found = new Set<number>();
     for (const term of node.terms) {
-      if (typeof term === 'string') {
-        for (const k of this.walk(term, figures, rowOf, memo)) found.add(k);
+      if ('figure' in term) {
+        for (const k of this.walk(term.figure, graph, rowOf, memo)) found.add(k);
         continue;
       }
-      const k = this.index.get(cellId(term.file, rowOf(term.file, term.line), term.column));
+      const { cell } = term;
+      const k = this.index.get(cellId(cell.file, rowOf(cell.file, cell.line), cell.column));
       if (k !== undefined) found.add(k);
     }
     const list = [...found];
@@ -94,6 +93,13 @@ export class ChangedCells {
   }
 }
 
-function forEachCell(figures: Figures, visit: (cell: CellTerm) => void): void {
-  for (const figure of Object.values(figures)) for (const term of figure.terms) if (typeof term !== 'string') visit(term);
+/** Every cell a graph reads: its input cells, and each factor row's cell of every indicator (what a vector figure reads of it), where the reader has the inputs. */
+function forEachCell(graph: GraphReader, visit: (cell: CellJson) => void): void {
+  for (const cell of graph.graph.cells) visit(cell);
+  for (const row of graph.graph.rows) {
+    for (const { code } of graph.indicators) {
+      const value = graph.written(row.file, row.line, code);
+      if (value !== undefined) visit({ file: row.file, line: row.line, column: code, value });
+    }
+  }
 }

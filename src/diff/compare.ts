@@ -1,4 +1,5 @@
-import type { ResultsSummary } from '../report/results.ts';
+import { resultFigureId, type ResultsSummary } from '../report/results.ts';
+import { flowResultStep, flowStep, type ResultMethod } from '../trace/ids.ts';
 
 /**
  * Which published figures moved between two builds: every product × method × module (or
@@ -34,13 +35,13 @@ export interface FigureChange extends Omit<SummaryFigure, 'value'> {
  * catalogue shows them.
  */
 export const HEADLINE_FIGURES: readonly string[] = [
-  'cutoff/A1-A3/GWP-total',
-  'cutoff/D/GWP-total',
-  'cutoff/total/GWP-total',
-  'cff/total/GWP-total',
-  'eol-recycling/total/GWP-total',
-  'fifty-fifty/total/GWP-total',
-  'flows/recycled_content/total',
+  resultFigureId('cutoff', 'A1-A3', 'GWP-total'),
+  resultFigureId('cutoff', 'D', 'GWP-total'),
+  resultFigureId('cutoff', 'total', 'GWP-total'),
+  resultFigureId('cff', 'total', 'GWP-total'),
+  resultFigureId('eol-recycling', 'total', 'GWP-total'),
+  resultFigureId('fifty-fifty', 'total', 'GWP-total'),
+  flowStep.recycledContent('total'),
 ];
 
 const FLOW_UNITS: Record<string, string> = { recycled_content: 'share of gross input', biogenic_carbon_kg: 'kg C', biogenic_co2_kg: 'kg CO2' };
@@ -49,17 +50,17 @@ const FLOW_UNITS: Record<string, string> = { recycled_content: 'share of gross i
 export function summaryFigures(summary: ResultsSummary): SummaryFigure[] {
   const units = new Map(summary.indicators.map((indicator) => [indicator.code, indicator.unit]));
   const figures: SummaryFigure[] = [];
-  const add = (method: string, module: string, values: Record<string, number | null>) => {
-    for (const [indicator, value] of Object.entries(values)) figures.push({ figure: `${method}/${module}/${indicator}`, method, module, indicator, unit: units.get(indicator) ?? '', value });
+  const add = (method: ResultMethod, module: string, values: Record<string, number | null>) => {
+    for (const [indicator, value] of Object.entries(values)) figures.push({ figure: resultFigureId(method, module, indicator), method, module, indicator, unit: units.get(indicator) ?? '', value });
   };
-  for (const [method, results] of Object.entries(summary.methods)) {
+  for (const [method, results] of Object.entries(summary.methods) as Array<[ResultMethod, ResultsSummary['methods']['cutoff'] | ResultsSummary['methods']['cff']]>) {
     if (!results) continue;
     const modules = 'modules' in results ? results.modules : results.parts;
     for (const [module, values] of Object.entries(modules)) add(method, module, values);
     add(method, 'total', results.total);
   }
   for (const [group, values] of Object.entries(summary.flows)) {
-    for (const [key, value] of Object.entries(values as Record<string, number | null>)) figures.push({ figure: `flows/${group}/${key}`, method: 'flows', module: group, indicator: key, unit: FLOW_UNITS[group] ?? '', value });
+    for (const [key, value] of Object.entries(values as Record<string, number | null>)) figures.push({ figure: flowResultStep(group as 'recycled_content', key), method: 'flows', module: group, indicator: key, unit: FLOW_UNITS[group] ?? '', value });
   }
   return figures;
 }

@@ -44,8 +44,8 @@ export async function changeReport(old: ResultsSet, now: ResultsSet, options: { 
     }
     if (moved.length === 0) continue;
     changed.push(id);
-    const [oldFigures, newFigures] = await Promise.all([old.figures(id), now.figures(id)]);
-    const cells = oldFigures && newFigures ? new ChangedCells(oldFigures, newFigures, old.rowKey, now.rowKey) : undefined;
+    const [oldGraph, newGraph] = await Promise.all([old.graph(id), now.graph(id)]);
+    const cells = oldGraph && newGraph ? new ChangedCells(oldGraph, newGraph, old.rowKey, now.rowKey) : undefined;
     for (const change of moved) {
       const under = cells?.under(change.figure).map((k) => {
         const cell = cells.cells[k]!;

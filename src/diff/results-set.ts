@@ -2,7 +2,8 @@ import { readdir, readFile, stat } from 'node:fs/promises';
 import path from 'node:path';
 import { UsageError } from '../cli/io.ts';
 import { readCsvText } from '../load/csv.ts';
-import type { FigureJson, ResultsJson, ResultsSummary } from '../report/results.ts';
+import { RESULTS_FORMAT, type ResultsJson, type ResultsSummary } from '../report/results.ts';
+import { GraphReader, type GraphJson, type WrittenCell } from '../trace/graph-json.ts';
 import { CSV_FILES } from '../schema/index.ts';
 import { MANIFEST_FILE, VERIFICATION_DIR } from '../render/verification.ts';
 import type { RowKeyOf } from './attribute.ts';
@@ -17,9 +18,11 @@ export interface ResultsSet {
   label: string;
   products: Map<string, ResultsSummary>;
   /** A product's figure graph, when this set has it. */
-  figures(productId: string): Promise<Record<string, FigureJson> | undefined>;
+  graph(productId: string): Promise<GraphReader | undefined>;
   /** The key of the row at a line of an input file (from the build's copy of its inputs). */
   rowKey: RowKeyOf;
+  /** A cell as written in the build's copy of its inputs (factor rows' cells, which the graph names by row). */
+  written: WrittenCell;
   /** From the verification manifest, when there is one: tool version and the SHA-256 of each input. */
   manifest?: { toolVersion: string; inputs: Map<string, string> };
 }
@@ -34,20 +37,31 @@ async function readJson(file: string): Promise<unknown> {
   }
 }
 
-const summaryOf = ({ figures: _figures, ...summary }: ResultsJson): ResultsSummary => summary;
+const summaryOf = ({ graph: _graph, ...summary }: ResultsJson): ResultsSummary => summary;
+
+/** Format 1 listed every step once per indicator; its figure ids and terms are not those of format 2, so compare only builds of this format. */
+function requireFormat(json: { format?: unknown }, file: string): void {
+  if (json.format === RESULTS_FORMAT) return;
+  const found = json.format === undefined ? 'results format 1 (an earlier loopsheet)' : `results format ${JSON.stringify(json.format)}`;
+  throw new UsageError(`${file}: ${found}; expected results format ${RESULTS_FORMAT}: build that side again with this loopsheet, then compare`);
+}
 
 export async function readResultsSet(label: string): Promise<ResultsSet> {
   const info = await stat(label).catch(() => undefined);
   if (!info) throw new UsageError(`${label}: no such file or folder; expected a build folder or a results.json`);
   const root = info.isDirectory() ? label : path.dirname(label);
   const products = new Map<string, ResultsSummary>();
-  const inline = new Map<string, Record<string, FigureJson>>();
+  const inline = new Map<string, GraphJson & { indicators: ResultsJson['indicators'] }>();
+  const inputs = await inputCopies(path.join(root, VERIFICATION_DIR, 'inputs'));
   const take = (json: unknown, file: string) => {
     const value = json as Partial<ResultsJson> & { products?: ResultsSummary[] };
-    if (Array.isArray(value.products)) for (const product of value.products) products.set(product.product_id, product);
-    else if (typeof value.product_id === 'string' && value.methods) {
+    if (Array.isArray(value.products)) {
+      requireFormat(value, file);
+      for (const product of value.products) products.set(product.product_id, product);
+    } else if (typeof value.product_id === 'string' && value.methods) {
+      requireFormat(value, file);
       products.set(value.product_id, summaryOf(value as ResultsJson));
-      if (value.figures) inline.set(value.product_id, value.figures);
+      if (value.graph) inline.set(value.product_id, { ...value.graph, indicators: value.indicators ?? [] });
     } else throw new UsageError(`${file}: neither a catalogue results.json ("products") nor a product's ("product_id"); expected a results.json written by loopsheet build`);
   };
 
@@ -62,11 +76,14 @@ export async function readResultsSet(label: string): Promise<ResultsSet> {
     if (products.size === 0) throw new UsageError(`${label}: no results.json in it or in its sub-folders; expected a build folder`);
   }
 
-  const figures = async (productId: string) => {
-    if (inline.has(productId)) return inline.get(productId);
+  const graph = async (productId: string) => {
+    const given = inline.get(productId);
+    if (given) return new GraphReader(given, given.indicators, inputs.written);
     const file = path.join(root, productId, 'results.json');
     if (!(await isFile(file))) return undefined;
-    return ((await readJson(file)) as ResultsJson).figures;
+    const json = (await readJson(file)) as ResultsJson;
+    requireFormat(json, file);
+    return new GraphReader(json.graph, json.indicators, inputs.written);
   };
   const manifestFile = path.join(root, VERIFICATION_DIR, MANIFEST_FILE);
   let manifest: ResultsSet['manifest'];
@@ -74,16 +91,18 @@ export async function readResultsSet(label: string): Promise<ResultsSet> {
     const json = (await readJson(manifestFile)) as { tool: { version: string }; inputs: Array<{ file: string; sha256: string }> };
     manifest = { toolVersion: json.tool.version, inputs: new Map(json.inputs.map((input) => [input.file, input.sha256])) };
   }
-  return { label, products, figures, rowKey: await rowKeys(path.join(root, VERIFICATION_DIR, 'inputs')), manifest };
+  return { label, products, graph, rowKey: inputs.rowKey, written: inputs.written, manifest };
 }
 
 /**
- * Row keys from the input copies in a build's verification pack: each CSV row is named by
- * its file's key columns (as the duplicate check defines them), a repeated key by its
- * occurrence. Without the copies a row is named by its line.
+ * The input copies in a build's verification pack. Each CSV row is named by its file's key
+ * columns (as the duplicate check defines them), a repeated key by its occurrence; without
+ * the copies a row is named by its line. Cells as written, by line and column, for the factor
+ * rows the graph names by row (without the copies, none).
  */
-async function rowKeys(inputsDir: string): Promise<RowKeyOf> {
+async function inputCopies(inputsDir: string): Promise<{ rowKey: RowKeyOf; written: WrittenCell }> {
   const byFile = new Map<string, Map<number, string>>();
+  const cells = new Map<string, Map<number, Map<string, string>>>();
   for (const schema of CSV_FILES) {
     const file = path.join(inputsDir, schema.file);
     if (!(await isFile(file))) continue;
@@ -92,7 +111,10 @@ async function rowKeys(inputsDir: string): Promise<RowKeyOf> {
     readCsvText(schema.file, await readFile(file, 'utf8'), (source) => {
       const names = source.header.names.map((name) => name.toLowerCase());
       const positions = schema.key.map((column) => names.indexOf(column.toLowerCase()));
+      const fields = new Map<number, Map<string, string>>();
+      cells.set(schema.file, fields);
       return (record) => {
+        fields.set(record.line, new Map(names.map((name, i) => [name, record.fields[i] ?? ''])));
         if (positions.some((p) => p < 0)) return;
         const key = positions.map((p) => (record.fields[p] ?? '').trim()).join(' · ');
         const count = (seen.get(key) ?? 0) + 1;
@@ -102,9 +124,10 @@ async function rowKeys(inputsDir: string): Promise<RowKeyOf> {
     });
     byFile.set(schema.file, keys);
   }
-  return (file, line) => {
+  const rowKey: RowKeyOf = (file, line) => {
     // declaration.json cells are named by their JSON path (the column), not by a row.
     if (!file.endsWith('.csv')) return '';
     return byFile.get(file)?.get(line) ?? `line ${line}`;
   };
+  return { rowKey, written: (file, line, column) => cells.get(file)?.get(line)?.get(column.toLowerCase()) };
 }

@@ -7,6 +7,7 @@ import { physicalLines } from '../report/written.ts';
 import type { Table } from '../schema/table.ts';
 import type { FigureGraph } from '../trace/graph.ts';
 import { flowFactor } from '../process/run.ts';
+import { RESULTS_FORMAT } from '../report/results.ts';
 import { PROCESS_PREFIX } from '../schema/process-parameters.ts';
 
 /**
@@ -25,7 +26,7 @@ export interface InputKey {
 /** The project-wide part of every product's pages, hashed once per build. */
 export function pageContextKey(project: Project, problems: readonly Problem[], pdfs: boolean): string {
   const view = buildSiteView(project, problems, { products: [], pdfs });
-  const shown = { tool: view.tool, declaration: view.declaration, settings: project.declaration, cautions: view.cautions, processCaution: view.processCaution, pdfs: view.pdfs, methodology: view.methodology, indicators: view.indicators };
+  const shown = { tool: view.tool, resultsFormat: RESULTS_FORMAT, declaration: view.declaration, settings: project.declaration, cautions: view.cautions, processCaution: view.processCaution, pdfs: view.pdfs, methodology: view.methodology, indicators: view.indicators };
   return createHash('sha256').update(JSON.stringify(shown)).digest('hex');
 }
 

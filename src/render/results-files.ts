@@ -6,7 +6,7 @@ import type { ProductRows } from '../model/by-product.ts';
 import type { Project } from '../model/types.ts';
 import { RESULTS_CSV_HEADER, resultsCsv } from '../report/results-csv.ts';
 import { FS_CONCURRENCY, mapLimit } from './each-limit.ts';
-import { resultsJsonText, resultsSummary, type ResultsSummary } from '../report/results.ts';
+import { RESULTS_FORMAT, resultsJsonText, resultsSummary, type ResultsSummary } from '../report/results.ts';
 import { auditView } from '../report/audit-view.ts';
 import { declarationResultsView } from '../report/declaration-view.ts';
 import type { ProductReport } from '../report/site-view.ts';
@@ -38,7 +38,6 @@ export class ResultsWriter {
     const summary = resultsSummary(ctx, product);
     const dir = path.join(this.outDir, summary.product_id);
     await mkdir(dir, { recursive: true });
-    // Compact: a product's figure graph runs to thousands of figures (see docs/performance.md).
     await writeFile(path.join(dir, 'results.json'), `${resultsJsonText(ctx, product, summary)}\n`);
     await writeFile(path.join(dir, 'results.csv'), resultsCsv([summary]));
     const view = declarationResultsView(ctx, rows, product, summary);
@@ -58,7 +57,7 @@ export class ResultsWriter {
  * formatting 400 000 numbers again when most products were kept by `build --changed`).
  */
 export async function writeCatalogueResults(outDir: string, summaries: readonly ResultsSummary[]): Promise<void> {
-  await writeFile(path.join(outDir, 'results.json'), `${JSON.stringify({ products: summaries }, null, 1)}\n`);
+  await writeFile(path.join(outDir, 'results.json'), `${JSON.stringify({ format: RESULTS_FORMAT, products: summaries }, null, 1)}\n`);
   const header = Buffer.from(`${RESULTS_CSV_HEADER.join(',')}\n`);
   const bodies = await mapLimit(summaries, FS_CONCURRENCY, async (summary) => {
     const file = path.join(outDir, summary.product_id, 'results.csv');

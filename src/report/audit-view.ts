@@ -1,15 +1,20 @@
 import type { Project } from '../model/types.ts';
 import type { ProductResult } from '../calc/product.ts';
 import type { FigureGraph, FigureNode, Term } from '../trace/graph.ts';
+import { figureId, processStep, resultStep, stepGroup, type ResultMethod } from '../trace/ids.ts';
 import { fragment, inputAnchor } from './figure-links.ts';
 import { formatInput } from './format.ts';
 import { physicalLines } from './written.ts';
 
 /**
- * The audit trail of one product, as one page: every figure of its graph with formula,
- * terms and values, each term a link down (to another figure or to the input row as
- * written), every figure and input row with the figures that use it (the way up). Figures
- * are anchored by their results.json ids.
+ * The audit trail of one product, as one page, in the shape of the calculation: one section
+ * per step with its formula and terms (each a link down, to another step or to the input row
+ * as written, with its value where it has one) and the steps that use it (the way up). A
+ * vector step's values, one per indicator, are a row of its group's values table, whose
+ * columns are the indicators, so indicator codes are written once per group, not once per
+ * step: a 40-line product's page stays a few hundred kilobytes (docs/performance.md). A
+ * verifier recomputes a figure from the step's terms and, one click away, their rows of the
+ * values table. The values a declaration page links to (`step/indicator`) carry that anchor.
  */
 export interface AuditLink {
   text: string;
@@ -18,31 +23,35 @@ export interface AuditLink {
 
 export interface AuditTerm {
   symbol: string;
-  /** What the term is: a figure id or `file:line column`. */
+  /** What the term is: a step id or `file:line column`. */
   target: AuditLink;
-  /** Its value, where it does not vary by indicator (scalar figures, cells). */
+  /** Its value, where it does not vary by indicator (scalar steps, cells). */
   value?: string;
 }
 
-export interface AuditNode {
+export interface AuditStep {
   id: string;
-  /** Heading level group, e.g. `cutoff`, `inventory`. */
   description: string;
   formula: string;
-  /** Scalar figures: value and unit. */
+  /** A scalar step's value and unit. */
   value?: string;
   unit?: string;
+  /** A vector step: its values are a row of the group's values table. */
+  vector: boolean;
   terms: AuditTerm[];
-  /** Vector figures: one row per indicator, anchored `<node id>/<code>`. */
-  rows?: Array<{ anchor: string; code: string; value: string; cells: Array<{ text: string; href?: string }> }>;
-  /** Column heads of the per-indicator term values (symbols), when shown. */
-  termColumns?: string[];
   usedBy: AuditLink[];
+}
+
+export interface AuditValuesRow {
+  step: string;
+  /** One per indicator of the page, formatted; `anchor` where a page links to that value. */
+  cells: Array<{ text: string; anchor?: string }>;
 }
 
 export interface AuditGroup {
   title: string;
-  nodes: AuditNode[];
+  steps: AuditStep[];
+  values: AuditValuesRow[];
 }
 
 export interface AuditInputRow {
@@ -55,13 +64,13 @@ export interface AuditInputRow {
 
 export interface AuditView {
   productId: string;
+  /** The indicator codes of the values tables' columns. */
+  indicators: string[];
   groups: AuditGroup[];
   inputs: Array<{ file: string; rows: AuditInputRow[] }>;
+  stepCount: number;
   figureCount: number;
 }
-
-/** At most this many per-indicator term columns beside a vector figure; sums over many parts link to each part instead. */
-const MAX_TERM_COLUMNS = 6;
 
 const GROUP_TITLES: Record<string, string> = {
   inventory: 'Mass flows (inventory)',
@@ -72,10 +81,24 @@ const GROUP_TITLES: Record<string, string> = {
   reference: 'Reference values and presets',
   flows: 'Recycled content and biogenic carbon',
   process: 'Process models (process.csv)',
+  allocation: 'Site data shared among products (ISO 14044 §4.3.4)',
 };
 
 const show = (value: number): string => (Number.isNaN(value) ? 'n/a' : formatInput(value));
 const local = (id: string): string => `#${fragment(id)}`;
+/** The anchor of a vector step's row in its group's values table. */
+export const valuesAnchor = (step: string): string => `values:${step}`;
+
+/** The vector steps whose values other pages link to: the results' modules, parts and totals, and each process's factor. */
+function linkedSteps(result: ProductResult, project: Project): Set<string> {
+  const linked = new Set<string>([result.cutoff.total, ...Object.values(result.cutoff.modules)]);
+  for (const [method, r] of Object.entries(result.methods)) {
+    linked.add(resultStep(method as ResultMethod, 'total'));
+    for (const part of Object.keys(r!.parts)) linked.add(resultStep(method as ResultMethod, part));
+  }
+  for (const process of project.processes) linked.add(processStep.factor(process.id));
+  return linked;
+}
 
 export function auditView(project: Project, result: ProductResult): AuditView {
   const { graph } = result;
@@ -99,12 +122,18 @@ export function auditView(project: Project, result: ProductResult): AuditView {
     }
   }
 
-  const groups = new Map<string, AuditNode[]>();
+  const linked = linkedSteps(result, project);
+  const groups = new Map<string, AuditGroup>();
   let figureCount = 0;
   for (const node of graph.nodes.values()) {
-    const group = node.id.split('/')[0]!;
-    if (!groups.has(group)) groups.set(group, []);
-    groups.get(group)!.push(nodeView(graph, node, (usedBy.get(node.id) ?? []).map((id) => ({ text: id, href: local(id) }))));
+    const key = stepGroup(node.id);
+    let group = groups.get(key);
+    if (!group) groups.set(key, (group = { title: GROUP_TITLES[key] ?? key, steps: [], values: [] }));
+    group.steps.push(stepView(graph, node, (usedBy.get(node.id) ?? []).map((id) => ({ text: id, href: local(id) }))));
+    if (node.kind === 'vector') {
+      const anchored = linked.has(node.id);
+      group.values.push({ step: node.id, cells: graph.indicators.map((code, i) => ({ text: show(node.values[i]!), ...(anchored ? { anchor: figureId(node.id, code) } : {}) })) });
+    }
     figureCount += node.kind === 'vector' ? graph.indicators.length : 1;
   }
 
@@ -122,35 +151,18 @@ export function auditView(project: Project, result: ProductResult): AuditView {
 
   return {
     productId: result.productId,
-    groups: [...groups].map(([key, nodes]) => ({ title: GROUP_TITLES[key] ?? key, nodes })),
+    indicators: [...graph.indicators],
+    groups: [...groups.values()],
     inputs: [...byFile].map(([file, rows]) => ({ file, rows })),
+    stepCount: graph.nodes.size,
     figureCount,
   };
 }
 
-function nodeView(graph: FigureGraph, node: FigureNode, usedBy: AuditLink[]): AuditNode {
+function stepView(graph: FigureGraph, node: FigureNode, usedBy: AuditLink[]): AuditStep {
   const terms: AuditTerm[] = node.terms.map((term) => termView(graph, term));
-  if (node.kind === 'scalar') {
-    return { id: node.id, description: node.description, formula: node.formula, value: show(node.value), unit: node.unit, terms, usedBy };
-  }
-  // Terms that vary by indicator: vector figures and factor rows.
-  const varying = node.terms.filter((term) => term.kind === 'factor' || (term.kind === 'figure' && graph.get(term.id)?.kind === 'vector'));
-  const columns = varying.length <= MAX_TERM_COLUMNS ? varying : [];
-  const rows = graph.indicators.map((code, i) => ({
-    anchor: `${node.id}/${code}`,
-    code,
-    value: show(node.values[i]!),
-    cells: columns.map((term) => {
-      if (term.kind === 'factor') {
-        // The factor row is linked once, in the terms list; here its cell as written.
-        const written = term.factor.raw[code] ?? '';
-        return { text: written === '' ? 'n/a' : written };
-      }
-      const target = graph.vector((term as Extract<Term, { kind: 'figure' }>).id);
-      return { text: show(target.values[i]!), href: local(`${target.id}/${code}`) };
-    }),
-  }));
-  return { id: node.id, description: node.description, formula: node.formula, terms, rows, termColumns: columns.map((term) => term.symbol), usedBy };
+  const head = { id: node.id, description: node.description, formula: node.formula, terms, usedBy };
+  return node.kind === 'scalar' ? { ...head, vector: false, value: show(node.value), unit: node.unit } : { ...head, vector: true };
 }
 
 function termView(graph: FigureGraph, term: Term): AuditTerm {
@@ -162,7 +174,7 @@ function termView(graph: FigureGraph, term: Term): AuditTerm {
     case 'cell':
       return { symbol: term.symbol, target: { text: `${term.cell.file}:${term.cell.line} ${term.cell.column}`, href: local(inputAnchor(term.cell.file, term.cell.line)) }, value: `“${term.cell.value}”` };
     case 'factor':
-      return { symbol: term.symbol, target: { text: `${term.factor.file}:${term.factor.line} (factor ${term.factor.factorId})`, href: local(inputAnchor(term.factor.file, term.factor.line)) } };
+      return { symbol: term.symbol, target: { text: `${term.factor.file}:${term.factor.line} (factor ${term.factor.factorId}, the indicator’s column)`, href: local(inputAnchor(term.factor.file, term.factor.line)) } };
   }
 }
 

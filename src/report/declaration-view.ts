@@ -9,7 +9,9 @@ import { barChart, type ChartDatum, type ChartView } from './charts.ts';
 import { dataQualityView, type DataQualityView } from './data-quality-view.ts';
 import { factorHref, figureHref } from './figure-links.ts';
 import { formatInput, formatScientific, formatShare } from './format.ts';
-import type { ResultsSummary } from './results.ts';
+import { resultFigureId, type ResultsSummary } from './results.ts';
+import type { CffMethod } from '../calc/cff.ts';
+import { figureId, processStep } from '../trace/ids.ts';
 import { sensitivityView, type SensitivityView } from './sensitivity-view.ts';
 
 /**
@@ -109,9 +111,8 @@ export function declarationResultsView(ctx: CalcContext, rows: ProductRows, resu
   const cutoff = json.methods.cutoff;
   const moduleCodes = Object.keys(cutoff.modules);
   const modules = moduleCodes.map((code) => ({ code, moduleD: code === 'D' }));
-  const figureOf = (module: string, code: string): string => (findIndicator(code)?.basis === 'flows' ? result.flows.moduleFlows[module]![code]! : `${result.cutoff.modules[module as 'A1']}/${code}`);
 
-  const tables: ResultsTableView[] = groupedTables(json.indicators, (code) => moduleCodes.map((module) => cell(cutoff.modules[module]?.[code], figureOf(module, code), module === 'D')));
+  const tables: ResultsTableView[] = groupedTables(json.indicators, (code) => moduleCodes.map((module) => cell(cutoff.modules[module]?.[code], resultFigureId('cutoff', module, code), module === 'D')));
 
   const boundary = LIFE_CYCLE_MODULES.map((m) => ({ ...m, declared: moduleCodes.includes(m.code) }));
 
@@ -131,11 +132,11 @@ export function declarationResultsView(ctx: CalcContext, rows: ProductRows, resu
   const comparison = {
     indicators: compared.map((code) => ({ code, unit: findIndicator(code)!.unit })),
     rows: [
-      { method: 'cutoff', ...METHOD_SENTENCES.cutoff!, cells: compared.map((code) => cell(cutoff.total[code], `${result.cutoff.total}/${code}`)) },
-      ...Object.entries(result.methods).map(([method, r]) => ({
+      { method: 'cutoff', ...METHOD_SENTENCES.cutoff!, cells: compared.map((code) => cell(cutoff.total[code], resultFigureId('cutoff', 'total', code))) },
+      ...(Object.keys(result.methods) as CffMethod[]).map((method) => ({
         method,
         ...METHOD_SENTENCES[method]!,
-        cells: compared.map((code) => cell(json.methods[method as 'cff']!.total[code], `${r!.total}/${code}`)),
+        cells: compared.map((code) => cell(json.methods[method]!.total[code], resultFigureId(method, 'total', code))),
       })),
       ...(compared.length > 0
         ? [
@@ -144,7 +145,7 @@ export function declarationResultsView(ctx: CalcContext, rows: ProductRows, resu
               name: 'Module D (beside cut-off)',
               rewards: 'Net benefit and load of recycling and recovery beyond the system boundary; not added to any total.',
               scope: 'module D',
-              cells: compared.map((code) => cell(cutoff.modules.D?.[code], `${result.cutoff.modules.D}/${code}`, true)),
+              cells: compared.map((code) => cell(cutoff.modules.D?.[code], resultFigureId('cutoff', 'D', code), true)),
             },
           ]
         : []),
@@ -154,8 +155,8 @@ export function declarationResultsView(ctx: CalcContext, rows: ProductRows, resu
   const headlineCode = 'GWP-total';
   const hasHeadline = ctx.indicators.includes(headlineCode);
   const headline = {
-    a1a3: hasHeadline ? cell(cutoff.modules['A1-A3']?.[headlineCode], `${result.cutoff.modules['A1-A3']}/${headlineCode}`) : { text: 'n/a' },
-    moduleD: hasHeadline ? cell(cutoff.modules.D?.[headlineCode], `${result.cutoff.modules.D}/${headlineCode}`, true) : { text: 'n/a' },
+    a1a3: hasHeadline ? cell(cutoff.modules['A1-A3']?.[headlineCode], resultFigureId('cutoff', 'A1-A3', headlineCode)) : { text: 'n/a' },
+    moduleD: hasHeadline ? cell(cutoff.modules.D?.[headlineCode], resultFigureId('cutoff', 'D', headlineCode), true) : { text: 'n/a' },
     recycledContent: recycledContent[2]!.cell,
     a1a3Value: String(cutoff.modules['A1-A3']?.[headlineCode] ?? ''),
     moduleDValue: String(cutoff.modules.D?.[headlineCode] ?? ''),
@@ -215,14 +216,14 @@ function processModels(ctx: CalcContext, result: ProductResult, sci: (v: number 
   }
   const views: ProcessModelView[] = [];
   for (const definition of ctx.project.processes) {
-    const factorNode = result.graph.get(`process/${definition.id}/factor`);
+    const factorNode = result.graph.get(processStep.factor(definition.id));
     if (!factorNode || factorNode.kind !== 'vector') continue;
     views.push({
       id: definition.id,
       kind: definition.kind,
       description: factorNode.description,
       steps: stepsOf.get(definition.id) ?? [],
-      factor: ctx.indicators.map((code, i) => ({ code, unit: `${findIndicator(code)!.unit} per kg`, cell: { text: sci(toNullable(factorNode.values[i]!)), href: figureHref(`${factorNode.id}/${code}`) } })),
+      factor: ctx.indicators.map((code, i) => ({ code, unit: `${findIndicator(code)!.unit} per kg`, cell: { text: sci(toNullable(factorNode.values[i]!)), href: figureHref(figureId(factorNode.id, code)) } })),
     });
   }
   return views;

@@ -2,7 +2,12 @@ import type { Project } from '../model/types.ts';
 import { findIndicator } from '../reference/indicators.ts';
 import { groupedTables, METHOD_SENTENCES } from './declaration-view.ts';
 import { familyWarnings, type FamilyResults, type FamilyStat } from './families.ts';
-import { AUDIT_PAGE, fragment } from './figure-links.ts';
+import { figureHref } from './figure-links.ts';
+import { resultFigureId } from './results.ts';
+import type { ResultMethod } from '../trace/ids.ts';
+
+/** The catalogue's headline: GWP-total of cut-off A1-A3. */
+const HEADLINE_FIGURE = resultFigureId('cutoff', 'A1-A3', 'GWP-total');
 import { formatInput, formatScientific, formatShare } from './format.ts';
 
 /** A family figure as the page shows it: the mean (a link to its derivation) and the range. */
@@ -54,9 +59,9 @@ export function familyView(project: Project, results: FamilyResults, names: Read
   const range = (stat: FamilyStat, format: (v: number) => string) => (stat.min === null ? '' : `${format(stat.min)} … ${format(stat.max!)}`);
   const audit: FamilyAuditEntry[] = [];
   /** The cell of figure method/module/code, its audit entry added on the way. */
-  const entry = (method: string, module: string, code: string, stat: FamilyStat, moduleD = false): FamilyCell => {
-    const id = `${method}/${module}/${code}`;
-    const flows = findIndicator(code)?.basis === 'flows';
+  const entry = (method: ResultMethod, module: string, code: string, stat: FamilyStat, moduleD = false): FamilyCell => {
+    // The family's figure has the id of the members' figure it is the mean of.
+    const id = resultFigureId(method, module, code);
     audit.push({
       id,
       label: `${code}, ${module}, ${method === 'cutoff' ? 'cut-off' : method}`,
@@ -67,11 +72,10 @@ export function familyView(project: Project, results: FamilyResults, names: Read
         weight: formatInput(m.weight),
         share: formatShare(m.share),
         value: sci(results.member_values[m.product_id]?.[method]?.[module]?.[code] ?? null),
-        // Flow indicators have their own figure ids in a member's graph: link to its results table.
-        href: flows ? `../../${m.product_id}/index.html#results` : `../../${m.product_id}/${AUDIT_PAGE}#${fragment(id)}`,
+        href: `../../${m.product_id}/${figureHref(id)}`,
       })),
     });
-    return { text: sci(stat.mean), range: range(stat, (v) => sci(v)), href: `${AUDIT_PAGE}#${fragment(id)}`, ...(moduleD ? { moduleD } : {}) };
+    return { text: sci(stat.mean), range: range(stat, (v) => sci(v)), href: figureHref(id), ...(moduleD ? { moduleD } : {}) };
   };
 
   const cutoff = results.methods.cutoff;
@@ -88,7 +92,7 @@ export function familyView(project: Project, results: FamilyResults, names: Read
   const rc = results.flows.recycled_content;
   const share = (s: FamilyStat) => ({ mean: s.mean === null ? 'n/a' : formatShare(s.mean), range: range(s, formatShare) });
   const headlineStat = cutoff.modules['A1-A3']?.['GWP-total'];
-  const headline = headlineStat ? { a1a3: { text: sci(headlineStat.mean), range: range(headlineStat, (v) => sci(v)), href: `${familyDir(results.family_id)}/${AUDIT_PAGE}#${fragment('cutoff/A1-A3/GWP-total')}` }, a1a3Value: String(headlineStat.mean ?? '') } : { a1a3: undefined, a1a3Value: '' };
+  const headline = headlineStat ? { a1a3: { text: sci(headlineStat.mean), range: range(headlineStat, (v) => sci(v)), href: `${familyDir(results.family_id)}/${figureHref(HEADLINE_FIGURE)}` }, a1a3Value: String(headlineStat.mean ?? '') } : { a1a3: undefined, a1a3Value: '' };
   return {
     id: results.family_id,
     name: results.name,
@@ -104,7 +108,7 @@ export function familyView(project: Project, results: FamilyResults, names: Read
       weightFrom: m.weight_from.map((cell) => `${cell.file}:${cell.line}`).join(', '),
       share: formatShare(m.share),
       gwp: sci(m.gwp_a1_a3),
-      gwpHref: `../../${m.product_id}/${AUDIT_PAGE}#${fragment('cutoff/A1-A3/GWP-total')}`,
+      gwpHref: `../../${m.product_id}/${figureHref(HEADLINE_FIGURE)}`,
       deviation: m.deviation === null ? 'n/a' : `${m.deviation >= 0 ? '+' : '−'}${(Math.abs(m.deviation) * 100).toFixed(1)} %`,
       outside: m.outside_tolerance,
     })),

@@ -1,4 +1,5 @@
-import type { ResultsSummary } from './results.ts';
+import type { ResultMethod } from '../trace/ids.ts';
+import { resultFigureId, type ResultsSummary } from './results.ts';
 
 /**
  * One row per product × method × module (or part) × indicator. Text cells that a
@@ -32,21 +33,21 @@ export function resultsCsvRows(results: ResultsSummary): string[] {
   // The indicator and unit cells, once per product.
   const codeUnit = new Map<string, string>();
   const rows: string[] = [];
-  const emit = (method: string, module: string, values: Record<string, number | null>, idBase: string) => {
+  const emit = (method: ResultMethod, module: string, values: Record<string, number | null>) => {
     const head = `${product},${method},${textCell(module)},`;
     for (const [code, value] of Object.entries(values)) {
       let cells = codeUnit.get(code);
       if (cells === undefined) codeUnit.set(code, (cells = `${textCell(code)},${textCell(units.get(code) ?? '')},`));
-      rows.push(`${head}${cells}${numberCell(value)},${textCell(`${idBase}/${code}`)}`);
+      rows.push(`${head}${cells}${numberCell(value)},${textCell(resultFigureId(method, module, code))}`);
     }
   };
   const { cutoff, ...others } = results.methods;
-  for (const [module, values] of Object.entries(cutoff.modules)) emit('cutoff', module, values, `cutoff/${module}`);
-  emit('cutoff', 'total', cutoff.total, 'cutoff/total');
-  for (const [method, result] of Object.entries(others)) {
+  for (const [module, values] of Object.entries(cutoff.modules)) emit('cutoff', module, values);
+  emit('cutoff', 'total', cutoff.total);
+  for (const [method, result] of Object.entries(others) as Array<[ResultMethod, (typeof others)['cff']]>) {
     if (!result) continue;
-    for (const [part, values] of Object.entries(result.parts)) emit(method, part, values, `${method}/${part}`);
-    emit(method, 'total', result.total, `${method}/total`);
+    for (const [part, values] of Object.entries(result.parts)) emit(method, part, values);
+    emit(method, 'total', result.total);
   }
   return rows;
 }

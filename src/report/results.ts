@@ -2,23 +2,31 @@ import type { CalcContext } from '../calc/context.ts';
 import type { ProductResult } from '../calc/product.ts';
 import { productUncertainty, type UncertaintyJson } from '../calc/uncertainty.ts';
 import { toNullable } from '../calc/vector.ts';
-import { findIndicator } from '../reference/indicators.ts';
-import type { FigureGraph, FigureNode, Term } from '../trace/graph.ts';
+import { findIndicator, type IndicatorBasis } from '../reference/indicators.ts';
+import type { FigureGraph } from '../trace/graph.ts';
+import { graphJson, type GraphJson } from '../trace/graph-json.ts';
+import { figureId, resultStep, type ResultMethod } from '../trace/ids.ts';
 import { productDataQuality, type DataQualityJson } from './data-quality.ts';
 import { productSensitivity, type SensitivityJson } from './sensitivity.ts';
 
 /**
- * The results contract (`out/<product_id>/results.json`): keys and nesting are what CI users
- * script against — add keys, rename none. Every number is a figure: its id is
- * `<vector figure>/<indicator>` (e.g. `cutoff/A1/GWP-total`) or the id of a scalar figure,
- * and `figures` holds each with its formula, value and terms.
+ * The results contract (`out/<product_id>/results.json`, format 2): keys and nesting are what
+ * CI users script against — add keys, rename none. Every number is a figure: its id is
+ * `<step>/<indicator>` for a vector step (e.g. `cutoff/A1/GWP-total`) or a scalar step's id
+ * (src/trace/ids.ts), and `graph` holds each step once with its formula, values and terms
+ * (src/trace/graph-json.ts).
  */
 export type IndicatorValues = Record<string, number | null>;
 
+/** The version of this contract; `diff` refuses another. Format 1 listed every step once per indicator (`figures`). */
+export const RESULTS_FORMAT = 2;
+
 export interface ResultsJson {
+  format: typeof RESULTS_FORMAT;
   product_id: string;
   declared_unit: string;
-  indicators: Array<{ code: string; unit: string; name: string }>;
+  /** `basis`: `factors` — characterised from factor rows, a value of each step that has values; `flows` — the product's own mass flows, steps of their own (`cutoff/<module>/<code>`). */
+  indicators: Array<{ code: string; unit: string; name: string; basis: IndicatorBasis }>;
   methods: {
     cutoff: { modules: Record<string, IndicatorValues>; total: IndicatorValues };
     cff?: { parts: Record<string, IndicatorValues>; total: IndicatorValues };
@@ -36,28 +44,19 @@ export interface ResultsJson {
   sensitivity?: SensitivityJson;
   /** Monte Carlo ranges of GWP-total A1-A3 and D, when asked for (declaration.json uncertainty or build --uncertainty). */
   uncertainty?: UncertaintyJson;
-  figures: Record<string, FigureJson>;
+  graph: GraphJson;
 }
 
 /** A product's results without its figure graph (the catalogue-wide results.json). */
-export type ResultsSummary = Omit<ResultsJson, 'figures'>;
+export type ResultsSummary = Omit<ResultsJson, 'graph'>;
 
-export type TermJson = string | { file: string; line: number; column: string; value: string };
-
-export interface FigureJson {
-  value: number | null;
-  unit: string;
-  formula: string;
-  description: string;
-  terms: TermJson[];
-  /** The symbol each term stands for in the formula, in the order of `terms`. */
-  symbols: string[];
-}
+/** The figure id of a value in the `methods` maps: `methods.<method>.modules|parts.<key>[<code>]`, or `.total` with key `total`. */
+export const resultFigureId = (method: ResultMethod, key: string, code: string): string => figureId(resultStep(method, key), code);
 
 export function indicatorList(ctx: CalcContext): ResultsJson['indicators'] {
   return [...ctx.indicators, ...ctx.flowIndicators].map((code) => {
     const indicator = findIndicator(code)!;
-    return { code, unit: indicator.unit, name: indicator.name };
+    return { code, unit: indicator.unit, name: indicator.name, basis: indicator.basis };
   });
 }
 
@@ -71,14 +70,12 @@ function vectorValues(ctx: CalcContext, graph: FigureGraph, id: string, flowIds?
 
 const scalarValue = (graph: FigureGraph, id: string) => toNullable(graph.scalar(id).value);
 
-export function resultsJson(ctx: CalcContext, result: ProductResult): ResultsJson {
-  return { ...resultsSummary(ctx, result), figures: figuresJson(result.graph) };
+export function resultsJson(ctx: CalcContext, result: ProductResult, summary = resultsSummary(ctx, result)): ResultsJson {
+  return { ...summary, graph: graphJson(result.graph, summary.indicators.map((i) => i.code)) };
 }
 
-/** results.json as text, exactly `JSON.stringify(resultsJson(…))`, written straight from the graph (no figure objects built). */
-export function resultsJsonText(ctx: CalcContext, result: ProductResult, summary = resultsSummary(ctx, result)): string {
-  return `${JSON.stringify(summary).slice(0, -1)},"figures":${figuresJsonText(result.graph)}}`;
-}
+/** results.json as written: `resultsJson` as compact JSON. */
+export const resultsJsonText = (ctx: CalcContext, result: ProductResult, summary = resultsSummary(ctx, result)): string => JSON.stringify(resultsJson(ctx, result, summary));
 
 /** A product's results without its figure graph. */
 export function resultsSummary(ctx: CalcContext, result: ProductResult): ResultsSummary {
@@ -94,6 +91,7 @@ export function resultsSummary(ctx: CalcContext, result: ProductResult): Results
   }
   const f = result.flows;
   return {
+    format: RESULTS_FORMAT,
     product_id: result.productId,
     declared_unit: result.declaredUnit,
     indicators: indicatorList(ctx),
@@ -107,93 +105,6 @@ export function resultsSummary(ctx: CalcContext, result: ProductResult): Results
     ...withSensitivity(ctx, result),
     ...withUncertainty(ctx, result),
   };
-}
-
-/** Every node of the graph as figures: a vector node once per indicator. */
-export function figuresJson(graph: FigureGraph): Record<string, FigureJson> {
-  const figures: Record<string, FigureJson> = {};
-  for (const node of graph.nodes.values()) {
-    if (node.kind === 'scalar') {
-      figures[node.id] = { value: toNullable(node.value), unit: node.unit, formula: node.formula, description: node.description, terms: node.terms.map((t) => termJson(graph, t, undefined)), symbols: node.terms.map((t) => t.symbol) };
-      continue;
-    }
-    graph.indicators.forEach((code, i) => {
-      figures[`${node.id}/${code}`] = {
-        value: toNullable(node.values[i]!),
-        unit: findIndicator(code)!.unit,
-        formula: node.formula,
-        description: node.description,
-        terms: node.terms.map((t) => termJson(graph, t, code)),
-        symbols: node.terms.map((t) => t.symbol),
-      };
-    });
-  }
-  return figures;
-}
-
-/** A term as the contract writes it: a figure id, or an input cell. */
-export function termJson(graph: FigureGraph, term: Term, code: string | undefined): TermJson {
-  switch (term.kind) {
-    case 'figure': {
-      const target: FigureNode | undefined = graph.get(term.id);
-      return target?.kind === 'vector' && code ? `${term.id}/${code}` : term.id;
-    }
-    case 'cell':
-      return term.cell;
-    case 'factor': {
-      // A factor row stands, per indicator, for that indicator's cell; for a scalar figure it is the row's id cell.
-      const column = code ?? 'factor_id';
-      return { file: term.factor.file, line: term.factor.line, column, value: term.factor.raw[column] ?? '' };
-    }
-  }
-}
-
-const numberText = (value: number): string => (Number.isFinite(value) ? JSON.stringify(value) : 'null');
-
-/**
- * The `figures` object as text, the same bytes as `JSON.stringify(figuresJson(graph))`: the
- * parts of a vector node that do not vary by indicator (formula, description, symbols,
- * terms that are scalar figures or cells) are serialised once per node, not once per
- * indicator. A product's figures run to megabytes (docs/performance.md).
- */
-export function figuresJsonText(graph: FigureGraph): string {
-  const parts: string[] = [];
-  const codes = graph.indicators;
-  const units = codes.map((code) => JSON.stringify(findIndicator(code)!.unit));
-  // JSON escapes character by character, so an escaped id followed by an escaped "/code" is the escaped "id/code".
-  const slashCode = codes.map((code) => JSON.stringify(`/${code}`).slice(1));
-  const codeText = codes.map((code) => JSON.stringify(code));
-  for (const node of graph.nodes.values()) {
-    const tail = `,"formula":${JSON.stringify(node.formula)},"description":${JSON.stringify(node.description)}`;
-    const symbols = `,"symbols":${JSON.stringify(node.terms.map((t) => t.symbol))}}`;
-    if (node.kind === 'scalar') {
-      parts.push(`${JSON.stringify(node.id)}:{"value":${numberText(node.value)},"unit":${JSON.stringify(node.unit)}${tail},"terms":${JSON.stringify(node.terms.map((t) => termJson(graph, t, undefined)))}${symbols}`);
-      continue;
-    }
-    // Per term: one text for all indicators, or the text for indicator i.
-    const terms = node.terms.map((term): string | ((i: number) => string) => {
-      if (term.kind === 'figure') {
-        if (graph.get(term.id)?.kind !== 'vector') return JSON.stringify(term.id);
-        const open = JSON.stringify(term.id).slice(0, -1);
-        return (i) => open + slashCode[i]!;
-      }
-      if (term.kind === 'cell') return JSON.stringify(term.cell);
-      // termJson's key order: file, line, column (the indicator's column), value (as written).
-      const { factor } = term;
-      const head = `{"file":${JSON.stringify(factor.file)},"line":${JSON.stringify(factor.line)},"column":`;
-      return (i) => `${head}${codeText[i]},"value":${JSON.stringify(factor.raw[codes[i]!] ?? '')}}`;
-    });
-    const open = JSON.stringify(node.id).slice(0, -1);
-    for (let i = 0; i < codes.length; i++) {
-      let termText = '';
-      for (let k = 0; k < terms.length; k++) {
-        const t = terms[k]!;
-        termText += (k === 0 ? '' : ',') + (typeof t === 'string' ? t : t(i));
-      }
-      parts.push(`${open}${slashCode[i]}:{"value":${numberText(node.values[i]!)},"unit":${units[i]}${tail},"terms":[${termText}]${symbols}`);
-    }
-  }
-  return `{${parts.join(',')}}`;
 }
 
 function withSensitivity(ctx: CalcContext, result: ProductResult): { sensitivity?: SensitivityJson } {

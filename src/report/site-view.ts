@@ -9,10 +9,10 @@ import { formatInput, formatShare } from './format.ts';
 import type { AuditView } from './audit-view.ts';
 import { PROCESS_CAUTION, type DeclarationResultsView } from './declaration-view.ts';
 import type { ResultsSummary } from './results.ts';
-import { AUDIT_PAGE, factorAnchor, factorHref, fragment, inputAnchor } from './figure-links.ts';
+import { AUDIT_PAGE, factorAnchor, factorHref, figureHref, fragment, inputAnchor } from './figure-links.ts';
 import { physicalLines } from './written.ts';
 import { PROCESS_PREFIX } from '../schema/process-parameters.ts';
-import { allocationBase } from '../calc/allocation.ts';
+import { allocationStepOf } from '../calc/allocation.ts';
 import { dqrBandsText, dqrRating, pedigreeDqr } from './data-quality.ts';
 import { familyDir, type FamilyView } from './family-view.ts';
 
@@ -417,7 +417,7 @@ function productView(project: Project, rows: ProductRows, report: ProductReport 
         source: sourceOf(project.site, a.row),
         cells: [
           txt(a.group.site), txt(a.group.period), txt(a.row.value.module), txt(a.row.value.activity), txt(a.row.value.factor), num(a.row.value.amount), txt(a.row.value.unit), txt(a.key.name),
-          { ...pct(a.share), href: `${AUDIT_PAGE}#${fragment(`${allocationBase(a)}/share`)}` },
+          { ...pct(a.share), href: figureHref(allocationStepOf(a, 'share')) },
           num(a.production.value.output), txt(a.row.value.source),
         ],
       })),

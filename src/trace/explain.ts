@@ -1,5 +1,6 @@
 import { findIndicator } from '../reference/indicators.ts';
 import type { FigureGraph, Term } from './graph.ts';
+import { figureId, parseFigureId } from './ids.ts';
 
 /** A figure id of the results contract, resolved to its node and indicator. */
 export interface ResolvedFigure {
@@ -8,16 +9,9 @@ export interface ResolvedFigure {
   code?: string;
 }
 
-export function resolveFigure(graph: FigureGraph, figureId: string): ResolvedFigure | undefined {
-  const node = graph.get(figureId);
-  if (node?.kind === 'scalar') return { nodeId: figureId };
-  const slash = figureId.lastIndexOf('/');
-  if (slash === -1) return undefined;
-  const nodeId = figureId.slice(0, slash);
-  const code = figureId.slice(slash + 1);
-  const vector = graph.get(nodeId);
-  if (vector?.kind === 'vector' && graph.indicators.includes(code)) return { nodeId, code };
-  return undefined;
+export function resolveFigure(graph: FigureGraph, id: string): ResolvedFigure | undefined {
+  const address = parseFigureId(id, (step) => graph.get(step)?.kind === 'vector', (step) => graph.get(step)?.kind === 'scalar', graph.indicators);
+  return address ? { nodeId: address.step, ...(address.indicator === undefined ? {} : { code: address.indicator }) } : undefined;
 }
 
 /** Every figure id of a graph, as results.json lists them. */
@@ -25,7 +19,7 @@ export function figureIds(graph: FigureGraph): string[] {
   const ids: string[] = [];
   for (const node of graph.nodes.values()) {
     if (node.kind === 'scalar') ids.push(node.id);
-    else for (const code of graph.indicators) ids.push(`${node.id}/${code}`);
+    else for (const code of graph.indicators) ids.push(figureId(node.id, code));
   }
   return ids;
 }
@@ -45,7 +39,7 @@ export function explainFigure(graph: FigureGraph, figure: ResolvedFigure, maxDep
     const node = graph.get(nodeId)!;
     if (node.kind === 'scalar') return { id: node.id, value: format(node.value), unit: node.unit, formula: node.formula, description: node.description, terms: node.terms };
     const code = figure.code!;
-    return { id: `${node.id}/${code}`, value: format(node.values[codeIndex]!), unit: findIndicator(code)?.unit ?? '', formula: node.formula, description: node.description, terms: node.terms };
+    return { id: figureId(node.id, code), value: format(node.values[codeIndex]!), unit: findIndicator(code)?.unit ?? '', formula: node.formula, description: node.description, terms: node.terms };
   };
 
   const walk = (nodeId: string, prefix: string, symbol: string, depth: number) => {

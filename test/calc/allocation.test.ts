@@ -64,20 +64,20 @@ describe('site data allocated by mass (ISO 14044 §4.3.4), hand-worked', async (
   const [p1, p2] = await compute(await site());
 
   it('shares 6 000 kg / 10 000 kg = 0.6 and 4 000 / 10 000 = 0.4, with the keys and their sum as figures', () => {
-    const f1 = p1!.results.figures;
+    const f1 = p1!.figures;
     expect(f1['allocation/S/2025/mass/key']?.value).toBe(6000);
     expect(f1['allocation/S/2025/mass/total']?.value).toBe(10000);
     expect(f1['allocation/S/2025/mass/share']?.value).toBeCloseTo(0.6, 15);
-    expect(p2!.results.figures['allocation/S/2025/mass/share']?.value).toBeCloseTo(0.4, 15);
+    expect(p2!.figures['allocation/S/2025/mass/share']?.value).toBeCloseTo(0.4, 15);
   });
 
   it('electricity: P1 10 000·0.6/6 000 = 1 kWh → 0.5; P2 10 000·0.4/2 000 = 2 kWh → 1.0 kg CO2 eq.', () => {
-    expect(gwp(p1!.results.figures, 'cutoff/A3/site:2')).toBeCloseTo(0.5, 12);
-    expect(gwp(p2!.results.figures, 'cutoff/A3/site:2')).toBeCloseTo(1.0, 12);
+    expect(gwp(p1!.figures, 'cutoff/A3/site:2')).toBeCloseTo(0.5, 12);
+    expect(gwp(p2!.figures, 'cutoff/A3/site:2')).toBeCloseTo(1.0, 12);
   });
 
   it('gas in GJ: P1 2 GJ = 2 000 MJ (SI) · 0.6 / 6 000 = 0.2 MJ → 0.02 kg CO2 eq.', () => {
-    expect(gwp(p1!.results.figures, 'cutoff/A3/site:3')).toBeCloseTo(0.02, 12);
+    expect(gwp(p1!.figures, 'cutoff/A3/site:3')).toBeCloseTo(0.02, 12);
   });
 
   it('the allocated rows join the product’s own activities: P1 A3 = 1 kWh own · 0.5 + 0.5 + 0.02 = 1.02', () => {
@@ -99,15 +99,15 @@ describe('site data allocated by mass (ISO 14044 §4.3.4), hand-worked', async (
 describe('other keys', () => {
   it('declared_unit: shares 6 000/8 000 = 0.75 and 2 000/8 000 = 0.25; P2 gas 2 000 MJ·0.25/2 000 = 0.25 MJ → 0.025', async () => {
     const [p1, p2] = await compute(await site({ gasKey: 'declared_unit' }));
-    expect(p1!.results.figures['allocation/S/2025/declared_unit/share']?.value).toBeCloseTo(0.75, 15);
-    expect(gwp(p2!.results.figures, 'cutoff/A3/site:3')).toBeCloseTo(0.025, 12);
+    expect(p1!.figures['allocation/S/2025/declared_unit/share']?.value).toBeCloseTo(0.75, 15);
+    expect(gwp(p2!.figures, 'cutoff/A3/site:3')).toBeCloseTo(0.025, 12);
   });
 
   it('a production.csv column of the user’s own: press_hours 300 and 700 → P1 gas 2 000·0.3/6 000 = 0.1 MJ → 0.01', async () => {
     const [p1, p2] = await compute(await site({ gasKey: 'press_hours' }));
-    expect(p1!.results.figures['allocation/S/2025/press_hours/share']?.value).toBeCloseTo(0.3, 15);
-    expect(gwp(p1!.results.figures, 'cutoff/A3/site:3')).toBeCloseTo(0.01, 12);
-    expect(gwp(p2!.results.figures, 'cutoff/A3/site:3')).toBeCloseTo((2000 * 0.7 / 2000) * 0.1, 12);
+    expect(p1!.figures['allocation/S/2025/press_hours/share']?.value).toBeCloseTo(0.3, 15);
+    expect(gwp(p1!.figures, 'cutoff/A3/site:3')).toBeCloseTo(0.01, 12);
+    expect(gwp(p2!.figures, 'cutoff/A3/site:3')).toBeCloseTo((2000 * 0.7 / 2000) * 0.1, 12);
     const cell = p1!.result.graph.get('allocation/S/2025/press_hours/key')!.terms[0]!;
     expect(cell.kind === 'cell' && `${cell.cell.file}:${cell.cell.line} ${cell.cell.column} ${cell.cell.value}`).toBe('production.csv:2 press_hours 300');
   });
@@ -130,7 +130,7 @@ describe('the demo site (Norwick press shop, 2025, by mass)', async () => {
 
   it('gives its three profiles shares that add up to 1', () => {
     expect(profiles.map((d) => d.results.product_id).sort()).toEqual(['KV-EXT-6060', 'KV-EXT-6060-T19', 'KV-EXT-6060-T22']);
-    const shares = profiles.map((d) => d.results.figures['allocation/norwick-press-shop/2025/mass/share']!.value ?? NaN);
+    const shares = profiles.map((d) => d.figures['allocation/norwick-press-shop/2025/mass/share']!.value ?? NaN);
     expect(shares.reduce((a, b) => a + b, 0)).toBeCloseTo(1, 12);
   });
 
@@ -142,7 +142,7 @@ describe('the demo site (Norwick press shop, 2025, by mass)', async () => {
       const expected = amount * (factor.value as unknown as Record<string, number>)['GWP-total']!;
       const allocated = profiles.reduce((sum, d) => {
         const output = project!.production.rows.find((p) => p.value.product_id === d.results.product_id)!.value.output;
-        return sum + (d.results.figures[`cutoff/A3/site:${row.line}/GWP-total`]!.value ?? NaN) * output;
+        return sum + (d.figures[`cutoff/A3/site:${row.line}/GWP-total`]!.value ?? NaN) * output;
       }, 0);
       expect(allocated).toBeCloseTo(expected, 6);
     }

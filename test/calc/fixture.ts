@@ -6,6 +6,7 @@ import { calculateProduct, type ProductResult } from '../../src/calc/product.ts'
 import { rowsByProduct } from '../../src/model/by-product.ts';
 import { loadProject } from '../../src/model/project.ts';
 import { resultsJson, type ResultsJson } from '../../src/report/results.ts';
+import { figureMap, writtenFrom, type FlatFigure } from '../figures.ts';
 
 /** A small project written to a temporary folder, for hand-worked examples. */
 export interface FixtureFiles {
@@ -48,6 +49,8 @@ export async function writeFixture(files: FixtureFiles): Promise<string> {
 
 export interface Computed {
   results: ResultsJson;
+  /** Every figure of results.json by id, read back through the format's reader. */
+  figures: Record<string, FlatFigure>;
   result: ProductResult;
   ctx: CalcContext;
 }
@@ -59,6 +62,7 @@ export async function compute(dir: string): Promise<Computed[]> {
   const ctx = new CalcContext(project);
   return rowsByProduct(project).map((rows) => {
     const result = calculateProduct(ctx, rows);
-    return { result, ctx, results: resultsJson(ctx, result) };
+    const results = resultsJson(ctx, result);
+    return { result, ctx, results, figures: figureMap(results, writtenFrom(project)) };
   });
 }

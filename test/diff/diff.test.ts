@@ -1,9 +1,11 @@
 import { afterAll, describe, expect, it } from 'vitest';
-import { readFile } from 'node:fs/promises';
+import { readFile, writeFile } from 'node:fs/promises';
 import path from 'node:path';
 import { ChangedCells } from '../../src/diff/attribute.ts';
 import { compareProduct, relativeChange } from '../../src/diff/compare.ts';
-import type { FigureJson, ResultsJson, ResultsSummary } from '../../src/report/results.ts';
+import type { ResultsJson, ResultsSummary } from '../../src/report/results.ts';
+import { GraphReader, type GraphJson } from '../../src/trace/graph-json.ts';
+import { figureMap } from '../figures.ts';
 import { demoCopy, editFile, editLine, removeDir, runCli, tempDir } from '../helpers.ts';
 
 const dirs: string[] = [];
@@ -11,9 +13,10 @@ afterAll(async () => Promise.all(dirs.map(removeDir)));
 
 function summary(a1: number | null, d: number, recycled = 0.5): ResultsSummary {
   return {
+    format: 2,
     product_id: 'P1',
     declared_unit: '1 kg',
-    indicators: [{ code: 'GWP-total', unit: 'kg CO2 eq.', name: 'Climate change – total' }],
+    indicators: [{ code: 'GWP-total', unit: 'kg CO2 eq.', name: 'Climate change – total', basis: 'factors' }],
     methods: { cutoff: { modules: { A1: { 'GWP-total': a1 }, 'A1-A3': { 'GWP-total': a1 }, D: { 'GWP-total': d } }, total: { 'GWP-total': a1 } } },
     flows: { recycled_content: { pre: 0, post: recycled, total: recycled }, biogenic_carbon_kg: { product: 0, packaging: 0 }, biogenic_co2_kg: { product: 0, packaging: 0 } },
   };
@@ -44,12 +47,16 @@ describe('which figures moved', () => {
 });
 
 describe('which input cells changed underneath', () => {
-  const figure = (value: number, terms: FigureJson['terms']): FigureJson => ({ value, unit: 'kg', formula: '', description: '', terms, symbols: terms.map(() => 'x') });
-  const graph = (factorLine: number, gwp: string, mass: string): Record<string, FigureJson> => ({
-    'cutoff/A1/GWP-total': figure(1, ['cutoff/A1/line:L1/GWP-total', 'cutoff/A1/line:L2/GWP-total']),
-    'cutoff/A1/line:L1/GWP-total': figure(1, [{ file: 'bom.csv', line: 3, column: 'mass_kg', value: mass }, { file: 'factors.csv', line: factorLine, column: 'GWP-total', value: gwp }]),
-    'cutoff/A1/line:L2/GWP-total': figure(1, [{ file: 'bom.csv', line: 4, column: 'mass_kg', value: '2' }]),
-  });
+  // A format-2 graph of three vector steps; the factor row's GWP-total cell is read from the build's input copy.
+  const step = (id: string, terms: GraphJson['steps'][number]['terms']) => ({ id, formula: '', description: '', unit: null, values: [1], terms, symbols: terms.map(() => 'x') });
+  const graph = (factorLine: number, gwp: string, mass: string): GraphReader => {
+    const json: GraphJson = {
+      steps: [step('cutoff/A1/line:L1', [{ cell: 0 }, { row: 0 }]), step('cutoff/A1/line:L2', [{ cell: 1 }]), step('cutoff/A1', ['cutoff/A1/line:L1', 'cutoff/A1/line:L2'])],
+      cells: [{ file: 'bom.csv', line: 3, column: 'mass_kg', value: mass }, { file: 'bom.csv', line: 4, column: 'mass_kg', value: '2' }],
+      rows: [{ file: 'factors.csv', line: factorLine, factor_id: 'steel' }],
+    };
+    return new GraphReader(json, [{ code: 'GWP-total', unit: 'kg CO2 eq.' }], (file, line, column) => (file === 'factors.csv' && line === factorLine && column === 'GWP-total' ? gwp : undefined));
+  };
   const keys = (factorLine: number) => (file: string, line: number) => (file === 'factors.csv' && line === factorLine ? 'steel' : `${file}:${line}`);
 
   it('matches rows by key, so a row that only moved to another line is not a change', () => {
@@ -109,7 +116,8 @@ describe('loopsheet diff on two builds of the demo', () => {
     expect(a13.inputs.map((k) => `${report.inputs[k]!.file} ${report.inputs[k]!.row} ${report.inputs[k]!.column}`).sort()).toEqual(['bom.csv KV-EXT-6060 · L1 recycled_post', 'factors.csv al-remelted-ingot GWP-total']);
     // Every published figure (method/module/indicator, flows) that differs between the two files is in the report at threshold 0.
     const published = (id: string) => /^(cutoff|cff|eol-recycling|fifty-fifty|flows)\/[^/]+\/[^/]+$/.test(id) && !id.includes('/line:');
-    const moved = Object.keys(after.figures).filter((id) => published(id) && after.figures[id]!.value !== before.figures[id]?.value);
+    const [beforeFigures, afterFigures] = [figureMap(before), figureMap(after)];
+    const moved = Object.keys(afterFigures).filter((id) => published(id) && afterFigures[id]!.value !== beforeFigures[id]?.value);
     expect(moved.length).toBeGreaterThan(20);
     for (const id of moved) expect(report.changes.some((c) => c.figure === id), id).toBe(true);
 
@@ -138,5 +146,15 @@ describe('loopsheet diff on two builds of the demo', () => {
     expect(missing.code).toBe(2);
     expect(missing.stderr).toContain('no such file or folder');
     expect((await runCli(['diff', path.join(work, 'old'), path.join(work, 'new'), '--threshold', 'lots'])).stderr).toContain('expected a percentage such as 1%');
+    // A build of results format 1 (loopsheet 0.1: no "format", a "figures" map) is named as a build to redo.
+    const current = JSON.parse(await readFile(path.join(work, 'old', 'KV-CU-BB10', 'results.json'), 'utf8')) as ResultsJson;
+    const { graph: _graph, format: _format, ...rest } = current;
+    const formatOne = path.join(work, 'format1.json');
+    await writeFile(formatOne, JSON.stringify({ ...rest, figures: {} }));
+    for (const sides of [[formatOne, path.join(work, 'new', 'KV-CU-BB10', 'results.json')], [path.join(work, 'old', 'KV-CU-BB10', 'results.json'), formatOne]]) {
+      const old = await runCli(['diff', ...sides]);
+      expect(old.code).toBe(2);
+      expect(old.stderr).toContain('format1.json: results format 1 (an earlier loopsheet); expected results format 2: build that side again with this loopsheet');
+    }
   });
 });

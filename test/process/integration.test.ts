@@ -6,7 +6,8 @@ import { calculateProduct } from '../../src/calc/product.ts';
 import { rowsByProduct } from '../../src/model/by-product.ts';
 import { loadProject } from '../../src/model/project.ts';
 import { indicatorValue } from '../../src/model/types.ts';
-import { resultsJson, type TermJson } from '../../src/report/results.ts';
+import { resultsJson } from '../../src/report/results.ts';
+import { figureMap, writtenFrom, type FlatFigure } from '../figures.ts';
 import { demoWithoutProcesses, editFile, removeDir } from '../helpers.ts';
 
 const dirs: string[] = [];
@@ -59,10 +60,11 @@ describe('a process of process.csv as a factor', () => {
     const c2f6KgPerKg = cf4KgPerKg * 0.121;
     const expected = electricityKwhPerKg * gwp('grid-electricity') + aluminaKgPerKg * gwp('alumina-test') + 0.42 * gwp('anode-test') + co2KgPerKg + cf4KgPerKg * 7380 + c2f6KgPerKg * 12400;
 
-    const factor = results.figures['process/potline-1/factor/GWP-total']!;
+    const figures = figureMap(results);
+    const factor = figures['process/potline-1/factor/GWP-total']!;
     expect(factor.value! / expected).toBeCloseTo(1, 9);
     // A1 of the profile's line uses it as the virgin factor Ev.
-    const a1 = results.figures['cutoff/A1/line:L1/GWP-total']!;
+    const a1 = figures['cutoff/A1/line:L1/GWP-total']!;
     expect(a1.terms).toContain('process/potline-1/factor/GWP-total');
   });
 
@@ -70,8 +72,8 @@ describe('a process of process.csv as a factor', () => {
     const { project } = await smelterProject();
     const ctx = new CalcContext(project!);
     const rows = rowsByProduct(project!).find((r) => r.product.value.product_id === 'KV-EXT-6060')!;
-    const { figures } = resultsJson(ctx, calculateProduct(ctx, rows));
-    const cells: Array<Exclude<TermJson, string>> = [];
+    const figures = figureMap(resultsJson(ctx, calculateProduct(ctx, rows)), writtenFrom(project!));
+    const cells: Array<Exclude<FlatFigure['terms'][number], string>> = [];
     const seen = new Set<string>();
     const walk = (id: string) => {
       if (seen.has(id)) return;

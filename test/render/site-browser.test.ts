@@ -6,6 +6,8 @@ import { pathToFileURL } from 'node:url';
 import puppeteer, { type Browser, type Page } from 'puppeteer';
 import { CHROMIUM_ARGS, findBrowser } from '../../src/render/browser.ts';
 import { DEMO, ROOT, demoCopy, editFile, removeDir, runCli, tempDir } from '../helpers.ts';
+import { figureMap } from '../figures.ts';
+import type { ResultsJson } from '../../src/report/results.ts';
 
 /**
  * The built site in a real Chromium: every page opens without console errors or failed
@@ -96,7 +98,7 @@ describe.skipIf(!found)('the site in a real Chromium', () => {
   });
 
   it.each(PRODUCTS)('every number on the %s declaration links to its figure in the audit trail and equals results.json as rounded', async (id) => {
-    const results = JSON.parse(await readFile(path.join(out, id, 'results.json'), 'utf8')) as { figures: Record<string, { value: number | null; unit: string }> };
+    const figures = figureMap(JSON.parse(await readFile(path.join(out, id, 'results.json'), 'utf8')) as ResultsJson);
     const { page } = await open(`${id}/index.html`);
     const links = await page.$$eval('a.fig', (anchors) => anchors.map((a) => ({ href: a.getAttribute('href')!, text: a.textContent!.trim(), precise: a.classList.contains('precise') })));
     await page.close();
@@ -106,7 +108,7 @@ describe.skipIf(!found)('the site in a real Chromium', () => {
       const [file, hash] = link.href.split('#');
       expect(file).toBe('audit.html');
       const figureId = decodeURIComponent(hash!);
-      const figure = results.figures[figureId];
+      const figure = figures[figureId];
       expect(figure, `${figureId} is in results.json`).toBeDefined();
       const anchored = await audit.page.evaluate((anchor) => document.getElementById(anchor) !== null, figureId);
       expect(anchored, `${figureId} has an anchor in the audit trail`).toBe(true);
@@ -122,12 +124,11 @@ describe.skipIf(!found)('the site in a real Chromium', () => {
     const { page, errors } = await open(`${id}/audit.html`);
     const dangling = await page.$$eval('a[href^="#"]', (links) => links.map((a) => decodeURIComponent(a.getAttribute('href')!.slice(1))).filter((anchor) => document.getElementById(anchor) === null));
     expect(dangling).toEqual([]);
-    // Follow the links down from A1-A3 (per-indicator term values first, then the figure's terms), depth first, until an input row is reached.
+    // Follow the links down from A1-A3: from the value's cell in its values table to its step, then the step's terms, depth first, until an input row is reached.
     const walked = await page.evaluate((start) => {
       const down = (anchor: string): string[] => {
         const element = document.getElementById(anchor)!;
-        const section = element.tagName === 'TR' ? element.closest('article')! : element;
-        const links = [...(element.tagName === 'TR' ? Array.from(element.querySelectorAll('td a')) : []), ...Array.from(section.querySelectorAll('ul.terms a'))];
+        const links = element.tagName === 'TD' ? Array.from(element.closest('tr')!.querySelectorAll('th a')) : Array.from(element.querySelectorAll('ul.terms a'));
         return links.map((a) => decodeURIComponent(a.getAttribute('href')!.slice(1)));
       };
       const seen = new Set<string>();

@@ -15,9 +15,10 @@ function summary(id: string, a13: number | null, d: number, c4?: number): Result
   const modules: Record<string, Record<string, number | null>> = { 'A1-A3': { 'GWP-total': a13 }, D: { 'GWP-total': d } };
   if (c4 !== undefined) modules.C4 = { 'GWP-total': c4 };
   return {
+    format: 2,
     product_id: id,
     declared_unit: '1 kg',
-    indicators: [{ code: 'GWP-total', unit: 'kg CO2 eq.', name: 'Climate change' }],
+    indicators: [{ code: 'GWP-total', unit: 'kg CO2 eq.', name: 'Climate change', basis: 'factors' }],
     methods: { cutoff: { modules, total: { 'GWP-total': a13 } } },
     flows: { recycled_content: { pre: 0.1, post: 0.2, total: 0.3 }, biogenic_carbon_kg: { product: 0, packaging: 0 }, biogenic_co2_kg: { product: 0, packaging: 0 } },
   };

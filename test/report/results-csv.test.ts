@@ -4,9 +4,10 @@ import { resultsCsv } from '../../src/report/results-csv.ts';
 import type { ResultsSummary } from '../../src/report/results.ts';
 
 const summary = (productId: string): ResultsSummary => ({
+  format: 2,
   product_id: productId,
   declared_unit: '1 kg',
-  indicators: [{ code: 'GWP-total', unit: 'kg CO2 eq.', name: 'Climate change – total' }],
+  indicators: [{ code: 'GWP-total', unit: 'kg CO2 eq.', name: 'Climate change – total', basis: 'factors' }],
   methods: { cutoff: { modules: { A1: { 'GWP-total': -1.5 } }, total: { 'GWP-total': null } } },
   flows: { recycled_content: { pre: 0, post: 0, total: 0 }, biogenic_carbon_kg: { product: 0, packaging: 0 }, biogenic_co2_kg: { product: 0, packaging: 0 } },
 });
