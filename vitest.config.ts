@@ -7,7 +7,8 @@ export default defineConfig({
     // CLI and browser tests start real processes; two cores, so keep the pool small.
     pool: 'forks',
     maxWorkers: 2,
-    testTimeout: 120_000,
+    // Every test under 60 s (a build shared by a file's tests runs in its beforeAll).
+    testTimeout: 60_000,
     hookTimeout: 120_000,
   },
 });

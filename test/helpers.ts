@@ -1,4 +1,4 @@
-import { spawn } from 'node:child_process';
+import { spawn, spawnSync } from 'node:child_process';
 import { cp, mkdtemp, readFile, writeFile, rm, readdir } from 'node:fs/promises';
 import { createHash } from 'node:crypto';
 import os from 'node:os';
@@ -91,3 +91,20 @@ export async function hashTree(dir: string): Promise<Record<string, string>> {
 }
 
 export const removeDir = (dir: string) => rm(dir, { recursive: true, force: true });
+
+/**
+ * Whether a test that needs a tool this machine lacks should be skipped: locally it is, with
+ * a message naming the tool; in CI (CI=true) nothing skips, so a missing tool fails the run
+ * (.ci/run installs every tool the tests use).
+ */
+export function missingTool(tool: string, present: boolean, install: string): boolean {
+  if (present) return false;
+  if (process.env.CI === 'true') throw new Error(`${tool} is required in CI and was not found: ${install}`);
+  console.warn(`\n*** SKIPPING tests that need ${tool}: not found. ${install} ***\n`);
+  return true;
+}
+
+/** Whether a command runs here (`pdftotext -v`, …). */
+export function hasCommand(command: string, args: string[] = ['-v']): boolean {
+  return spawnSync(command, args, { stdio: 'ignore' }).error === undefined;
+}

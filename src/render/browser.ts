@@ -1,4 +1,5 @@
 import { accessSync, constants, existsSync } from 'node:fs';
+import { homedir } from 'node:os';
 import path from 'node:path';
 
 /** A browser loopsheet found, and how, so the build can say which it used. */
@@ -32,7 +33,10 @@ function isExecutable(file: string): boolean {
 
 /**
  * Finds a browser without ever downloading one: PUPPETEER_EXECUTABLE_PATH first, then a
- * Chromium or Chrome on the PATH, then a browser already in puppeteer's cache.
+ * Chromium or Chrome on the PATH, then a browser already in puppeteer's cache. Everything is
+ * read from `env`: puppeteer's own `executablePath()` reads the process's environment as it
+ * was when puppeteer was loaded (its PUPPETEER_EXECUTABLE_PATH and cache folder), so the
+ * cache is looked up here, in the folder `env` names (the newest Chrome installed there).
  */
 export async function findBrowser(env: NodeJS.ProcessEnv = process.env): Promise<FoundBrowser | undefined> {
   const fromEnv = env.PUPPETEER_EXECUTABLE_PATH;
@@ -43,12 +47,12 @@ export async function findBrowser(env: NodeJS.ProcessEnv = process.env): Promise
       if (isExecutable(candidate)) return { executablePath: candidate, how: 'PATH' };
     }
   }
-  try {
-    const { default: puppeteer } = await import('puppeteer');
-    const cached = puppeteer.executablePath();
-    if (cached && existsSync(cached) && isExecutable(cached)) return { executablePath: cached, how: 'puppeteer cache' };
-  } catch {
-    // No cached browser: puppeteer throws when its default download is absent.
-  }
-  return undefined;
+  const { Browser, Cache } = await import('@puppeteer/browsers');
+  // puppeteer's default cache folder (its getConfiguration): ~/.cache/puppeteer.
+  const cacheDir = env.PUPPETEER_CACHE_DIR ?? path.join(homedir(), '.cache', 'puppeteer');
+  const cached = new Cache(cacheDir)
+    .getInstalledBrowsers()
+    .filter((installed) => installed.browser === Browser.CHROME && existsSync(installed.executablePath) && isExecutable(installed.executablePath))
+    .sort((a, b) => (a.buildId < b.buildId ? 1 : -1))[0];
+  return cached ? { executablePath: cached.executablePath, how: 'puppeteer cache' } : undefined;
 }

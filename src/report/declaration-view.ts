@@ -11,7 +11,7 @@ import { factorHref, figureHref } from './figure-links.ts';
 import { formatInput, formatScientific, formatShare } from './format.ts';
 import { resultFigureId, type ResultsSummary } from './results.ts';
 import type { CffMethod } from '../calc/cff.ts';
-import { figureId, processStep } from '../trace/ids.ts';
+import { figureId, processStep, processStepOf } from '../trace/ids.ts';
 import { sensitivityView, type SensitivityView } from './sensitivity-view.ts';
 
 /**
@@ -209,10 +209,10 @@ function processModels(ctx: CalcContext, result: ProductResult, sci: (v: number 
   // One pass over the graph: the scalar steps of each process, by process id.
   const stepsOf = new Map<string, ProcessModelView['steps']>();
   for (const node of result.graph.nodes.values()) {
-    if (node.kind !== 'scalar' || !node.id.startsWith('process/')) continue;
-    const [, processId, ...name] = node.id.split('/');
-    if (!stepsOf.has(processId!)) stepsOf.set(processId!, []);
-    stepsOf.get(processId!)!.push({ name: name.join('/'), value: { text: formatInput(node.value), href: figureHref(node.id) }, unit: node.unit, formula: node.formula, description: node.description });
+    const step = processStepOf(node.id);
+    if (node.kind !== 'scalar' || !step) continue;
+    if (!stepsOf.has(step.processId)) stepsOf.set(step.processId, []);
+    stepsOf.get(step.processId)!.push({ name: step.name, value: { text: formatInput(node.value), href: figureHref(node.id) }, unit: node.unit, formula: node.formula, description: node.description });
   }
   const views: ProcessModelView[] = [];
   for (const definition of ctx.project.processes) {

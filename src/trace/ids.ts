@@ -73,6 +73,12 @@ export const processStep = {
   factor: (processId: string) => `process/${processId}/factor`,
 };
 
+/** A process model's step read back (`process/<id>/<name>` → id and name); undefined for any other step. */
+export function processStepOf(step: string): { processId: string; name: string } | undefined {
+  const [group, processId, ...name] = step.split('/');
+  return group === 'process' && processId !== undefined && name.length > 0 ? { processId, name: name.join('/') } : undefined;
+}
+
 /** Site rows shared among products (ISO 14044 §4.3.4): the key, Σ keys and share of one site, period and key. */
 export const allocationStep = (site: string, period: string, key: string, part: 'key' | 'total' | 'share') => `allocation/${site}/${period}/${key}/${part}`;
 

@@ -5,7 +5,7 @@ import path from 'node:path';
 import { pathToFileURL } from 'node:url';
 import puppeteer, { type Browser, type Page } from 'puppeteer';
 import { CHROMIUM_ARGS, findBrowser } from '../../src/render/browser.ts';
-import { DEMO, ROOT, demoCopy, editFile, removeDir, runCli, tempDir } from '../helpers.ts';
+import { DEMO, ROOT, demoCopy, editFile, missingTool, removeDir, runCli, tempDir } from '../helpers.ts';
 import { figureMap } from '../figures.ts';
 import type { ResultsJson } from '../../src/report/results.ts';
 
@@ -20,7 +20,7 @@ const PRODUCTS = ['KV-EXT-6060', 'KV-CU-BB10', 'KV-BR-40', 'KV-EXT-6060-T19', 'K
 const ARTIFACTS = path.join(ROOT, 'test', 'artifacts');
 
 const found = await findBrowser();
-if (!found) console.warn('\n*** SKIPPING BROWSER TESTS: no Chromium or Chrome found (PUPPETEER_EXECUTABLE_PATH, PATH, puppeteer cache). .ci/run installs Debian’s chromium. ***\n');
+const skip = missingTool('Chromium or Chrome (PUPPETEER_EXECUTABLE_PATH, PATH or the puppeteer cache)', found !== undefined, 'apt-get install chromium, as .ci/run does.');
 
 const dirs: string[] = [];
 let browser: Browser | undefined;
@@ -80,7 +80,7 @@ async function htmlPages(root: string): Promise<string[]> {
 /** Three significant figures in scientific notation, as the declaration prints by default (declaration.json report.significant_figures). */
 const declared = (value: number | null): string => (value === null ? 'n/a' : value.toExponential(2));
 
-describe.skipIf(!found)('the site in a real Chromium', () => {
+describe.skipIf(skip)('the site in a real Chromium', () => {
   it('opens every page with no console error, page error or failed request', async () => {
     const pages = await htmlPages(out);
     // catalogue, factor table, verification pack, and a declaration and an audit trail per product

@@ -4,7 +4,7 @@ import { readFile, stat } from 'node:fs/promises';
 import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { findBrowser } from '../../src/render/browser.ts';
-import { DEMO, buildFresh, demoCopy, editFile, removeDir, runCli, tempDir } from '../helpers.ts';
+import { DEMO, buildFresh, demoCopy, editFile, hasCommand, missingTool, removeDir, runCli, tempDir } from '../helpers.ts';
 
 const dirs: string[] = [];
 afterAll(async () => Promise.all(dirs.map(removeDir)));
@@ -32,10 +32,8 @@ describe('input text is escaped on every page', () => {
 });
 
 describe('PDF in a real Chromium', async () => {
-  const browser = await findBrowser();
-  if (!browser) {
-    console.warn('\n*** SKIPPING PDF TESTS: no Chromium or Chrome found (PUPPETEER_EXECUTABLE_PATH, PATH, puppeteer cache). .ci/run installs Debian’s chromium. ***\n');
-  }
+  const browser = !missingTool('Chromium or Chrome (PUPPETEER_EXECUTABLE_PATH, PATH or the puppeteer cache)', (await findBrowser()) !== undefined, 'apt-get install chromium, as .ci/run does.');
+  const pdftotext = !missingTool('pdftotext (poppler-utils)', hasCommand('pdftotext'), 'apt-get install poppler-utils, as .ci/run does.');
   let out = '';
   let stderr = '';
   beforeAll(async () => {
@@ -57,14 +55,8 @@ describe('PDF in a real Chromium', async () => {
     }
   });
 
-  it.skipIf(!browser)('the PDF has text, the draft banner and the illustrative label (read with poppler pdftotext)', () => {
-    let text: string;
-    try {
-      text = execFileSync('pdftotext', ['-layout', path.join(out, 'KV-CU-BB10', 'declaration.pdf'), '-'], { encoding: 'utf8' });
-    } catch {
-      console.warn('*** pdftotext (poppler-utils) not installed: PDF text not checked ***');
-      return;
-    }
+  it.skipIf(!browser || !pdftotext)('the PDF has text, the draft banner and the illustrative label (read with poppler pdftotext)', () => {
+    const text = execFileSync('pdftotext', ['-layout', path.join(out, 'KV-CU-BB10', 'declaration.pdf'), '-'], { encoding: 'utf8' });
     expect(text).toContain('Draft — not verified.');
     expect(text).toContain('Illustrative data.');
     expect(text).toContain('Copper busbar 10 × 100 mm');
@@ -87,16 +79,10 @@ describe('PDF in a real Chromium', async () => {
     expect(readFileSync(path.join(out, 'KV-CU-BB10', 'declaration.pdf'), 'latin1')).not.toContain('file://');
   });
 
-  it.skipIf(!browser)('prints the family page with its weighted averages, the draft status on every page (poppler pdftotext)', async () => {
+  it.skipIf(!browser || !pdftotext)('prints the family page with its weighted averages, the draft status on every page (poppler pdftotext)', async () => {
     const file = path.join(out, 'families', 'profiles-6060-mill', 'declaration.pdf');
     expect((await readFile(file)).subarray(0, 5).toString()).toBe('%PDF-');
-    let text: string;
-    try {
-      text = execFileSync('pdftotext', ['-layout', file, '-'], { encoding: 'utf8' });
-    } catch {
-      console.warn('*** pdftotext (poppler-utils) not installed: PDF text not checked ***');
-      return;
-    }
+    const text = execFileSync('pdftotext', ['-layout', file, '-'], { encoding: 'utf8' });
     const family = JSON.parse(readFileSync(path.join(out, 'families', 'profiles-6060-mill', 'results.json'), 'utf8'));
     expect(text).toContain('Extruded hollow profiles, EN AW-6060, mill finish');
     expect(text).toContain(family.methods.cutoff.modules['A1-A3']['GWP-total'].mean.toExponential(2));
