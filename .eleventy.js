@@ -6,9 +6,8 @@ export default function (eleventyConfig) {
   // Input text reaches the page escaped: autoescape stays on, and no `| safe` on input text.
   eleventyConfig.setNunjucksEnvironmentOptions({ autoescape: true, throwOnUndefined: false });
   eleventyConfig.setQuietMode(true);
-  // Eleventy warns on stderr when one filter takes more than 8 % of a run; auditGroup (added
-  // by src/render/site.ts) does by design (it renders most of an audit page). Timing is npm
-  // run bench's job.
+  // Eleventy warns on stderr when one part takes more than 8 % of a run; timing is npm run
+  // bench's job.
   eleventyConfig.benchmarkManager.get('Configuration').setMinimumThresholdPercent(100);
   // Relative links, so that out/ opens from disk (file://) as well as from a server.
   eleventyConfig.addFilter('rootPath', (depth) => (depth > 0 ? '../'.repeat(depth) : './'));

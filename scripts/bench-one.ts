@@ -43,7 +43,7 @@ if (flag === '--calc') {
   for (const rows of all) nodes += calculateProduct(ctx, rows).graph.nodes.size;
   calcMs = performance.now() - calcStart;
   calcPeakRssMb = process.resourceUsage().maxRSS / 1024;
-  // Serialising results.json (figures expanded per indicator), on the first 100 products.
+  // Serialising results.json (format 2: one entry per step), on the first 100 products.
   const jsonStart = performance.now();
   for (const rows of all.slice(0, 100)) {
     const result = calculateProduct(ctx, rows);

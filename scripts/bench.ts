@@ -14,7 +14,7 @@ import { benchBuild, type BuildBench } from './bench-build.ts';
 const workers = defaultWorkers();
 
 const sizes = (process.env.BENCH_SIZES ?? '100,1000,10000').split(',').map(Number);
-const renderSizes = new Set((process.env.BENCH_RENDER_SIZES ?? '100,1000').split(',').map(Number));
+const renderSizes = new Set((process.env.BENCH_RENDER_SIZES ?? '100,1000,10000').split(',').map(Number));
 const root = await mkdtemp(path.join(os.tmpdir(), 'loopsheet-bench-'));
 const runTs = path.resolve('bin/run-ts.js');
 
@@ -71,6 +71,9 @@ let pdfMeasured = false;
 let pdfRate = 0;
 const sizeRows: string[] = [];
 const mcRows: string[] = [];
+/** What each rendered size measured, for the targets table. */
+const built = new Map<number, { totalMs: number; floorMs: number; peakTreeMb: number; outBytes: number; incrementalShare: number }>();
+let pdfFloorRatio = NaN;
 try {
   for (const products of sizes) {
     const dir = path.join(root, `p${products}`);
@@ -90,6 +93,7 @@ try {
         if (built.pdf.count > 0) {
           pdfMeasured = true;
           pdfRate = built.pdf.count / (built.pdf.toolMs / 1000);
+          pdfFloorRatio = built.pdf.toolMs / built.pdf.floorMs;
           const rate = (ms: number) => (built.pdf.count / (ms / 1000)).toFixed(2);
           pdfRows.push(`| ${built.pdf.count} | ${seconds(built.pdf.toolMs)} | ${rate(built.pdf.toolMs)} /s | ${seconds(built.pdf.floorMs)} | ${rate(built.pdf.floorMs)} /s | ${(built.pdf.toolMs / built.pdf.floorMs).toFixed(2)}× |`);
         }
@@ -101,6 +105,7 @@ try {
       const floor = check.floorMs + b.floorMs;
       const noPdf = b.totalMs;
       const pdfMs = pdfRate > 0 ? (products / pdfRate) * 1000 : NaN;
+      built.set(products, { totalMs: noPdf, floorMs: floor, peakTreeMb: b.peakTreeRssMb, outBytes: b.outBytes, incrementalShare: b.incremental.ms / noPdf });
       buildRows.push(
         `| ${products.toLocaleString('en')} | ${seconds(phase('load and validate'))} | ${seconds(phase('calculate and render'))} | ${seconds(phase('verification manifest'))} | **${seconds(noPdf)}** | ${Number.isNaN(pdfMs) ? '—' : seconds(pdfMs)} | ${(b.peakTreeRssMb / 1024).toFixed(2)} GB | ${(b.peakMainRssMb / 1024).toFixed(2)} GB | ${(b.outBytes / 1e9).toFixed(2)} GB | ${seconds(floor)} | ${(noPdf / floor).toFixed(1)}× | ${seconds(b.incremental.ms)} (${range(b.incremental.range)}; ${b.incremental.rebuilt} of ${b.incremental.of} rebuilt) | ${((100 * b.incremental.ms) / noPdf).toFixed(1)} % |`,
       );
@@ -120,6 +125,18 @@ try {
 } finally {
   await rm(root, { recursive: true, force: true });
 }
+
+// The targets of the catalogue build (40 lines × 25 indicators, 2 cores, no PDF), each beside what this run measured.
+const targetRows: string[] = [];
+const target = (name: string, goal: string, value: string, met: boolean | undefined) => targetRows.push(`| ${name} | ${goal} | ${value} | ${met === undefined ? 'not measured' : met ? 'met' : '**not met**'} |`);
+const at = (n: number) => built.get(n);
+const largest = Math.max(...built.keys());
+if (at(largest)) target('out/ per product', '≤ 0.6 MB', `${(at(largest)!.outBytes / largest / 1e6).toFixed(2)} MB (${largest.toLocaleString('en')} products)`, at(largest)!.outBytes / largest <= 0.6e6);
+if (at(1000)) target('1 000 products', '≤ 10 s', seconds(at(1000)!.totalMs), at(1000)!.totalMs <= 10_000);
+if (at(10000)) target('10 000 products', '≤ 60 s and ≤ 2 GB (all processes)', `${seconds(at(10000)!.totalMs)}, ${(at(10000)!.peakTreeMb / 1024).toFixed(2)} GB`, at(10000)!.totalMs <= 60_000 && at(10000)!.peakTreeMb <= 2048);
+for (const [n, b] of [...built].sort(([a], [c]) => a - c)) target(`build / floor, ${n.toLocaleString('en')} products`, '≤ 1.5×', `${(b.totalMs / b.floorMs).toFixed(1)}× (floor ${seconds(b.floorMs)})`, b.totalMs / b.floorMs <= 1.5);
+if (at(1000)) target('build --changed, 1 000 products', '< 5 % of the full build', `${(100 * at(1000)!.incrementalShare).toFixed(1)} %`, at(1000)!.incrementalShare < 0.05);
+target('PDF', '≥ 1 declaration/s, ≤ 1.3× the bare-Chromium floor', Number.isNaN(pdfFloorRatio) ? '—' : `${pdfRate.toFixed(2)} /s, ${pdfFloorRatio.toFixed(2)}×`, Number.isNaN(pdfFloorRatio) ? undefined : pdfRate >= 1 && pdfFloorRatio <= 1.3);
 
 process.stdout.write(`
 loopsheet bench — ${os.cpus().length} cores, Node ${process.version}, 40 BOM lines × 25 indicators per product, best of ${repeat} runs (range)
@@ -155,4 +172,10 @@ Per product (200 products × 40 lines × 25 indicators; every factor, BOM mass a
 | calculation | data quality | contributions and sensitivity | Monte Carlo, N = 1 000 | inputs varied per product |
 |---:|---:|---:|---:|---:|
 ${mcRows.join('\n')}
+
+Targets (measured in this run):
+
+| target | goal | measured | |
+|---|---|---:|---|
+${targetRows.join('\n')}
 `);

@@ -1,45 +1,63 @@
 import nunjucks from 'nunjucks';
-import type { AuditGroup, AuditLink } from '../report/audit-view.ts';
-import { valuesAnchor } from '../report/audit-view.ts';
+import type { AuditStep, AuditView } from '../report/audit-view.ts';
 import { fragment } from '../report/figure-links.ts';
+import { formatInput } from '../report/format.ts';
 
 // Nunjucks' own escaping (the one autoescape uses); its type declarations leave it out.
 const { escape } = nunjucks.lib as unknown as { escape: (text: string) => string };
 
+const number = (value: number): string => (Number.isNaN(value) ? 'n/a' : formatInput(value));
+
 /**
- * One group of an audit page (src/report/audit-view.ts): a section per step, then the
- * group's values table. An audit page holds hundreds of steps and thousands of values; as
- * Nunjucks loops they were most of the build's time (each iteration sets several loop
- * variables), as a string writer a fraction. Only formats: every text is escaped here, and
- * the template marks the result safe so that it is not escaped twice.
+ * The body of an audit page (src/report/audit-view.ts) as HTML: a section per group with an
+ * entry per step and the group's values table, then the input rows. An audit page holds
+ * hundreds of steps and thousands of values: written here in one pass, as a string, it costs
+ * a fraction of Nunjucks loops over the same view. Only formats: every text is escaped here;
+ * the template takes the result as it is (a SafeString). Optional end tags (`</td>`, `</tr>`,
+ * `</li>`) are left out, as HTML allows, to keep the page small.
  */
-export function auditGroupHtml(group: AuditGroup, indicators: readonly string[], groupTitle = group.title): string {
+export function auditHtml(view: AuditView): nunjucks.runtime.SafeString {
   let html = '';
-  const links = (list: AuditLink[]) => list.map((u) => `<a href="${escape(u.href)}">${escape(u.text)}</a>`).join(', ');
-  for (const step of group.steps) {
-    const id = escape(step.id);
-    html += `<article class="figure" id="${id}"><h3><code>${id}</code>`;
-    if (step.value !== undefined) html += ` = ${escape(step.value)} ${escape(step.unit ?? '')}`;
-    if (step.vector) html += ` <a class="to-values" href="#${escape(fragment(valuesAnchor(step.id)))}">values</a>`;
-    html += `</h3><p>${escape(step.description)}</p><p class="formula"><code>${escape(step.formula)}</code></p>`;
-    if (step.terms.length > 0) {
-      html += '<ul class="terms">';
-      for (const t of step.terms) html += `<li><code>${escape(t.symbol)}</code> → <a href="${escape(t.target.href)}">${escape(t.target.text)}</a>${t.value === undefined ? '' : ` = ${escape(t.value)}`}</li>`;
-      html += '</ul>';
+  const codes = view.indicators.map(escape);
+  view.groups.forEach((group, g) => {
+    html += `<section class="block" id="group-${g + 1}"><h2>${escape(group.title)}</h2>`;
+    for (const step of group.steps) html += stepHtml(step);
+    const rows = group.steps.filter((step) => step.values);
+    if (rows.length > 0) {
+      html += `<div class="scroll" tabindex="0" role="region" aria-label="Values per indicator: ${escape(group.title)}"><table class="grid values"><caption>Values per indicator, six significant figures (units above)</caption><thead><tr><th scope="col">Step`;
+      for (const code of codes) html += `<th scope="col">${code}`;
+      html += '<tbody>';
+      for (const step of rows) {
+        const values = step.values!;
+        html += `<tr id="${escape(values.anchor)}"><th scope="row"><a href="#${escape(fragment(step.anchor))}">${escape(step.id)}</a>`;
+        if (values.linked) {
+          const prefix = escape(`${step.id}/`);
+          for (let i = 0; i < codes.length; i++) html += `<td id="${prefix}${codes[i]}" data-code="${codes[i]}">${number(values.numbers[i]!)}`;
+        } else {
+          for (let i = 0; i < codes.length; i++) html += `<td>${number(values.numbers[i]!)}`;
+        }
+      }
+      html += '</table></div>';
     }
-    if (step.usedBy.length > 0) html += `<p class="used-by">Used by: ${links(step.usedBy)}</p>`;
-    html += '</article>';
+    html += '</section>';
+  });
+  html += '<section class="block" id="inputs"><h2>Input rows</h2><p class="note">Each input row this product’s figures read, exactly as it appears in its file.</p>';
+  for (const file of view.inputs) {
+    html += `<h3>${escape(file.file)}</h3>`;
+    for (const row of file.rows) html += `<div class="input-row" id="${escape(row.anchor)}"><p><code class="loc">${escape(file.file)}:${row.line}</code></p><pre>${escape(row.written)}</pre></div>`;
   }
-  if (group.values.length === 0) return html;
-  html += `<div class="scroll" tabindex="0" role="region" aria-label="Values per indicator: ${escape(groupTitle)}"><table class="grid values"><caption>Values per indicator (six significant figures; units as listed above)</caption><thead><tr><th scope="col">Step</th>`;
-  for (const code of indicators) html += `<th scope="col">${escape(code)}</th>`;
-  html += '</tr></thead><tbody>';
-  for (const row of group.values) {
-    html += `<tr id="${escape(valuesAnchor(row.step))}"><th scope="row"><a href="#${escape(fragment(row.step))}">${escape(row.step)}</a></th>`;
-    row.cells.forEach((cell, i) => {
-      html += cell.anchor === undefined ? `<td>${escape(cell.text)}</td>` : `<td id="${escape(cell.anchor)}" data-code="${escape(indicators[i]!)}">${escape(cell.text)}</td>`;
-    });
-    html += '</tr>';
+  return new nunjucks.runtime.SafeString(`${html}</section>`);
+}
+
+function stepHtml(step: AuditStep): string {
+  let html = `<div class="step" id="${escape(step.anchor)}"><h3><code>${escape(step.id)}</code>`;
+  if (step.value !== undefined) html += ` = ${escape(step.value)} ${escape(step.unit ?? '')}`;
+  if (step.values) html += ` <a class="to-values" href="#${escape(fragment(step.values.anchor))}">values</a>`;
+  html += `</h3><p>${escape(step.description)} <code class="formula">${escape(step.formula)}</code>`;
+  if (step.terms.length > 0) {
+    html += '<ul class="terms">';
+    for (const t of step.terms) html += `<li><a href="${escape(t.href)}">${escape(t.symbol)}</a>${escape(t.note)}`;
+    html += '</ul>';
   }
-  return `${html}</tbody></table></div>`;
+  return `${html}</div>`;
 }

@@ -10,6 +10,7 @@ import { RESULTS_FORMAT, resultsJsonText, resultsSummary, type ResultsSummary } 
 import { auditView } from '../report/audit-view.ts';
 import { declarationResultsView } from '../report/declaration-view.ts';
 import type { ProductReport } from '../report/site-view.ts';
+import { auditHtml } from './audit-html.ts';
 import { renderChartSvg } from './charts.ts';
 import { productInputKey, productReach, readsOutside } from './input-key.ts';
 
@@ -45,7 +46,9 @@ export class ResultsWriter {
     const outside = readsOutside(ctx.project, productReach(ctx.project, rows), product.graph);
     // A row the key does not cover would let `build --changed` keep a stale product: stop instead.
     if (outside) throw new Error(`internal: figure ${outside.figure} of ${summary.product_id} reads ${outside.file} line ${outside.line}, which its input key does not cover (src/render/input-key.ts productReach); please report this`);
-    return { report: { summary, results: view, audit: auditView(ctx.project, product) }, key: productInputKey(ctx.project, rows, this.context).key };
+    const audit = auditView(ctx.project, product);
+    audit.html = auditHtml(audit);
+    return { report: { summary, results: view, audit }, key: productInputKey(ctx.project, rows, this.context).key };
   }
 
 }

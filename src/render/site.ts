@@ -1,8 +1,5 @@
 import Eleventy from '@11ty/eleventy';
-import nunjucks from 'nunjucks';
-import type { AuditGroup } from '../report/audit-view.ts';
 import type { SiteView } from '../report/site-view.ts';
-import { auditGroupHtml } from './audit-html.ts';
 import { ELEVENTY_CONFIG, PACKAGE_ROOT, TEMPLATES_DIR } from './paths.ts';
 
 /** Renders the HTML pages with Eleventy: one template per page kind, paginated over products. */
@@ -15,10 +12,8 @@ export async function renderSite(view: SiteView, outDir: string): Promise<void> 
     const eleventy = new Eleventy(TEMPLATES_DIR, outDir, {
       configPath: ELEVENTY_CONFIG,
       quietMode: true,
-      config: (config: { addGlobalData: (name: string, value: unknown) => void; addFilter: (name: string, filter: (...args: never[]) => unknown) => void }) => {
+      config: (config: { addGlobalData: (name: string, value: unknown) => void }) => {
         config.addGlobalData('site', view);
-        // The bulk of an audit page, written by a string writer (src/render/audit-html.ts) and marked safe: it escapes every text itself.
-        config.addFilter('auditGroup', (group: AuditGroup, indicators: string[]) => new nunjucks.runtime.SafeString(auditGroupHtml(group, indicators)));
       },
     });
     // The build reports its own progress; Eleventy's summary line would land on stdout.

@@ -1,65 +1,50 @@
 import type { Project } from '../model/types.ts';
 import type { ProductResult } from '../calc/product.ts';
 import type { FigureGraph, FigureNode, Term } from '../trace/graph.ts';
-import { figureId, processStep, resultStep, stepGroup, type ResultMethod } from '../trace/ids.ts';
+import { processStep, resultStep, stepGroup, type ResultMethod } from '../trace/ids.ts';
 import { fragment, inputAnchor } from './figure-links.ts';
 import { formatInput } from './format.ts';
 import { physicalLines } from './written.ts';
 
 /**
- * The audit trail of one product, as one page, in the shape of the calculation: one section
- * per step with its formula and terms (each a link down, to another step or to the input row
- * as written, with its value where it has one) and the steps that use it (the way up). A
- * vector step's values, one per indicator, are a row of its group's values table, whose
- * columns are the indicators, so indicator codes are written once per group, not once per
- * step: a 40-line product's page stays a few hundred kilobytes (docs/performance.md). A
- * verifier recomputes a figure from the step's terms and, one click away, their rows of the
- * values table. The values a declaration page links to (`step/indicator`) carry that anchor.
+ * The audit trail of one product, as one page, in the shape of the calculation: one entry
+ * per step with its formula and terms (each a link down, to another step or to the input
+ * row as written, with its value where it has one), and for a step with a value per
+ * indicator a row of its group's values table, whose columns are the indicators (codes
+ * written once per group, not once per step). A verifier recomputes a figure from the step's
+ * terms and, one click away, their rows of the values table; the page's script adds the way
+ * up (“used by”) from the same links. A 40-line × 25-indicator product's page stays within a
+ * few hundred kilobytes (docs/performance.md).
+ *
+ * Anchors: a step that other pages link to (the results' modules, parts and totals, their
+ * flow indicators, product flows, process models, site shares) is anchored by its step id,
+ * and each of its values by its figure id `<step>/<indicator>`; any other step by `s<k>`,
+ * its index in results.json `graph.steps`, and its values row by `v<k>`.
  */
-export interface AuditLink {
-  text: string;
-  href: string;
-}
-
 export interface AuditTerm {
   symbol: string;
-  /** What the term is: a step id or `file:line column`. */
-  target: AuditLink;
-  /** Its value, where it does not vary by indicator (scalar steps, cells). */
-  value?: string;
+  href: string;
+  /** What it is and its value where it does not vary by indicator: ` = 1.25 kg`, `mass_kg “0.83”`, `factor al-primary-ingot`. */
+  note: string;
 }
 
 export interface AuditStep {
+  /** Its element id. */
+  anchor: string;
   id: string;
   description: string;
   formula: string;
-  /** A scalar step's value and unit. */
+  /** A scalar step's value and unit, formatted. */
   value?: string;
   unit?: string;
-  /** A vector step: its values are a row of the group's values table. */
-  vector: boolean;
   terms: AuditTerm[];
-  usedBy: AuditLink[];
-}
-
-export interface AuditValuesRow {
-  step: string;
-  /** One per indicator of the page, formatted; `anchor` where a page links to that value. */
-  cells: Array<{ text: string; anchor?: string }>;
+  /** A step with one value per indicator: its row of the group's values table. */
+  values?: { anchor: string; numbers: readonly number[]; linked: boolean };
 }
 
 export interface AuditGroup {
   title: string;
   steps: AuditStep[];
-  values: AuditValuesRow[];
-}
-
-export interface AuditInputRow {
-  anchor: string;
-  line: number;
-  label: string;
-  written: string;
-  usedBy: AuditLink[];
 }
 
 export interface AuditView {
@@ -67,9 +52,11 @@ export interface AuditView {
   /** The indicator codes of the values tables' columns. */
   indicators: string[];
   groups: AuditGroup[];
-  inputs: Array<{ file: string; rows: AuditInputRow[] }>;
+  inputs: Array<{ file: string; rows: Array<{ anchor: string; line: number; written: string }> }>;
   stepCount: number;
   figureCount: number;
+  /** The page's body, filled in by the renderer (src/render/audit-html.ts). */
+  html?: unknown;
 }
 
 const GROUP_TITLES: Record<string, string> = {
@@ -84,14 +71,15 @@ const GROUP_TITLES: Record<string, string> = {
   allocation: 'Site data shared among products (ISO 14044 §4.3.4)',
 };
 
-const show = (value: number): string => (Number.isNaN(value) ? 'n/a' : formatInput(value));
-const local = (id: string): string => `#${fragment(id)}`;
-/** The anchor of a vector step's row in its group's values table. */
-export const valuesAnchor = (step: string): string => `values:${step}`;
+/** Groups whose steps other pages link to by id (product flows, process models, site shares). */
+const LINKED_GROUPS = new Set(['flows', 'process', 'allocation']);
 
-/** The vector steps whose values other pages link to: the results' modules, parts and totals, and each process's factor. */
+const show = (value: number): string => (Number.isNaN(value) ? 'n/a' : formatInput(value));
+
+/** The vector steps whose values other pages link to, and the scalar steps of the results' flow indicators. */
 function linkedSteps(result: ProductResult, project: Project): Set<string> {
   const linked = new Set<string>([result.cutoff.total, ...Object.values(result.cutoff.modules)]);
+  for (const flows of [...Object.values(result.flows.moduleFlows), result.flows.totalFlows]) for (const id of Object.values(flows)) linked.add(id);
   for (const [method, r] of Object.entries(result.methods)) {
     linked.add(resultStep(method as ResultMethod, 'total'));
     for (const part of Object.keys(r!.parts)) linked.add(resultStep(method as ResultMethod, part));
@@ -102,51 +90,43 @@ function linkedSteps(result: ProductResult, project: Project): Set<string> {
 
 export function auditView(project: Project, result: ProductResult): AuditView {
   const { graph } = result;
-  const files = inputFiles(project);
-  const usedBy = new Map<string, string[]>();
-  const inputs = new Map<string, { file: string; line: number; users: string[] }>();
-  const useInput = (file: string, line: number, nodeId: string) => {
-    const key = inputAnchor(file, line);
-    let entry = inputs.get(key);
-    if (!entry) inputs.set(key, (entry = { file, line, users: [] }));
-    if (entry.users[entry.users.length - 1] !== nodeId) entry.users.push(nodeId);
-  };
-  for (const node of graph.nodes.values()) {
-    for (const term of node.terms) {
-      if (term.kind === 'figure') {
-        const users = usedBy.get(term.id) ?? [];
-        if (users[users.length - 1] !== node.id) users.push(node.id);
-        usedBy.set(term.id, users);
-      } else if (term.kind === 'cell') useInput(term.cell.file, term.cell.line, node.id);
-      else useInput(term.factor.file, term.factor.line, node.id);
-    }
-  }
-
   const linked = linkedSteps(result, project);
+  // The anchor of each step, by the order of the graph (that of results.json graph.steps).
+  const anchors = new Map<string, string>();
+  let k = 0;
+  for (const node of graph.nodes.values()) {
+    anchors.set(node.id, linked.has(node.id) || LINKED_GROUPS.has(stepGroup(node.id)) ? node.id : `s${k}`);
+    k++;
+  }
+  const inputs = new Map<string, { file: string; line: number }>();
   const groups = new Map<string, AuditGroup>();
   let figureCount = 0;
+  k = 0;
   for (const node of graph.nodes.values()) {
     const key = stepGroup(node.id);
     let group = groups.get(key);
-    if (!group) groups.set(key, (group = { title: GROUP_TITLES[key] ?? key, steps: [], values: [] }));
-    group.steps.push(stepView(graph, node, (usedBy.get(node.id) ?? []).map((id) => ({ text: id, href: local(id) }))));
-    if (node.kind === 'vector') {
-      const anchored = linked.has(node.id);
-      group.values.push({ step: node.id, cells: graph.indicators.map((code, i) => ({ text: show(node.values[i]!), ...(anchored ? { anchor: figureId(node.id, code) } : {}) })) });
+    if (!group) groups.set(key, (group = { title: GROUP_TITLES[key] ?? key, steps: [] }));
+    const terms = node.terms.map((term) => termView(graph, term, anchors, inputs));
+    const anchor = anchors.get(node.id)!;
+    const step: AuditStep = { anchor, id: node.id, description: node.description, formula: node.formula, terms };
+    if (node.kind === 'scalar') {
+      step.value = show(node.value);
+      step.unit = node.unit;
+      figureCount++;
+    } else {
+      const isLinked = anchor === node.id;
+      step.values = { anchor: isLinked ? `values:${node.id}` : `v${k}`, numbers: node.values, linked: isLinked };
+      figureCount += graph.indicators.length;
     }
-    figureCount += node.kind === 'vector' ? graph.indicators.length : 1;
+    group.steps.push(step);
+    k++;
   }
 
-  const byFile = new Map<string, AuditInputRow[]>();
+  const files = inputFiles(project);
+  const byFile = new Map<string, AuditView['inputs'][number]['rows']>();
   for (const [anchor, entry] of [...inputs].sort(([, a], [, b]) => (a.file === b.file ? a.line - b.line : a.file < b.file ? -1 : 1))) {
     if (!byFile.has(entry.file)) byFile.set(entry.file, []);
-    byFile.get(entry.file)!.push({
-      anchor,
-      line: entry.line,
-      label: `${entry.file}:${entry.line}`,
-      written: (files.has(entry.file) ? physicalLines(files.get(entry.file)!) : [])[entry.line - 1] ?? '',
-      usedBy: entry.users.map((id) => ({ text: id, href: local(id) })),
-    });
+    byFile.get(entry.file)!.push({ anchor, line: entry.line, written: (files.has(entry.file) ? physicalLines(files.get(entry.file)!) : [])[entry.line - 1] ?? '' });
   }
 
   return {
@@ -159,22 +139,21 @@ export function auditView(project: Project, result: ProductResult): AuditView {
   };
 }
 
-function stepView(graph: FigureGraph, node: FigureNode, usedBy: AuditLink[]): AuditStep {
-  const terms: AuditTerm[] = node.terms.map((term) => termView(graph, term));
-  const head = { id: node.id, description: node.description, formula: node.formula, terms, usedBy };
-  return node.kind === 'scalar' ? { ...head, vector: false, value: show(node.value), unit: node.unit } : { ...head, vector: true };
-}
-
-function termView(graph: FigureGraph, term: Term): AuditTerm {
+function termView(graph: FigureGraph, term: Term, anchors: ReadonlyMap<string, string>, inputs: Map<string, { file: string; line: number }>): AuditTerm {
+  const input = (file: string, line: number) => {
+    const anchor = inputAnchor(file, line);
+    if (!inputs.has(anchor)) inputs.set(anchor, { file, line });
+    return `#${fragment(anchor)}`;
+  };
   switch (term.kind) {
     case 'figure': {
-      const target = graph.get(term.id);
-      return { symbol: term.symbol, target: { text: term.id, href: local(term.id) }, ...(target?.kind === 'scalar' ? { value: `${show(target.value)} ${target.unit}` } : {}) };
+      const target: FigureNode | undefined = graph.get(term.id);
+      return { symbol: term.symbol, href: `#${fragment(anchors.get(term.id)!)}`, note: target?.kind === 'scalar' ? ` = ${show(target.value)} ${target.unit}` : '' };
     }
     case 'cell':
-      return { symbol: term.symbol, target: { text: `${term.cell.file}:${term.cell.line} ${term.cell.column}`, href: local(inputAnchor(term.cell.file, term.cell.line)) }, value: `“${term.cell.value}”` };
+      return { symbol: term.symbol, href: input(term.cell.file, term.cell.line), note: ` ${term.cell.column === term.symbol ? '' : `${term.cell.column} `}“${term.cell.value}”` };
     case 'factor':
-      return { symbol: term.symbol, target: { text: `${term.factor.file}:${term.factor.line} (factor ${term.factor.factorId}, the indicator’s column)`, href: local(inputAnchor(term.factor.file, term.factor.line)) } };
+      return { symbol: term.symbol, href: input(term.factor.file, term.factor.line), note: ` factor ${term.factor.factorId}` };
   }
 }
 

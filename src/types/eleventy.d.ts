@@ -3,7 +3,7 @@ declare module '@11ty/eleventy' {
   interface EleventyOptions {
     configPath?: string;
     quietMode?: boolean;
-    config?: (eleventyConfig: { addGlobalData: (name: string, value: unknown) => void; addFilter: (name: string, filter: (...args: never[]) => unknown) => void }) => void;
+    config?: (eleventyConfig: { addGlobalData: (name: string, value: unknown) => void }) => void;
   }
   export default class Eleventy {
     constructor(input?: string, output?: string, options?: EleventyOptions);

@@ -154,6 +154,28 @@ describe.skipIf(skip)('the site in a real Chromium', () => {
     expect(errors).toEqual([]);
   });
 
+  it('the audit trail leads back up from an input row and a step, and takes any figure id as an address', async () => {
+    const id = 'KV-EXT-6060';
+    const json = JSON.parse(await readFile(path.join(out, id, 'results.json'), 'utf8')) as ResultsJson;
+    const figures = figureMap(json);
+    const { page, errors } = await open(`${id}/audit.html`);
+    // bom.csv line 3 (line L1) is read by the steps whose terms link to it; the page's script lists them.
+    const readBy = await page.$eval('#input\\:bom\\.csv\\:3 p.used-by', (p) => ({ text: p.textContent!, links: Array.from(p.querySelectorAll('a')).map((a) => a.textContent!) }));
+    expect(readBy.text).toMatch(/^Read by \d+ steps: /);
+    expect(readBy.links).toContain('inventory/line:L1/G');
+    // Exactly the steps of results.json whose terms are cells of that row.
+    const cells = new Set(json.graph.cells.flatMap((cell, k) => (cell.file === 'bom.csv' && cell.line === 3 ? [k] : [])));
+    const expected = json.graph.steps.filter((step) => step.terms.some((t) => typeof t === 'object' && 'cell' in t && cells.has(t.cell))).map((step) => step.id);
+    expect(readBy.links).toEqual(expected);
+    // A value whose step has no anchor of its own: the script finds it in its values table.
+    const figure = 'cutoff/A1/line:L1/GWP-total';
+    await page.goto(`${page.url().split('#')[0]}#${figure}`);
+    const addressed = await page.$eval('.addressed', (cell) => ({ text: cell.textContent, tag: cell.tagName, row: cell.closest('tr')!.querySelector('th')!.textContent }));
+    expect(addressed).toEqual({ text: String(Number(figures[figure]!.value!.toPrecision(6))), tag: 'TD', row: 'cutoff/A1/line:L1' });
+    await page.close();
+    expect(errors).toEqual([]);
+  });
+
   it('the family page shows the output-weighted mean of its members’ own results.json, each linked to its derivation and on to the member’s audit trail', async () => {
     const family = 'families/profiles-6060-mill';
     // Weights read here from production.csv itself (the demo's family leaves its weight cells empty).
