@@ -6,6 +6,7 @@ import { RESULTS_FORMAT, type ResultsJson, type ResultsSummary } from '../report
 import { GraphReader, type GraphJson, type WrittenCell } from '../trace/graph-json.ts';
 import { CSV_FILES } from '../schema/index.ts';
 import { MANIFEST_FILE, VERIFICATION_DIR } from '../render/verification.ts';
+import { readCatalogueSummaries } from '../render/results-files.ts';
 import type { RowKeyOf } from './attribute.ts';
 
 /**
@@ -28,6 +29,15 @@ export interface ResultsSet {
 }
 
 const isFile = async (file: string) => (await stat(file).catch(() => undefined))?.isFile() ?? false;
+
+/** A results.json: a catalogue's is read a product at a time (it runs to hundreds of megabytes), a product's whole. */
+async function readResults(file: string): Promise<unknown> {
+  try {
+    return await readCatalogueSummaries(file);
+  } catch (error) {
+    throw new UsageError(`${file}: ${(error as Error).message}; expected a results.json written by loopsheet build`);
+  }
+}
 
 async function readJson(file: string): Promise<unknown> {
   try {
@@ -65,13 +75,13 @@ export async function readResultsSet(label: string): Promise<ResultsSet> {
     } else throw new UsageError(`${file}: neither a catalogue results.json ("products") nor a product's ("product_id"); expected a results.json written by loopsheet build`);
   };
 
-  if (!info.isDirectory()) take(await readJson(label), label);
-  else if (await isFile(path.join(label, 'results.json'))) take(await readJson(path.join(label, 'results.json')), path.join(label, 'results.json'));
+  if (!info.isDirectory()) take(await readResults(label), label);
+  else if (await isFile(path.join(label, 'results.json'))) take(await readResults(path.join(label, 'results.json')), path.join(label, 'results.json'));
   else {
     // A folder of results.json sets: one per product folder.
     for (const entry of (await readdir(label, { withFileTypes: true })).filter((e) => e.isDirectory()).sort((a, b) => (a.name < b.name ? -1 : 1))) {
       const file = path.join(label, entry.name, 'results.json');
-      if (await isFile(file)) take(await readJson(file), file);
+      if (await isFile(file)) take(await readResults(file), file);
     }
     if (products.size === 0) throw new UsageError(`${label}: no results.json in it or in its sub-folders; expected a build folder`);
   }

@@ -9,6 +9,8 @@ import { inputTables, type InputKey } from './input-key.ts';
 import { CACHE_FILE } from './output.ts';
 
 export { CACHE_FILE };
+import { readCatalogueSummaries } from './results-files.ts';
+import { RESULTS_FORMAT } from '../report/results.ts';
 import { MANIFEST_FILE, VERIFICATION_DIR, type HashedFile } from './verification.ts';
 
 /**
@@ -55,8 +57,8 @@ const readJson = async <T>(file: string): Promise<T | undefined> => {
 export async function readPreviousBuild(outDir: string): Promise<PreviousBuild | undefined> {
   const cache = await readJson<CacheFile>(path.join(outDir, CACHE_FILE));
   if (!cache || cache.format !== CACHE_FORMAT || cache.tool !== TOOL_VERSION) return undefined;
-  const results = await readJson<{ products: ResultsSummary[] }>(path.join(outDir, 'results.json'));
-  if (!results) return undefined;
+  const results = await readCatalogueSummaries(path.join(outDir, 'results.json')).catch(() => undefined);
+  if (!results || results.format !== RESULTS_FORMAT) return undefined;
   const inputs = new Map<string, string[]>();
   const inputsDir = path.join(outDir, VERIFICATION_DIR, 'inputs');
   for (const file of await readdir(inputsDir).catch(() => [] as string[])) inputs.set(file, physicalLines({ text: await readFile(path.join(inputsDir, file), 'utf8') }));

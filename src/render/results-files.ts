@@ -1,4 +1,6 @@
-import { mkdir, readFile, writeFile } from 'node:fs/promises';
+import { createReadStream } from 'node:fs';
+import { mkdir, open, readFile, writeFile } from 'node:fs/promises';
+import { createInterface } from 'node:readline';
 import path from 'node:path';
 import { CalcContext } from '../calc/context.ts';
 import { calculateProduct } from '../calc/product.ts';
@@ -53,6 +55,56 @@ export class ResultsWriter {
 
 }
 
+/** The first line of the catalogue-wide results.json; then one product per line. */
+const CATALOGUE_HEAD = `{"format":${RESULTS_FORMAT},"products":[`;
+
+/**
+ * `{"format":2,"products":[…]}` with one product per line, written a product at a time: at
+ * 10 000 products the file is some hundreds of megabytes, beyond what one JavaScript string
+ * may hold (JSON.stringify of the whole failed there), and a reader can take it a line at a
+ * time (`readCatalogueSummaries`).
+ */
+async function writeCatalogueJson(file: string, summaries: readonly ResultsSummary[]): Promise<void> {
+  const handle = await open(file, 'w');
+  try {
+    let chunk = `${CATALOGUE_HEAD}\n`;
+    for (let i = 0; i < summaries.length; i++) {
+      chunk += `${JSON.stringify(summaries[i])}${i < summaries.length - 1 ? ',' : ''}\n`;
+      if (chunk.length > 1 << 20) {
+        await handle.write(chunk);
+        chunk = '';
+      }
+    }
+    await handle.write(`${chunk}]}\n`);
+  } finally {
+    await handle.close();
+  }
+}
+
+/**
+ * Reads a catalogue-wide results.json a product at a time, as `writeCatalogueJson` lays it
+ * out; a file laid out otherwise (edited by hand, or small) is parsed whole. `format` is
+ * undefined for a file of results format 1.
+ */
+export async function readCatalogueSummaries(file: string): Promise<{ format: unknown; products: ResultsSummary[] }> {
+  const lines = createInterface({ input: createReadStream(file, 'utf8'), crlfDelay: Infinity });
+  const products: ResultsSummary[] = [];
+  let first = true;
+  for await (const line of lines) {
+    if (first) {
+      first = false;
+      if (line !== CATALOGUE_HEAD) {
+        lines.close();
+        return JSON.parse(await readFile(file, 'utf8')) as { format: unknown; products: ResultsSummary[] };
+      }
+      continue;
+    }
+    if (line === ']}' || line === '') continue;
+    products.push(JSON.parse(line.endsWith(',') ? line.slice(0, -1) : line) as ResultsSummary);
+  }
+  return { format: RESULTS_FORMAT, products };
+}
+
 /**
  * The catalogue-wide `results.json` (every product's results, without figure graphs) and
  * `results.csv`: the products' own `results.csv` files joined under one header, read back
@@ -60,7 +112,7 @@ export class ResultsWriter {
  * formatting 400 000 numbers again when most products were kept by `build --changed`).
  */
 export async function writeCatalogueResults(outDir: string, summaries: readonly ResultsSummary[]): Promise<void> {
-  await writeFile(path.join(outDir, 'results.json'), `${JSON.stringify({ format: RESULTS_FORMAT, products: summaries }, null, 1)}\n`);
+  await writeCatalogueJson(path.join(outDir, 'results.json'), summaries);
   const header = Buffer.from(`${RESULTS_CSV_HEADER.join(',')}\n`);
   const bodies = await mapLimit(summaries, FS_CONCURRENCY, async (summary) => {
     const file = path.join(outDir, summary.product_id, 'results.csv');
