@@ -51,7 +51,11 @@ export interface SiteBuildOptions {
 export interface ProductOutcome {
   index: number;
   entry: CatalogueEntry;
-  summary: ResultsSummary;
+  /**
+   * Its results without the graph, as JSON text: the catalogue files take it as it is, and a
+   * process that holds 10 000 of them holds text, not object trees (parsed only for families).
+   */
+  summaryJson: string;
   key: string;
 }
 
@@ -104,7 +108,7 @@ export async function buildSite(project: Project, problems: readonly Problem[], 
     toBuild = [];
     compared.forEach((c, k) => {
       if (keptFiles[k]) {
-        outcomes.push({ index: c.item.index, entry: c.cached!.entry, summary: c.summary!, key: c.input.key });
+        outcomes.push({ index: c.item.index, entry: c.cached!.entry, summaryJson: c.summary!, key: c.input.key });
         kept.push(c.id);
       } else {
         toBuild.push(c.item);
@@ -144,7 +148,7 @@ export async function buildSite(project: Project, problems: readonly Problem[], 
  * caller prints.
  */
 export async function writeCatalogue(project: Project, problems: readonly Problem[], outDir: string, outcomes: readonly ProductOutcome[], options: { inputs: SiteView['verification']['inputs']; pdfs: boolean; context: string }): Promise<{ warnings: string[]; families: Array<{ id: string; name: string }> }> {
-  await writeCatalogueResults(outDir, outcomes.map((o) => o.summary));
+  await writeCatalogueResults(outDir, outcomes.map((o) => ({ id: o.entry.id, summaryJson: o.summaryJson })));
   const catalogue = outcomes.map((o) => o.entry);
   const families = await writeFamilies(project, outDir, outcomes);
   await renderSite(buildSiteView(project, problems, { products: [], catalogue, pdfs: options.pdfs, inputs: options.inputs, families }), outDir);
@@ -154,7 +158,8 @@ export async function writeCatalogue(project: Project, problems: readonly Proble
 
 /** Each family's results.json and results.csv under families/<id>/, and its page view. */
 async function writeFamilies(project: Project, outDir: string, outcomes: readonly ProductOutcome[]): Promise<FamilyView[]> {
-  const summaries = new Map(outcomes.map((o) => [o.entry.id, o.summary]));
+  const members = new Set(project.families.flatMap((family) => family.members.map((m) => m.productId)));
+  const summaries = new Map(outcomes.filter((o) => members.has(o.entry.id)).map((o) => [o.entry.id, JSON.parse(o.summaryJson) as ResultsSummary]));
   const names = new Map(outcomes.map((o) => [o.entry.id, o.entry.name]));
   const views: FamilyView[] = [];
   for (const family of project.families) {
@@ -176,7 +181,7 @@ export async function buildShard(project: Project, problems: readonly Problem[],
   for (const { rows } of shard) products.push({ rows, ...(await writer.product(rows)) });
   const view = buildSiteView(project, problems, { products, pdfs });
   await renderSite(view, outDir);
-  return view.products.map((product, k) => ({ index: shard[k]!.index, entry: catalogueEntry(product), summary: products[k]!.report.summary, key: products[k]!.key }));
+  return view.products.map((product, k) => ({ index: shard[k]!.index, entry: catalogueEntry(product), summaryJson: JSON.stringify(products[k]!.report.summary), key: products[k]!.key }));
 }
 
 export interface WorkerTask {
@@ -188,7 +193,8 @@ export interface WorkerTask {
   uncertainty?: { iterations: number; seed: number };
 }
 
-export type WorkerMessage = { kind: 'shard'; products: number } | { kind: 'done'; outcomes: ProductOutcome[]; peakRssMb: number } | { kind: 'failed'; message: string };
+/** A worker sends each shard's outcomes as soon as the shard is built, and keeps none: its memory does not grow with the shards it builds. */
+export type WorkerMessage = { kind: 'shard'; outcomes: ProductOutcome[] } | { kind: 'done'; peakRssMb: number } | { kind: 'failed'; message: string };
 
 /** A shard worker: a process of its own that loads the project and builds the shards it is given. */
 function runWorker(dataDir: string, outDir: string, task: WorkerTask, name: string, progress: (count: number) => void, onEnd?: (peakRssMb: number) => void): Promise<ProductOutcome[]> {
@@ -197,18 +203,21 @@ function runWorker(dataDir: string, outDir: string, task: WorkerTask, name: stri
       execArgv: ['--max-semi-space-size=64'],
       stdio: ['ignore', 'ignore', 'inherit', 'ipc'],
     });
-    let outcomes: ProductOutcome[] | undefined;
+    const outcomes: ProductOutcome[] = [];
+    let done = false;
     let failure: string | undefined;
     child.on('message', (message: WorkerMessage) => {
-      if (message.kind === 'shard') progress(message.products);
-      else if (message.kind === 'done') {
-        outcomes = message.outcomes;
+      if (message.kind === 'shard') {
+        outcomes.push(...message.outcomes);
+        progress(message.outcomes.length);
+      } else if (message.kind === 'done') {
+        done = true;
         onEnd?.(message.peakRssMb);
       } else failure = message.message;
     });
     child.on('error', reject);
     child.on('exit', (code) => {
-      if (outcomes && code === 0) resolve(outcomes);
+      if (done && code === 0) resolve(outcomes);
       else reject(new Error(`shard worker ${name} failed${failure ? `: ${failure}` : ` (exit ${code})`}`));
     });
     // The task goes over IPC: a long list of indices would not fit on a command line.

@@ -2,14 +2,13 @@ import { copyFile, link, mkdir, readdir, readFile, writeFile } from 'node:fs/pro
 import path from 'node:path';
 import type { Project } from '../model/types.ts';
 import { TOOL_VERSION } from '../reference/tool.ts';
-import type { ResultsSummary } from '../report/results.ts';
 import type { CatalogueEntry } from '../report/site-view.ts';
 import { physicalLines } from '../report/written.ts';
 import { inputTables, type InputKey } from './input-key.ts';
 import { CACHE_FILE } from './output.ts';
 
 export { CACHE_FILE };
-import { readCatalogueSummaries } from './results-files.ts';
+import { readCatalogueTexts, summaryProductId } from './results-files.ts';
 import { RESULTS_FORMAT } from '../report/results.ts';
 import { MANIFEST_FILE, VERIFICATION_DIR, type HashedFile } from './verification.ts';
 
@@ -33,7 +32,8 @@ export interface PreviousBuild {
   dir: string;
   context: string;
   products: Map<string, { key: string; entry: CatalogueEntry }>;
-  summaries: Map<string, ResultsSummary>;
+  /** Each product's results summary as JSON text, from the previous catalogue results.json. */
+  summaries: Map<string, string>;
   /** The previous build's copies of its inputs, as lines (to say which rows changed). */
   inputs: Map<string, string[]>;
   /** The previous manifest's hashes of the outputs, by relative path. */
@@ -57,8 +57,8 @@ const readJson = async <T>(file: string): Promise<T | undefined> => {
 export async function readPreviousBuild(outDir: string): Promise<PreviousBuild | undefined> {
   const cache = await readJson<CacheFile>(path.join(outDir, CACHE_FILE));
   if (!cache || cache.format !== CACHE_FORMAT || cache.tool !== TOOL_VERSION) return undefined;
-  const results = await readCatalogueSummaries(path.join(outDir, 'results.json')).catch(() => undefined);
-  if (!results || results.format !== RESULTS_FORMAT) return undefined;
+  const results = await readCatalogueTexts(path.join(outDir, 'results.json')).catch(() => undefined);
+  if (!results?.products || results.format !== RESULTS_FORMAT) return undefined;
   const inputs = new Map<string, string[]>();
   const inputsDir = path.join(outDir, VERIFICATION_DIR, 'inputs');
   for (const file of await readdir(inputsDir).catch(() => [] as string[])) inputs.set(file, physicalLines({ text: await readFile(path.join(inputsDir, file), 'utf8') }));
@@ -67,7 +67,7 @@ export async function readPreviousBuild(outDir: string): Promise<PreviousBuild |
     dir: outDir,
     context: cache.context,
     products: new Map(cache.products.map((p) => [p.id, { key: p.key, entry: p.entry }])),
-    summaries: new Map(results.products.map((summary) => [summary.product_id, summary])),
+    summaries: new Map(results.products.map((text) => [summaryProductId(text), text])),
     inputs,
     hashes: new Map((manifest?.outputs ?? []).map((output) => [output.file, output])),
   };

@@ -64,12 +64,12 @@ const CATALOGUE_HEAD = `{"format":${RESULTS_FORMAT},"products":[`;
  * may hold (JSON.stringify of the whole failed there), and a reader can take it a line at a
  * time (`readCatalogueSummaries`).
  */
-async function writeCatalogueJson(file: string, summaries: readonly ResultsSummary[]): Promise<void> {
+async function writeCatalogueJson(file: string, summaries: readonly string[]): Promise<void> {
   const handle = await open(file, 'w');
   try {
     let chunk = `${CATALOGUE_HEAD}\n`;
     for (let i = 0; i < summaries.length; i++) {
-      chunk += `${JSON.stringify(summaries[i])}${i < summaries.length - 1 ? ',' : ''}\n`;
+      chunk += `${summaries[i]}${i < summaries.length - 1 ? ',' : ''}\n`;
       if (chunk.length > 1 << 20) {
         await handle.write(chunk);
         chunk = '';
@@ -87,20 +87,33 @@ async function writeCatalogueJson(file: string, summaries: readonly ResultsSumma
  * undefined for a file of results format 1.
  */
 export async function readCatalogueSummaries(file: string): Promise<{ format: unknown; products: ResultsSummary[] }> {
+  const texts = await readCatalogueTexts(file);
+  return Array.isArray(texts.products) ? { format: texts.format, products: texts.products.map((text) => JSON.parse(text) as ResultsSummary) } : (texts.whole as { format: unknown; products: ResultsSummary[] });
+}
+
+/** The product id of a summary's JSON text (it opens with format and product_id), without parsing the rest. */
+export function summaryProductId(text: string): string {
+  const match = /^\{"format":\d+,"product_id":("(?:[^"\\]|\\.)*")/.exec(text);
+  return match ? (JSON.parse(match[1]!) as string) : (JSON.parse(text) as ResultsSummary).product_id;
+}
+
+/** The products of a catalogue-wide results.json as JSON text, a line each; a file laid out otherwise is returned parsed whole. */
+export async function readCatalogueTexts(file: string): Promise<{ format: unknown; products?: string[]; whole?: unknown }> {
   const lines = createInterface({ input: createReadStream(file, 'utf8'), crlfDelay: Infinity });
-  const products: ResultsSummary[] = [];
+  const products: string[] = [];
   let first = true;
   for await (const line of lines) {
     if (first) {
       first = false;
       if (line !== CATALOGUE_HEAD) {
         lines.close();
-        return JSON.parse(await readFile(file, 'utf8')) as { format: unknown; products: ResultsSummary[] };
+        const whole = JSON.parse(await readFile(file, 'utf8')) as { format: unknown };
+        return { format: whole.format, whole };
       }
       continue;
     }
     if (line === ']}' || line === '') continue;
-    products.push(JSON.parse(line.endsWith(',') ? line.slice(0, -1) : line) as ResultsSummary);
+    products.push(line.endsWith(',') ? line.slice(0, -1) : line);
   }
   return { format: RESULTS_FORMAT, products };
 }
@@ -111,11 +124,11 @@ export async function readCatalogueSummaries(file: string): Promise<{ format: un
  * from the output (the same rows `resultsCsv` would make from the summaries, without
  * formatting 400 000 numbers again when most products were kept by `build --changed`).
  */
-export async function writeCatalogueResults(outDir: string, summaries: readonly ResultsSummary[]): Promise<void> {
-  await writeCatalogueJson(path.join(outDir, 'results.json'), summaries);
+export async function writeCatalogueResults(outDir: string, products: ReadonlyArray<{ id: string; summaryJson: string }>): Promise<void> {
+  await writeCatalogueJson(path.join(outDir, 'results.json'), products.map((p) => p.summaryJson));
   const header = Buffer.from(`${RESULTS_CSV_HEADER.join(',')}\n`);
-  const bodies = await mapLimit(summaries, FS_CONCURRENCY, async (summary) => {
-    const file = path.join(outDir, summary.product_id, 'results.csv');
+  const bodies = await mapLimit(products, FS_CONCURRENCY, async (product) => {
+    const file = path.join(outDir, product.id, 'results.csv');
     const bytes = await readFile(file);
     if (!bytes.subarray(0, header.length).equals(header)) throw new Error(`internal: ${file} does not start with the results.csv header`);
     return bytes.subarray(header.length);

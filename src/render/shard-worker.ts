@@ -4,7 +4,7 @@
 import { rowsByProduct } from '../model/by-product.ts';
 import { loadProject } from '../model/project.ts';
 import { hasErrors } from '../problems.ts';
-import { buildShard, type ProductOutcome, type WorkerMessage, type WorkerTask } from './build-site.ts';
+import { buildShard, type WorkerMessage, type WorkerTask } from './build-site.ts';
 
 const send = (message: WorkerMessage): Promise<void> => new Promise((resolve, reject) => process.send!(message, undefined, {}, (error) => (error ? reject(error) : resolve())));
 const task = new Promise<WorkerTask>((resolve) => process.once('message', (message) => resolve(message as WorkerTask)));
@@ -16,12 +16,10 @@ try {
   if (!project || hasErrors(problems)) throw new Error('the data folder changed during the build and no longer validates');
   if (uncertainty) project.declaration.uncertainty = uncertainty;
   const all = rowsByProduct(project);
-  const outcomes: ProductOutcome[] = [];
   for (const indices of shards) {
-    outcomes.push(...(await buildShard(project, problems, outDir!, indices.map((index) => ({ rows: all[index]!, index })), pdfs, context)));
-    await send({ kind: 'shard', products: indices.length });
+    await send({ kind: 'shard', outcomes: await buildShard(project, problems, outDir!, indices.map((index) => ({ rows: all[index]!, index })), pdfs, context) });
   }
-  await send({ kind: 'done', outcomes, peakRssMb: process.resourceUsage().maxRSS / 1024 });
+  await send({ kind: 'done', peakRssMb: process.resourceUsage().maxRSS / 1024 });
   process.exit(0);
 } catch (error) {
   await send({ kind: 'failed', message: (error as Error).message });

@@ -1,7 +1,7 @@
 import { afterAll, describe, expect, it } from 'vitest';
 import { mkdir, readFile, writeFile } from 'node:fs/promises';
 import path from 'node:path';
-import { readCatalogueSummaries, writeCatalogueResults } from '../../src/render/results-files.ts';
+import { readCatalogueSummaries, summaryProductId, writeCatalogueResults } from '../../src/render/results-files.ts';
 import type { ResultsSummary } from '../../src/report/results.ts';
 import { removeDir, tempDir } from '../helpers.ts';
 
@@ -28,11 +28,13 @@ describe('the catalogue-wide results.json', () => {
       await mkdir(path.join(dir, p.product_id), { recursive: true });
       await writeFile(path.join(dir, p.product_id, 'results.csv'), 'product_id,method,module,indicator,unit,value,figure_id\n');
     }
-    await writeCatalogueResults(dir, products);
+    await writeCatalogueResults(dir, products.map((p) => ({ id: p.product_id, summaryJson: JSON.stringify(p) })));
     const text = await readFile(path.join(dir, 'results.json'), 'utf8');
     expect(JSON.parse(text)).toEqual({ format: 2, products });
     expect(text.split('\n')).toHaveLength(products.length + 3);
     expect(await readCatalogueSummaries(path.join(dir, 'results.json'))).toEqual({ format: 2, products });
+    // The id of each line, read without parsing the line.
+    expect(products.map((p) => summaryProductId(JSON.stringify(p)))).toEqual(['P1', 'P,2', 'P"3', 'P\n4']);
     // Laid out otherwise (a file edited or pretty-printed by someone), it is parsed whole.
     await writeFile(path.join(dir, 'pretty.json'), JSON.stringify({ format: 2, products }, null, 2));
     expect(await readCatalogueSummaries(path.join(dir, 'pretty.json'))).toEqual({ format: 2, products });
