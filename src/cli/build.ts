@@ -6,7 +6,7 @@ import { keptHashes, readPreviousBuild } from '../render/incremental.ts';
 import { checkOutputDir, withStagedOutput } from '../render/output.ts';
 import { declarationPdfJobs, familyPdfJobs, printPdfs } from '../render/pdf.ts';
 import { shardOf, writeShardRecord, type ShardSpec } from '../render/shards.ts';
-import { copyInputs, hashInputs, writeManifest } from '../render/verification.ts';
+import { copyInputs, hashInputs, writeManifest, type HashedFile } from '../render/verification.ts';
 import { EXIT, UsageError, type Io } from './io.ts';
 import { createProgress } from './progress.ts';
 import { printProblems } from './report-problems.ts';
@@ -80,7 +80,8 @@ export async function runBuild(options: BuildOptions, io: Io): Promise<number> {
       summary = `built shard ${shard.k}/${shard.n}: ${built.outcomes.length} products into ${options.out}${options.pdf === 'off' ? ' (no PDFs: --no-pdf)' : ''}; join the shards with loopsheet merge`;
     } else {
       progress.phase('verification manifest');
-      await writeManifest(staging, inputs, keptHashes(previous, built.kept));
+      // Kept products' files keep their previous hashes; built ones were hashed as written.
+      await writeManifest(staging, inputs, new Map([...keptHashes(previous, built.kept), ...built.outcomes.flatMap((o) => o.hashes).map((h): [string, HashedFile] => [h.file, h])]));
       summary = `built ${built.outcomes.length} products into ${options.out}${options.pdf === 'off' ? ' (no PDFs: --no-pdf)' : ''}`;
     }
     if (options.changed) {

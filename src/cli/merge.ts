@@ -7,7 +7,7 @@ import { familyPdfJobs, printPdfs } from '../render/pdf.ts';
 import { keepProduct } from '../render/incremental.ts';
 import { checkOutputDir, withStagedOutput } from '../render/output.ts';
 import { readShardRecords } from '../render/shards.ts';
-import { copyInputs, hashInputs, VERIFICATION_DIR, writeManifest } from '../render/verification.ts';
+import { copyInputs, hashInputs, VERIFICATION_DIR, writeManifest, type HashedFile } from '../render/verification.ts';
 import { EXIT, UsageError, type Io } from './io.ts';
 import { printProblems } from './report-problems.ts';
 
@@ -48,7 +48,7 @@ export async function runMerge(options: { dirs: string[]; out: string }, io: Io)
       if (!browser) throw new UsageError('the shards printed PDFs, and the family declarations are printed by merge: no browser found (PUPPETEER_EXECUTABLE_PATH, chromium/chrome on the PATH, puppeteer’s cache)');
       await printPdfs(browser, staging, familyPdfJobs(project, staging, catalogue.families));
     }
-    await writeManifest(staging, inputs);
+    await writeManifest(staging, inputs, new Map(outcomes.flatMap((o) => o.hashes).map((h): [string, HashedFile] => [h.file, h])));
     count = outcomes.length;
   });
   io.out(`merged ${records.length} shards (${count} products) into ${options.out}`);

@@ -14,6 +14,7 @@ import { changeReasons, keepProduct, writeBuildCache, type PreviousBuild } from 
 import { pageContextKey, productInputKey } from './input-key.ts';
 import { PACKAGE_ROOT } from './paths.ts';
 import { ResultsWriter, writeCatalogueResults } from './results-files.ts';
+import type { HashedFile } from './verification.ts';
 import { renderSite } from './site.ts';
 
 /**
@@ -56,6 +57,8 @@ export interface ProductOutcome {
    * process that holds 10 000 of them holds text, not object trees (parsed only for families).
    */
   summaryJson: string;
+  /** The product's files hashed as they were written (none for a product kept from the previous build). */
+  hashes: HashedFile[];
   key: string;
 }
 
@@ -108,7 +111,7 @@ export async function buildSite(project: Project, problems: readonly Problem[], 
     toBuild = [];
     compared.forEach((c, k) => {
       if (keptFiles[k]) {
-        outcomes.push({ index: c.item.index, entry: c.cached!.entry, summaryJson: c.summary!, key: c.input.key });
+        outcomes.push({ index: c.item.index, entry: c.cached!.entry, summaryJson: c.summary!, key: c.input.key, hashes: [] });
         kept.push(c.id);
       } else {
         toBuild.push(c.item);
@@ -177,11 +180,16 @@ async function writeFamilies(project: Project, outDir: string, outcomes: readonl
 /** One shard: each product computed, written and viewed, then one Eleventy run for the shard's pages. */
 export async function buildShard(project: Project, problems: readonly Problem[], outDir: string, shard: Array<{ rows: ProductRows; index: number }>, pdfs: boolean, context: string): Promise<ProductOutcome[]> {
   const writer = new ResultsWriter(project, outDir, context);
-  const products: Array<{ rows: ProductRows; report: ProductReport; key: string }> = [];
+  const products: Array<{ rows: ProductRows; report: ProductReport; key: string; hashes: HashedFile[] }> = [];
   for (const { rows } of shard) products.push({ rows, ...(await writer.product(rows)) });
   const view = buildSiteView(project, problems, { products, pdfs });
-  await renderSite(view, outDir);
-  return view.products.map((product, k) => ({ index: shard[k]!.index, entry: catalogueEntry(product), summaryJson: JSON.stringify(products[k]!.report.summary), key: products[k]!.key }));
+  // Each page hashed from the text written, by product folder.
+  const pages = new Map<string, HashedFile[]>();
+  for (const page of await renderSite(view, outDir)) {
+    const folder = page.file.slice(0, page.file.indexOf('/'));
+    pages.set(folder, [...(pages.get(folder) ?? []), page]);
+  }
+  return view.products.map((product, k) => ({ index: shard[k]!.index, entry: catalogueEntry(product), summaryJson: JSON.stringify(products[k]!.report.summary), key: products[k]!.key, hashes: [...products[k]!.hashes, ...(pages.get(products[k]!.report.summary.product_id) ?? [])] }));
 }
 
 export interface WorkerTask {

@@ -13,6 +13,7 @@ import { auditView } from '../report/audit-view.ts';
 import { declarationResultsView } from '../report/declaration-view.ts';
 import type { ProductReport } from '../report/site-view.ts';
 import { auditHtml } from './audit-html.ts';
+import { hashText, type HashedFile } from './verification.ts';
 import { renderChartSvg } from './charts.ts';
 import { productInputKey, productReach, readsOutside } from './input-key.ts';
 
@@ -35,14 +36,18 @@ export class ResultsWriter {
   }
 
   /** Writes a product's results files and returns what its pages show, with its input key. */
-  async product(rows: ProductRows): Promise<{ report: ProductReport; key: string }> {
+  async product(rows: ProductRows): Promise<{ report: ProductReport; key: string; hashes: HashedFile[] }> {
     const ctx = this.ctx;
     const product = calculateProduct(ctx, rows);
     const summary = resultsSummary(ctx, product);
     const dir = path.join(this.outDir, summary.product_id);
     await mkdir(dir, { recursive: true });
-    await writeFile(path.join(dir, 'results.json'), `${resultsJsonText(ctx, product, summary)}\n`);
-    await writeFile(path.join(dir, 'results.csv'), resultsCsv([summary]));
+    const json = `${resultsJsonText(ctx, product, summary)}\n`;
+    const csv = resultsCsv([summary]);
+    await writeFile(path.join(dir, 'results.json'), json);
+    await writeFile(path.join(dir, 'results.csv'), csv);
+    // Hashed as written, for the verification manifest.
+    const hashes = [hashText(`${summary.product_id}/results.json`, json), hashText(`${summary.product_id}/results.csv`, csv)];
     const view = declarationResultsView(ctx, rows, product, summary);
     for (const chart of [...view.charts, ...(view.sensitivity?.scopes.flatMap((scope) => scope.charts) ?? [])]) chart.svg = await renderChartSvg(chart);
     const outside = readsOutside(ctx.project, productReach(ctx.project, rows), product.graph);
@@ -50,7 +55,7 @@ export class ResultsWriter {
     if (outside) throw new Error(`internal: figure ${outside.figure} of ${summary.product_id} reads ${outside.file} line ${outside.line}, which its input key does not cover (src/render/input-key.ts productReach); please report this`);
     const audit = auditView(ctx.project, product);
     audit.html = auditHtml(audit);
-    return { report: { summary, results: view, audit }, key: productInputKey(ctx.project, rows, this.context).key };
+    return { report: { summary, results: view, audit }, key: productInputKey(ctx.project, rows, this.context).key, hashes };
   }
 
 }

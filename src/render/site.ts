@@ -1,9 +1,15 @@
 import Eleventy from '@11ty/eleventy';
+import path from 'node:path';
+import { hashText, type HashedFile } from './verification.ts';
 import type { SiteView } from '../report/site-view.ts';
 import { ELEVENTY_CONFIG, PACKAGE_ROOT, TEMPLATES_DIR } from './paths.ts';
 
-/** Renders the HTML pages with Eleventy: one template per page kind, paginated over products. */
-export async function renderSite(view: SiteView, outDir: string): Promise<void> {
+/**
+ * Renders the HTML pages with Eleventy: one template per page kind, paginated over products.
+ * Returns each page it wrote with its SHA-256, hashed from the text Eleventy wrote, so the
+ * verification manifest need not read the pages again.
+ */
+export async function renderSite(view: SiteView, outDir: string): Promise<HashedFile[]> {
   const cwd = process.cwd();
   // Eleventy resolves passthrough copies and ignore files against the working directory;
   // run it from the package root so a user's own folder never leaks into the site.
@@ -18,7 +24,8 @@ export async function renderSite(view: SiteView, outDir: string): Promise<void> 
     });
     // The build reports its own progress; Eleventy's summary line would land on stdout.
     eleventy.disableLogger();
-    await eleventy.write();
+    const [, pages] = await eleventy.write();
+    return pages.flatMap((page) => (page.outputPath ? [hashText(path.relative(outDir, page.outputPath).split(path.sep).join('/'), page.content)] : []));
   } finally {
     process.chdir(cwd);
   }

@@ -20,7 +20,10 @@ export interface HashedFile {
   bytes: number;
 }
 
-const sha256 = (bytes: Buffer): string => createHash('sha256').update(bytes).digest('hex');
+const sha256 = (bytes: Buffer | string): string => createHash('sha256').update(bytes).digest('hex');
+
+/** A file's entry in the manifest from the text written to it (UTF-8), without reading it back. */
+export const hashText = (file: string, text: string): HashedFile => ({ file, sha256: sha256(text), bytes: Buffer.byteLength(text) });
 
 /** The input files, in contract order, with their checksums (declaration.json first: it is also the configuration). */
 export async function hashInputs(dataDir: string): Promise<HashedFile[]> {
@@ -62,7 +65,7 @@ export async function writeManifest(outDir: string, inputs: readonly HashedFile[
   const self = `${VERIFICATION_DIR}/${MANIFEST_FILE}`;
   const files = (await listFiles(outDir)).filter((f) => f !== self && !NOT_IN_MANIFEST.has(f)).sort();
   const outputs = await mapLimit(files, FS_CONCURRENCY, async (file): Promise<HashedFile> => {
-    // A file kept from the previous build (build --changed) keeps its hash while its size matches.
+    // A file hashed as it was written, or kept from the previous build (build --changed), keeps its hash while its size matches.
     const kept = known.get(file);
     if (kept && (await stat(path.join(outDir, file))).size === kept.bytes) return kept;
     const bytes = await readFile(path.join(outDir, file));

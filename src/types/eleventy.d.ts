@@ -8,6 +8,7 @@ declare module '@11ty/eleventy' {
   export default class Eleventy {
     constructor(input?: string, output?: string, options?: EleventyOptions);
     disableLogger(): void;
-    write(): Promise<unknown>;
+    /** The passthrough copies, and each page written with its output path and content (Eleventy 2.0+). */
+    write(): Promise<[unknown, Array<{ outputPath: string | false; content: string }>]>;
   }
 }
