@@ -48,6 +48,8 @@
       if (!row) return;
       var heads = row.closest('table').querySelectorAll('thead th');
       for (var i = 1; i < heads.length; i++) if (heads[i].textContent === id.slice(cut + 1)) target = row.cells[i];
+      // Say which indicator's column it is: the header row may be far above.
+      if (target) target.setAttribute('data-code', id.slice(cut + 1));
     }
     if (!target) return;
     target.classList.add('addressed');
