@@ -100,3 +100,6 @@ export function sortProblems(problems: Problem[]): Problem[] {
 }
 
 export const hasErrors = (problems: readonly Problem[]): boolean => problems.some((p) => p.severity === 'error');
+
+/** A mistake in how a command was called (exit 2), as opposed to bad input data (exit 1): raised below the CLI too (an output folder it will not replace, a shard record, a build to compare). */
+export class UsageError extends Error {}

@@ -8,5 +8,4 @@ export interface Io {
   isTty: boolean;
 }
 
-/** A mistake in how the command was called (exit 2), as opposed to bad input data (exit 1). */
-export class UsageError extends Error {}
+export { UsageError } from '../problems.ts';

@@ -1,6 +1,6 @@
 import { readdir, readFile, stat } from 'node:fs/promises';
 import path from 'node:path';
-import { UsageError } from '../cli/io.ts';
+import { UsageError } from '../problems.ts';
 import { readCsvText } from '../load/csv.ts';
 import { RESULTS_FORMAT, type ResultsJson, type ResultsSummary } from '../report/results.ts';
 import { GraphReader, type GraphJson, type WrittenCell } from '../trace/graph-json.ts';
@@ -22,8 +22,6 @@ export interface ResultsSet {
   graph(productId: string): Promise<GraphReader | undefined>;
   /** The key of the row at a line of an input file (from the build's copy of its inputs). */
   rowKey: RowKeyOf;
-  /** A cell as written in the build's copy of its inputs (factor rows' cells, which the graph names by row). */
-  written: WrittenCell;
   /** From the verification manifest, when there is one: tool version and the SHA-256 of each input. */
   manifest?: { toolVersion: string; inputs: Map<string, string> };
 }
@@ -101,7 +99,7 @@ export async function readResultsSet(label: string): Promise<ResultsSet> {
     const json = (await readJson(manifestFile)) as { tool: { version: string }; inputs: Array<{ file: string; sha256: string }> };
     manifest = { toolVersion: json.tool.version, inputs: new Map(json.inputs.map((input) => [input.file, input.sha256])) };
   }
-  return { label, products, graph, rowKey: inputs.rowKey, written: inputs.written, manifest };
+  return { label, products, graph, rowKey: inputs.rowKey, manifest };
 }
 
 /**

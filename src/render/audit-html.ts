@@ -1,12 +1,10 @@
 import nunjucks from 'nunjucks';
 import type { AuditStep, AuditView } from '../report/audit-view.ts';
 import { fragment } from '../report/figure-links.ts';
-import { formatInput } from '../report/format.ts';
+import { formatFigure } from '../report/format.ts';
 
 // Nunjucks' own escaping (the one autoescape uses); its type declarations leave it out.
 const { escape } = nunjucks.lib as unknown as { escape: (text: string) => string };
-
-const number = (value: number): string => (Number.isNaN(value) ? 'n/a' : formatInput(value));
 
 /**
  * The body of an audit page (src/report/audit-view.ts) as HTML: a section per group with an
@@ -32,9 +30,9 @@ export function auditHtml(view: AuditView): nunjucks.runtime.SafeString {
         html += `<tr id="${escape(values.anchor)}"><th scope="row"><a href="#${escape(fragment(step.anchor))}">${escape(step.id)}</a>`;
         if (values.linked) {
           const prefix = escape(`${step.id}/`);
-          for (let i = 0; i < codes.length; i++) html += `<td id="${prefix}${codes[i]}" data-code="${codes[i]}">${number(values.numbers[i]!)}`;
+          for (let i = 0; i < codes.length; i++) html += `<td id="${prefix}${codes[i]}" data-code="${codes[i]}">${formatFigure(values.numbers[i]!)}`;
         } else {
-          for (let i = 0; i < codes.length; i++) html += `<td>${number(values.numbers[i]!)}`;
+          for (let i = 0; i < codes.length; i++) html += `<td>${formatFigure(values.numbers[i]!)}`;
         }
       }
       html += '</table></div>';

@@ -187,7 +187,9 @@ export async function buildShard(project: Project, problems: readonly Problem[],
   const pages = new Map<string, HashedFile[]>();
   for (const page of await renderSite(view, outDir)) {
     const folder = page.file.slice(0, page.file.indexOf('/'));
-    pages.set(folder, [...(pages.get(folder) ?? []), page]);
+    let list = pages.get(folder);
+    if (!list) pages.set(folder, (list = []));
+    list.push(page);
   }
   return view.products.map((product, k) => ({ index: shard[k]!.index, entry: catalogueEntry(product), summaryJson: JSON.stringify(products[k]!.report.summary), key: products[k]!.key, hashes: [...products[k]!.hashes, ...(pages.get(products[k]!.report.summary.product_id) ?? [])] }));
 }

@@ -1,6 +1,6 @@
 import { mkdir, readdir, rename, rm, stat, writeFile } from 'node:fs/promises';
 import path from 'node:path';
-import { UsageError } from '../cli/io.ts';
+import { UsageError } from '../problems.ts';
 
 /** Marks a folder as loopsheet output, so a build only ever replaces its own output. */
 export const OUTPUT_MARKER = '.loopsheet-output';

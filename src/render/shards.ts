@@ -1,7 +1,7 @@
 import { createHash } from 'node:crypto';
 import { readFile, writeFile } from 'node:fs/promises';
 import path from 'node:path';
-import { UsageError } from '../cli/io.ts';
+import { UsageError } from '../problems.ts';
 import { TOOL_VERSION } from '../reference/tool.ts';
 import type { ProductOutcome } from './build-site.ts';
 import type { HashedFile } from './verification.ts';

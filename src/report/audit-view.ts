@@ -3,7 +3,7 @@ import type { ProductResult } from '../calc/product.ts';
 import type { FigureGraph, FigureNode, Term } from '../trace/graph.ts';
 import { processStep, resultStep, stepGroup, type ResultMethod } from '../trace/ids.ts';
 import { fragment, inputAnchor } from './figure-links.ts';
-import { formatInput } from './format.ts';
+import { formatFigure as show } from './format.ts';
 import { physicalLines } from './written.ts';
 
 /**
@@ -74,7 +74,6 @@ const GROUP_TITLES: Record<string, string> = {
 /** Groups whose steps other pages link to by id (product flows, process models, site shares). */
 const LINKED_GROUPS = new Set(['flows', 'process', 'allocation']);
 
-const show = (value: number): string => (Number.isNaN(value) ? 'n/a' : formatInput(value));
 
 /** The vector steps whose values other pages link to, and the scalar steps of the results' flow indicators. */
 function linkedSteps(result: ProductResult, project: Project): Set<string> {

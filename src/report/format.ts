@@ -11,6 +11,9 @@ export function formatInput(value: number): string {
   return formatScientific(value, 6).replace(/\.?0+e/, 'e');
 }
 
+/** A figure's value as the audit trail shows it: six significant figures, or `n/a` where a value is not available (NaN). */
+export const formatFigure = (value: number): string => (Number.isNaN(value) ? 'n/a' : formatInput(value));
+
 /** 3 significant figures by default: `1.23e+1` style, as declarations print them. */
 export function formatScientific(value: number, significant = 3): string {
   return value.toExponential(significant - 1);
