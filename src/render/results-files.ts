@@ -53,7 +53,7 @@ export class ResultsWriter {
     const outside = readsOutside(ctx.project, productReach(ctx.project, rows), product.graph);
     // A row the key does not cover would let `build --changed` keep a stale product: stop instead.
     if (outside) throw new Error(`internal: figure ${outside.figure} of ${summary.product_id} reads ${outside.file} line ${outside.line}, which its input key does not cover (src/render/input-key.ts productReach); please report this`);
-    const audit = auditView(ctx.project, product);
+    const audit = auditView(ctx.project, product, rows.bom);
     audit.html = auditHtml(audit);
     return { report: { summary, results: view, audit }, key: productInputKey(ctx.project, rows, this.context).key, hashes };
   }

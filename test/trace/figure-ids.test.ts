@@ -111,7 +111,7 @@ describe('every figure id an output names resolves in the graph', () => {
         const where = `${path.relative(out, file)} → ${path.relative(out, target)}#${fragment}`;
         expect((await anchors(target)).has(fragment), where).toBe(true);
         links++;
-        if (/^(input:|values:|group-|main$|inputs$)/.test(fragment)) continue;
+        if (/^(input:|i\d+$|values:|group-|main$|inputs$)/.test(fragment)) continue;
         const folder = path.basename(path.dirname(target));
         // s<k> and v<k>: step k of results.json graph.steps, and its values row; the page names the step it shows.
         const indexed = /^[sv](\d+)$/.exec(fragment);
@@ -119,7 +119,11 @@ describe('every figure id an output names resolves in the graph', () => {
           const step = products.find((p) => p.product_id === folder)!.graph.steps[Number(indexed[1])];
           expect(step, where).toBeDefined();
           const page = await readFile(target, 'utf8');
-          expect(page.includes(fragment.startsWith('s') ? `id="${fragment}"><h3><code>${escapeHtml(step!.id)}</code>` : `id="${fragment}"><th scope="row"><a href="#s${indexed[1]}">${escapeHtml(step!.id)}</a>`), where).toBe(true);
+          // A step entry, a row of a run's table (its head cell is what the step's id puts for the run pattern's `*`), or a values row.
+          const key = /(?:line|packaging|material):([^/]+)/.exec(step!.id)?.[1];
+          expect(fragment.startsWith('s')
+            ? page.includes(`id="${fragment}"><h3><code>${escapeHtml(step!.id)}</code>`) || (key !== undefined && page.includes(`<tr id="${fragment}"><th>${escapeHtml(key)}<`) && page.includes(`<code>${escapeHtml(step!.id.replace(`:${key}`, ':*'))}</code>`))
+            : page.includes(`id="${fragment}"><th><a href="#s${indexed[1]}">${escapeHtml(step!.id)}</a>`), where).toBe(true);
           continue;
         }
         // A family's figure has the id of its members' figures: it resolves in each member's graph.
