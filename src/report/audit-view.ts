@@ -327,10 +327,14 @@ function keyTerms(step: AuditStep): AuditStep {
 
 /** `text` replaced where it stands as a word of its own (a material id inside another word is left alone). */
 function replaceWord(description: string, text: string, by: string): string {
-  if (!text) return description;
-  const escaped = text.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
-  return description.replace(new RegExp(`(?<![\\w-])${escaped}(?![\\w-])`, 'g'), by);
+  if (!text || !description.includes(text)) return description;
+  let word = words.get(text);
+  // Part names and material ids repeat across a catalogue's products: each pattern made once (and the cache kept bounded).
+  if (!word && words.size > 10_000) words.clear();
+  if (!word) words.set(text, (word = new RegExp(`(?<![\\w-])${text.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')}(?![\\w-])`, 'g')));
+  return description.replace(word, by);
 }
+const words = new Map<string, RegExp>();
 
 function termView(graph: FigureGraph, term: Term, anchors: ReadonlyMap<string, string>, inputs: Map<string, { file: string; line: number; short: string }>): AuditTerm {
   const input = (file: string, line: number) => {

@@ -7,7 +7,16 @@
 export function formatInput(value: number): string {
   if (value === 0) return '0';
   const magnitude = Math.abs(value);
-  if (magnitude >= 1e-3 && magnitude < 1e7) return String(Number(value.toPrecision(6)));
+  if (magnitude >= 1e-3 && magnitude < 1e7) {
+    // String(Number(value.toPrecision(6))) without its second conversion (an audit page formats thousands): trailing zeros cut.
+    const text = value.toPrecision(6);
+    if (text.includes('e')) return String(Number(text));
+    if (!text.includes('.')) return text;
+    let end = text.length;
+    while (text.charCodeAt(end - 1) === 48) end--;
+    if (text.charCodeAt(end - 1) === 46) end--;
+    return text.slice(0, end);
+  }
   return formatScientific(value, 6).replace(/\.?0+e/, 'e');
 }
 

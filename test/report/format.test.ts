@@ -1,0 +1,33 @@
+import { describe, expect, it } from 'vitest';
+import fc from 'fast-check';
+import { formatFigure, formatInput } from '../../src/report/format.ts';
+
+/**
+ * The one number formatter against ECMA-262 itself: six significant figures are what
+ * Number.prototype.toPrecision(6) gives (ECMA-262 §21.1.3.5), shortest form as Number → String
+ * prints it (§6.1.6.1.20); outside 1e-3 … 1e7, exponent notation with trailing zeros cut.
+ */
+describe('formatInput', () => {
+  it('prints six significant figures as toPrecision(6) read back as a number, for any value from 1e-3 to 1e7', () => {
+    fc.assert(
+      fc.property(fc.double({ min: 1e-3, max: 9.99999e6, noNaN: true }), fc.boolean(), (magnitude, negative) => {
+        const value = negative ? -magnitude : magnitude;
+        expect(formatInput(value)).toBe(String(Number(value.toPrecision(6))));
+      }),
+      { numRuns: 20_000 },
+    );
+  });
+
+  it('cuts trailing zeros, keeps integers whole and turns toPrecision’s exponent form back into digits', () => {
+    expect(formatInput(0.5)).toBe('0.5');
+    expect(formatInput(2.5e-3)).toBe('0.0025');
+    expect(formatInput(120)).toBe('120');
+    expect(formatInput(100000)).toBe('100000');
+    expect(formatInput(1234567)).toBe('1234570');
+    expect(formatInput(-0.0600)).toBe('-0.06');
+    expect(formatInput(0)).toBe('0');
+    expect(formatInput(1.95212e-4)).toBe('1.95212e-4');
+    expect(formatInput(3.2e9)).toBe('3.2e+9');
+    expect(formatFigure(Number.NaN)).toBe('n/a');
+  });
+});
