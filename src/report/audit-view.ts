@@ -155,12 +155,15 @@ export function auditView(project: Project, result: ProductResult, bom: readonly
   const lines = new Map(bom.map((row) => [row.value.line_id, row.value]));
   // The anchor of each step, by the order of the graph (that of results.json graph.steps).
   const anchors = new Map<string, string>();
+  const hrefs = new Map<string, string>();
   let k = 0;
   for (const node of graph.nodes.values()) {
-    anchors.set(node.id, linked.has(node.id) || LINKED_GROUPS.has(stepGroup(node.id)) ? node.id : `s${k}`);
+    const anchor = linked.has(node.id) || LINKED_GROUPS.has(stepGroup(node.id)) ? node.id : `s${k}`;
+    anchors.set(node.id, anchor);
+    hrefs.set(node.id, `#${fragment(anchor)}`);
     k++;
   }
-  const inputs = new Map<string, { file: string; line: number; short: string }>();
+  const inputs: InputRows = new Map();
   const groups = new Map<string, { title: string; items: AuditItem[]; runs: Map<string, AuditRun> }>();
   let figureCount = 0;
   k = 0;
@@ -168,7 +171,8 @@ export function auditView(project: Project, result: ProductResult, bom: readonly
     const key = stepGroup(node.id);
     let group = groups.get(key);
     if (!group) groups.set(key, (group = { title: GROUP_TITLES[key] ?? key, items: [], runs: new Map() }));
-    const terms = node.terms.map((term) => termView(graph, term, anchors, inputs));
+    const terms: AuditTerm[] = [];
+    for (const term of node.terms) terms.push(termView(graph, term, hrefs, inputs));
     const anchor = anchors.get(node.id)!;
     const step: AuditStep = { anchor, id: node.id, description: node.description, formula: node.formula, terms };
     if (node.kind === 'scalar') {
@@ -336,27 +340,32 @@ function replaceWord(description: string, text: string, by: string): string {
 }
 const words = new Map<string, RegExp>();
 
-function termView(graph: FigureGraph, term: Term, anchors: ReadonlyMap<string, string>, inputs: Map<string, { file: string; line: number; short: string }>): AuditTerm {
-  const input = (file: string, line: number) => {
-    const anchor = inputAnchor(file, line);
-    let entry = inputs.get(anchor);
-    if (!entry) inputs.set(anchor, (entry = { file, line, short: `i${inputs.size}` }));
-    return `#${entry.short}`;
-  };
+type InputRows = Map<string, { file: string; line: number; short: string }>;
+
+/** The page's own link to an input row (`#i<k>`, numbered as the page first reads it). */
+function inputHref(inputs: InputRows, file: string, line: number): string {
+  const anchor = inputAnchor(file, line);
+  let entry = inputs.get(anchor);
+  if (!entry) inputs.set(anchor, (entry = { file, line, short: `i${inputs.size}` }));
+  return `#${entry.short}`;
+}
+
+/** `hrefs`: each step's link on the page (`#s<k>` or `#<step id>`), made once per step rather than once per term. */
+function termView(graph: FigureGraph, term: Term, hrefs: ReadonlyMap<string, string>, inputs: InputRows): AuditTerm {
   switch (term.kind) {
     case 'figure': {
       const target: FigureNode | undefined = graph.get(term.id);
-      const href = `#${fragment(anchors.get(term.id)!)}`;
+      const href = hrefs.get(term.id)!;
       if (target?.kind !== 'scalar') return { symbol: term.symbol, href, kind: 'step', text: '', qualifier: '', note: '' };
       const text = show(target.value);
       return { symbol: term.symbol, href, kind: 'step', text, qualifier: target.unit, note: ` = ${text} ${target.unit}` };
     }
     case 'cell': {
       const qualifier = term.cell.column === term.symbol ? '' : term.cell.column;
-      return { symbol: term.symbol, href: input(term.cell.file, term.cell.line), kind: 'cell', text: term.cell.value === '' ? '“”' : term.cell.value, qualifier, note: ` ${qualifier ? `${qualifier} ` : ''}“${term.cell.value}”` };
+      return { symbol: term.symbol, href: inputHref(inputs, term.cell.file, term.cell.line), kind: 'cell', text: term.cell.value === '' ? '“”' : term.cell.value, qualifier, note: ` ${qualifier ? `${qualifier} ` : ''}“${term.cell.value}”` };
     }
     case 'factor':
-      return { symbol: term.symbol, href: input(term.factor.file, term.factor.line), kind: 'factor', text: term.factor.factorId, qualifier: 'factor', note: ` factor ${term.factor.factorId}` };
+      return { symbol: term.symbol, href: inputHref(inputs, term.factor.file, term.factor.line), kind: 'factor', text: term.factor.factorId, qualifier: 'factor', note: ` factor ${term.factor.factorId}` };
   }
 }
 
