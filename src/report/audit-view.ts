@@ -17,7 +17,7 @@ import { physicalLines } from './written.ts';
  * holding its terms' values and its own value or values (`AuditRun`). A verifier recomputes a
  * figure from the step's terms and, one click away, their rows; the page's script adds the
  * way up (“used by”) from the same links. Measured on the synthetic 40-line × 25-indicator
- * product: 601 KB as one entry per step, 357 KB with runs (docs/performance.md).
+ * product: 611 KB as one entry per step, 357 KB with runs (docs/performance.md).
  *
  * Anchors: a step that other pages link to (the results' modules, parts and totals, their
  * flow indicators, product flows, process models, site shares) is anchored by its step id,
