@@ -1,11 +1,7 @@
-/**
- * Indicator vectors: one number per indicator, in the calculation's indicator order. A
- * value that was not available is NaN, which propagates through every sum and product, so
- * an incomplete input can never turn into a silent number; it is reported as null.
- * Plain arrays, not typed arrays: a product allocates hundreds of short vectors, and V8
- * allocates small plain arrays several times faster (measured in `npm run bench`).
- */
-export type Vec = number[];
+/** Arithmetic on indicator vectors (`Vec`, defined with the figure graph whose vector steps hold them). */
+import type { Vec } from '../trace/graph.ts';
+
+export type { Vec };
 
 // Built with push so V8 keeps them packed arrays of doubles (new Array(n) would be holey, and slower).
 export function zeros(length: number): Vec {

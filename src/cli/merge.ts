@@ -7,7 +7,8 @@ import { familyPdfJobs, printPdfs } from '../render/pdf.ts';
 import { keepProduct } from '../render/incremental.ts';
 import { checkOutputDir, withStagedOutput } from '../render/output.ts';
 import { readShardRecords } from '../render/shards.ts';
-import { copyInputs, hashInputs, VERIFICATION_DIR, writeManifest, type HashedFile } from '../render/verification.ts';
+import { VERIFICATION_DIR } from '../files.ts';
+import { copyInputs, hashInputs, writeManifest, type HashedFile } from '../render/verification.ts';
 import { EXIT, UsageError, type Io } from './io.ts';
 import { printProblems } from './report-problems.ts';
 

@@ -5,8 +5,8 @@ import { readCsvText } from '../load/csv.ts';
 import { RESULTS_FORMAT, type ResultsJson, type ResultsSummary } from '../report/results.ts';
 import { GraphReader, type GraphJson, type WrittenCell } from '../trace/graph-json.ts';
 import { CSV_FILES } from '../schema/index.ts';
-import { MANIFEST_FILE, VERIFICATION_DIR } from '../render/verification.ts';
-import { readCatalogueSummaries } from '../render/results-files.ts';
+import { MANIFEST_FILE, RESULTS_JSON, VERIFICATION_DIR } from '../files.ts';
+import { readCatalogueSummaries } from '../report/catalogue-results.ts';
 import type { RowKeyOf } from './attribute.ts';
 
 /**
@@ -74,11 +74,11 @@ export async function readResultsSet(label: string): Promise<ResultsSet> {
   };
 
   if (!info.isDirectory()) take(await readResults(label), label);
-  else if (await isFile(path.join(label, 'results.json'))) take(await readResults(path.join(label, 'results.json')), path.join(label, 'results.json'));
+  else if (await isFile(path.join(label, RESULTS_JSON))) take(await readResults(path.join(label, RESULTS_JSON)), path.join(label, RESULTS_JSON));
   else {
     // A folder of results.json sets: one per product folder.
     for (const entry of (await readdir(label, { withFileTypes: true })).filter((e) => e.isDirectory()).sort((a, b) => (a.name < b.name ? -1 : 1))) {
-      const file = path.join(label, entry.name, 'results.json');
+      const file = path.join(label, entry.name, RESULTS_JSON);
       if (await isFile(file)) take(await readResults(file), file);
     }
     if (products.size === 0) throw new UsageError(`${label}: no results.json in it or in its sub-folders; expected a build folder`);
@@ -87,7 +87,7 @@ export async function readResultsSet(label: string): Promise<ResultsSet> {
   const graph = async (productId: string) => {
     const given = inline.get(productId);
     if (given) return new GraphReader(given, given.indicators, inputs.written);
-    const file = path.join(root, productId, 'results.json');
+    const file = path.join(root, productId, RESULTS_JSON);
     if (!(await isFile(file))) return undefined;
     const json = (await readJson(file)) as ResultsJson;
     requireFormat(json, file);

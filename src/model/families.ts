@@ -3,7 +3,7 @@ import type { familiesCsv } from '../schema/families.ts';
 import type { RowOf } from '../schema/csv-file.ts';
 import { cellProblem, type Row, type Table } from '../schema/table.ts';
 import type { ProductionRow } from './sites.ts';
-import type { Product } from './types.ts';
+import type { Product } from './rows.ts';
 
 export type FamilyRow = RowOf<typeof familiesCsv>;
 

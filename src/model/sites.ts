@@ -5,7 +5,7 @@ import { BUILT_IN_KEYS, type siteCsv } from '../schema/site.ts';
 import { productionCsv } from '../schema/production.ts';
 import { columnsOf, type RowOf } from '../schema/csv-file.ts';
 import { cellProblem, type Row, type Table } from '../schema/table.ts';
-import type { Product } from './types.ts';
+import type { Product } from './rows.ts';
 
 export type SiteRow = RowOf<typeof siteCsv>;
 export type ProductionRow = RowOf<typeof productionCsv>;

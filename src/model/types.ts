@@ -1,5 +1,4 @@
-import type { RowOf } from '../schema/csv-file.ts';
-import type { productsCsv, bomCsv, materialsCsv, eolCsv, activitiesCsv, transportCsv, factorsCsv } from '../schema/index.ts';
+import type { Product, BomLine, Material, EolRow, Activity, TransportLeg, FactorRow } from './rows.ts';
 import type { Declaration } from '../schema/declaration.ts';
 import type { JsonFile } from '../load/json.ts';
 import type { Table } from '../schema/table.ts';
@@ -7,21 +6,9 @@ import type { ProcessDefinition, ProcessRow } from './processes.ts';
 import type { ProductionRow, SiteAllocation, SiteRow } from './sites.ts';
 import type { Family, FamilyRow } from './families.ts';
 
-/** Typed rows of each input file, inferred from the zod schemas (never written twice). */
-export type Product = RowOf<typeof productsCsv>;
-export type BomLine = RowOf<typeof bomCsv>;
-export type Material = RowOf<typeof materialsCsv>;
-export type EolRow = RowOf<typeof eolCsv>;
-export type Activity = RowOf<typeof activitiesCsv>;
-export type TransportLeg = RowOf<typeof transportCsv>;
-export type FactorRow = RowOf<typeof factorsCsv>;
-
-/** A factor row's value for an indicator: a number, or null where the cell is empty ("not available"). */
-export function indicatorValue(factor: FactorRow, code: string): number | null {
-  const value = (factor as unknown as Record<string, number | null | undefined>)[code];
-  return value ?? null;
-}
-
+// The row types live in rows.ts (sites.ts and families.ts use them without importing this file back).
+export type { Product, BomLine, Material, EolRow, Activity, TransportLeg, FactorRow } from './rows.ts';
+export { indicatorValue } from './rows.ts';
 
 /** The validated project: every table with its rows' provenance, and the declaration. */
 export interface Project {

@@ -16,6 +16,7 @@ import { PACKAGE_ROOT } from './paths.ts';
 import { ResultsWriter, writeCatalogueResults } from './results-files.ts';
 import type { HashedFile } from './verification.ts';
 import { renderSite } from './site.ts';
+import { RESULTS_JSON, RESULTS_CSV } from '../files.ts';
 
 /**
  * Products per Eleventy render. Eleventy keeps every page of a run in memory; rendering the
@@ -170,8 +171,8 @@ async function writeFamilies(project: Project, outDir: string, outcomes: readonl
     const results = familyResults(family, summaries, project.declaration.report.family_tolerance);
     const dir = path.join(outDir, familyDir(family.id));
     await mkdir(dir, { recursive: true });
-    await writeFile(path.join(dir, 'results.json'), `${JSON.stringify(results, null, 1)}\n`);
-    await writeFile(path.join(dir, 'results.csv'), familyResultsCsv(results));
+    await writeFile(path.join(dir, RESULTS_JSON), `${JSON.stringify(results, null, 1)}\n`);
+    await writeFile(path.join(dir, RESULTS_CSV), familyResultsCsv(results));
     views.push(familyView(project, results, names));
   }
   return views;

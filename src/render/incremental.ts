@@ -5,12 +5,12 @@ import { TOOL_VERSION } from '../reference/tool.ts';
 import type { CatalogueEntry } from '../report/site-view.ts';
 import { physicalLines } from '../report/written.ts';
 import { inputTables, type InputKey } from './input-key.ts';
-import { CACHE_FILE } from './output.ts';
 
 export { CACHE_FILE };
-import { readCatalogueTexts, summaryProductId } from './results-files.ts';
+import { readCatalogueTexts, summaryProductId } from '../report/catalogue-results.ts';
 import { RESULTS_FORMAT } from '../report/results.ts';
-import { MANIFEST_FILE, VERIFICATION_DIR, type HashedFile } from './verification.ts';
+import { CACHE_FILE, MANIFEST_FILE, RESULTS_JSON, VERIFICATION_DIR } from '../files.ts';
+import type { HashedFile } from './verification.ts';
 
 /**
  * The build cache: per product, the key of its inputs (`productInputKey`) and its catalogue
@@ -57,7 +57,7 @@ const readJson = async <T>(file: string): Promise<T | undefined> => {
 export async function readPreviousBuild(outDir: string): Promise<PreviousBuild | undefined> {
   const cache = await readJson<CacheFile>(path.join(outDir, CACHE_FILE));
   if (!cache || cache.format !== CACHE_FORMAT || cache.tool !== TOOL_VERSION) return undefined;
-  const results = await readCatalogueTexts(path.join(outDir, 'results.json')).catch(() => undefined);
+  const results = await readCatalogueTexts(path.join(outDir, RESULTS_JSON)).catch(() => undefined);
   if (!results?.products || results.format !== RESULTS_FORMAT) return undefined;
   const inputs = new Map<string, string[]>();
   const inputsDir = path.join(outDir, VERIFICATION_DIR, 'inputs');

@@ -6,7 +6,6 @@ import { UsageError } from '../problems.ts';
 export const OUTPUT_MARKER = '.loopsheet-output';
 
 /** The build cache (src/render/incremental.ts): per product, the key of its inputs. */
-export const CACHE_FILE = '.loopsheet-cache.json';
 
 async function exists(file: string): Promise<boolean> {
   try {

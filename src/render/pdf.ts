@@ -4,6 +4,7 @@ import { pathToFileURL } from 'node:url';
 import type { Browser, Page } from 'puppeteer';
 import { CHROMIUM_ARGS, type FoundBrowser } from './browser.ts';
 import type { Project } from '../model/types.ts';
+import { DECLARATION_PAGE, DECLARATION_PDF } from '../files.ts';
 
 export interface PdfJob {
   /** The HTML page inside the build folder. */
@@ -53,8 +54,8 @@ export function familyPdfJobs(project: Project, outDir: string, families: Readon
 function pdfJob(project: Project, dir: string, title: string): PdfJob {
   const { verification, illustrative, issued } = project.declaration;
   return {
-    html: path.join(dir, 'index.html'),
-    pdf: path.join(dir, 'declaration.pdf'),
+    html: path.join(dir, DECLARATION_PAGE),
+    pdf: path.join(dir, DECLARATION_PDF),
     title,
     status: verification.status === 'verified' ? `verified ${verification.date ?? ''}` : 'DRAFT — not verified',
     ...(illustrative ? { footnote: 'Illustrative data: invented values, not a real dataset' } : {}),

@@ -12,7 +12,7 @@ import type { HashedFile } from './verification.ts';
  * the machine or the run. A shard build writes its products' folders, the input copies and
  * this record; `loopsheet merge` joins the shards into the site a single build writes.
  */
-export const SHARD_RECORD = 'loopsheet-shard.json';
+import { SHARD_RECORD } from '../files.ts';
 
 export interface ShardSpec {
   /** 1-based. */

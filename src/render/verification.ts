@@ -4,15 +4,15 @@ import { copyFile, mkdir, readdir, readFile, stat, writeFile } from 'node:fs/pro
 import path from 'node:path';
 import { CSV_FILES, DECLARATION_FILE } from '../schema/index.ts';
 import { TOOL_NAME, TOOL_VERSION } from '../reference/tool.ts';
-import { CACHE_FILE, OUTPUT_MARKER } from './output.ts';
+import { CACHE_FILE } from '../files.ts';
+import { OUTPUT_MARKER } from './output.ts';
 
 /**
  * The verification pack, `out/verification/`: a copy of every input file, and
  * `manifest.json` with the SHA-256 of every input, of the configuration and of every
  * output, so a verifier can confirm later that a published file came from given inputs.
  */
-export const VERIFICATION_DIR = 'verification';
-export const MANIFEST_FILE = 'manifest.json';
+import { MANIFEST_FILE, VERIFICATION_DIR } from '../files.ts';
 
 export interface HashedFile {
   file: string;

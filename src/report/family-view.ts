@@ -9,6 +9,7 @@ import type { ResultMethod } from '../trace/ids.ts';
 /** The catalogue's headline: GWP-total of cut-off A1-A3. */
 const HEADLINE_FIGURE = resultFigureId('cutoff', 'A1-A3', 'GWP-total');
 import { formatInput, formatScientific, formatShare } from './format.ts';
+import { RESULTS_JSON, RESULTS_CSV } from '../files.ts';
 
 /** A family figure as the page shows it: the mean (a link to its derivation) and the range. */
 export interface FamilyCell {
@@ -123,7 +124,7 @@ export function familyView(project: Project, results: FamilyResults, names: Read
     ],
     headline,
     audit,
-    resultsJson: 'results.json',
-    resultsCsv: 'results.csv',
+    resultsJson: RESULTS_JSON,
+    resultsCsv: RESULTS_CSV,
   };
 }

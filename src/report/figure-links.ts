@@ -3,7 +3,7 @@
  * one page, `<product_id>/audit.html`; a figure's anchor is its results.json figure id, so a
  * verifier can go from results.json to the page and back by the same name.
  */
-export const AUDIT_PAGE = 'audit.html';
+import { AUDIT_PAGE } from '../files.ts';
 
 /** A URL fragment for an id (ids hold `/`, `:` and `&`, and user-chosen line ids may hold anything). */
 export const fragment = (id: string): string => encodeURIComponent(id).replace(/%2F/g, '/').replace(/%3A/g, ':');

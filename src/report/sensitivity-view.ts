@@ -1,6 +1,7 @@
 import { findIndicator } from '../reference/indicators.ts';
 import { barChart, type ChartDatum, type ChartView } from './charts.ts';
-import { AUDIT_PAGE, fragment, inputAnchor } from './figure-links.ts';
+import { AUDIT_PAGE } from '../files.ts';
+import { fragment, inputAnchor } from './figure-links.ts';
 import { formatScientific, formatShare } from './format.ts';
 import type { SensitivityJson } from './sensitivity.ts';
 

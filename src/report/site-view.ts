@@ -9,7 +9,8 @@ import { formatInput, formatShare } from './format.ts';
 import type { AuditView } from './audit-view.ts';
 import { PROCESS_CAUTION, type DeclarationResultsView } from './declaration-view.ts';
 import type { ResultsSummary } from './results.ts';
-import { AUDIT_PAGE, factorAnchor, factorHref, figureHref, fragment, inputAnchor } from './figure-links.ts';
+import { AUDIT_PAGE, RESULTS_CSV, RESULTS_JSON } from '../files.ts';
+import { factorAnchor, factorHref, figureHref, fragment, inputAnchor } from './figure-links.ts';
 import { physicalLines } from './written.ts';
 import { PROCESS_PREFIX } from '../schema/process-parameters.ts';
 import { allocationStepOf } from '../calc/allocation.ts';
@@ -481,8 +482,8 @@ function productView(project: Project, rows: ProductRows, report: ProductReport 
     ...(report ? { results: report.results, audit: report.audit } : {}),
     datasets: [...new Set(factors.map((row) => row.value.dataset).filter((d): d is string => Boolean(d)))].sort(),
     families: project.families.filter((family) => family.members.some((m) => m.productId === product.product_id)).map((family) => ({ id: family.id, name: family.name, url: `../${familyDir(family.id)}/index.html` })),
-    resultsJson: 'results.json',
-    resultsCsv: 'results.csv',
+    resultsJson: RESULTS_JSON,
+    resultsCsv: RESULTS_CSV,
   };
 }
 

@@ -1,7 +1,8 @@
 import { afterAll, describe, expect, it } from 'vitest';
 import { mkdir, readFile, writeFile } from 'node:fs/promises';
 import path from 'node:path';
-import { readCatalogueSummaries, summaryProductId, writeCatalogueResults } from '../../src/render/results-files.ts';
+import { writeCatalogueResults } from '../../src/render/results-files.ts';
+import { readCatalogueSummaries, summaryProductId } from '../../src/report/catalogue-results.ts';
 import type { ResultsSummary } from '../../src/report/results.ts';
 import { removeDir, tempDir } from '../helpers.ts';
 
