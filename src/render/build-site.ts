@@ -89,7 +89,7 @@ const chunk = <T>(items: T[], size: number): T[][] => Array.from({ length: Math.
  */
 export async function buildSite(project: Project, problems: readonly Problem[], outDir: string, options: SiteBuildOptions): Promise<SiteBuildResult> {
   const size = options.shardSize ?? SHARD_SIZE;
-  const context = pageContextKey(project, problems, options.pdfs);
+  const context = pageContextKey(project, options.pdfs);
   const selected = rowsByProduct(project)
     .map((rows, index) => ({ rows, index }))
     .filter(({ rows }) => options.select?.(rows.product.value.product_id) ?? true);

@@ -4,7 +4,8 @@ import type { Project } from '../model/types.ts';
 import { TOOL_VERSION } from '../reference/tool.ts';
 import type { CatalogueEntry } from '../report/site-view.ts';
 import { physicalLines } from '../report/written.ts';
-import { inputTables, type InputKey } from './input-key.ts';
+import type { InputKey } from './input-key.ts';
+import { inputTables } from '../model/reach.ts';
 
 export { CACHE_FILE };
 import { readCatalogueTexts, summaryProductId } from '../report/catalogue-results.ts';

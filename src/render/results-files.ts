@@ -14,7 +14,8 @@ import type { ProductReport } from '../report/site-view.ts';
 import { auditHtml } from './audit-html.ts';
 import { hashText, type HashedFile } from './verification.ts';
 import { renderChartSvg } from './charts.ts';
-import { productInputKey, productReach, readsOutside } from './input-key.ts';
+import { productInputKey, readsOutside } from './input-key.ts';
+import { productReach } from '../model/reach.ts';
 import { RESULTS_JSON, RESULTS_CSV } from '../files.ts';
 
 
@@ -52,7 +53,7 @@ export class ResultsWriter {
     for (const chart of [...view.charts, ...(view.sensitivity?.scopes.flatMap((scope) => scope.charts) ?? [])]) chart.svg = await renderChartSvg(chart);
     const outside = readsOutside(ctx.project, productReach(ctx.project, rows), product.graph);
     // A row the key does not cover would let `build --changed` keep a stale product: stop instead.
-    if (outside) throw new Error(`internal: figure ${outside.figure} of ${summary.product_id} reads ${outside.file} line ${outside.line}, which its input key does not cover (src/render/input-key.ts productReach); please report this`);
+    if (outside) throw new Error(`internal: figure ${outside.figure} of ${summary.product_id} reads ${outside.file} line ${outside.line}, which its input key does not cover (src/model/reach.ts productReach); please report this`);
     const audit = auditView(ctx.project, product, rows.bom);
     audit.html = auditHtml(audit);
     return { report: { summary, results: view, audit }, key: productInputKey(ctx.project, rows, this.context).key, hashes };

@@ -3,9 +3,9 @@ import { CalcContext } from '../../src/calc/context.ts';
 import { calculateProduct } from '../../src/calc/product.ts';
 import { rowsByProduct } from '../../src/model/by-product.ts';
 import { loadProject } from '../../src/model/project.ts';
-import { productInputKey, productReach, readsOutside } from '../../src/render/input-key.ts';
+import { productInputKey, readsOutside } from '../../src/render/input-key.ts';
+import { productReach, reachedRows } from '../../src/model/reach.ts';
 import { mapLimit } from '../../src/render/each-limit.ts';
-import { productInputs } from '../../src/report/site-view.ts';
 import { DEMO } from '../helpers.ts';
 
 /**
@@ -31,7 +31,7 @@ describe('input key', async () => {
     const rows = all.find((r) => r.product.value.product_id === 'KV-EXT-6060')!;
     const alumina = project.factors.rows.find((row) => row.value.factor_id === 'alumina-smelter-grade')!;
     // The page's own list of factors does not name it: only the Glenmoor potline's alumina_factor does.
-    expect(productInputs(project, rows).factors.map((row) => row.line)).not.toContain(alumina.line);
+    expect(reachedRows(project, rows).factors.map((row) => row.line)).not.toContain(alumina.line);
     expect(productReach(project, rows).get(project.factors.file)?.has(alumina.line)).toBe(true);
     // …and the calculation does read it.
     const graph = calculateProduct(ctx, rows).graph;
