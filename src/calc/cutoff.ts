@@ -1,5 +1,5 @@
 import type { Activity, TransportLeg } from '../model/types.ts';
-import type { AllocatedRow } from '../model/sites.ts';
+import type { ProductRows } from '../model/by-product.ts';
 import { siteFigures } from './allocation.ts';
 import type { Row } from '../schema/table.ts';
 import { cellTerm, figureTerm, type FigureGraph, type Term } from '../trace/graph.ts';
@@ -31,19 +31,15 @@ export interface CutoffResult {
   };
 }
 
-export interface ProductRows {
-  activities: Row<Activity>[];
-  transport: Row<TransportLeg>[];
-  /** Site rows allocated to the product; they join its own activities of the same module. */
-  site: readonly AllocatedRow[];
-}
+/** The product's own rows cut-off reads besides its inventory (site rows allocated to it join its activities of the same module). */
+export type CutoffRows = Pick<ProductRows, 'activities' | 'transport' | 'site'>;
 
 /**
  * Cut-off ("polluter pays", EN 15804+A2): recycled input carries only its own
  * reprocessing, scrap and end-of-life material leave the system free of burden, and the
  * net benefit of recycling is reported in module D beside the A–C modules.
  */
-export function cutoff(ctx: CalcContext, graph: FigureGraph, inv: Inventory, rows: ProductRows): CutoffResult {
+export function cutoff(ctx: CalcContext, graph: FigureGraph, inv: Inventory, rows: CutoffRows): CutoffResult {
   const K = ctx.length;
   const factor = (id: string): ResolvedFactor => {
     const resolved = ctx.factor(id);

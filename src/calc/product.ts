@@ -1,5 +1,5 @@
 import type { ProductRows } from '../model/by-product.ts';
-import type { Method } from '../schema/declaration.ts';
+import { chosenMethods } from '../schema/declaration.ts';
 import { FigureGraph } from '../trace/graph.ts';
 import { cffSharedParts, circularFootprint, type CffMethod, type CffResult } from './cff.ts';
 import type { CalcContext } from './context.ts';
@@ -18,7 +18,7 @@ export interface ProductResult {
 
 /** The methods a declaration reports besides cut-off (always computed). */
 export function reportedMethods(ctx: CalcContext): CffMethod[] {
-  const chosen: readonly Method[] = ctx.project.declaration.methods ?? ['cutoff', 'cff', 'eol-recycling', 'fifty-fifty'];
+  const chosen = chosenMethods(ctx.project.declaration);
   return (['cff', 'eol-recycling', 'fifty-fifty'] as const).filter((method) => chosen.includes(method));
 }
 

@@ -5,6 +5,7 @@ import type { Driver } from '../trace/graph.ts';
 import { expandedUses } from './contributions.ts';
 import type { CalcContext } from './context.ts';
 import type { ProductResult } from './product.ts';
+import { HEADLINE_INDICATOR } from '../reference/headline.ts';
 
 /**
  * Monte Carlo uncertainty of a product's headline results (GWP-total A1-A3, D and the A1–C4 total). Inputs with a `gsd` column —
@@ -45,7 +46,7 @@ const SCOPES = [
   { module: 'D', modules: ['D'] },
   { module: 'total', modules: ['A1', 'A2', 'A3', 'A4', 'A5', 'C1', 'C2', 'C3', 'C4'] },
 ] as const;
-const INDICATOR = 'GWP-total';
+const INDICATOR = HEADLINE_INDICATOR;
 
 /** A seeded stream of standard normal numbers (Box & Muller 1958 on pure-rand's xoroshiro128+). */
 export function normalStream(seed: number): () => number {

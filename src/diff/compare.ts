@@ -1,5 +1,6 @@
 import { resultFigureId, type ResultsSummary } from '../report/results.ts';
 import { flowResultStep, flowStep, type ResultMethod } from '../trace/ids.ts';
+import { HEADLINE_INDICATOR, HEADLINE_MODULE, HEADLINE_MODULE_D } from '../reference/headline.ts';
 
 /**
  * Which published figures moved between two builds: every product × method × module (or
@@ -35,8 +36,8 @@ export interface FigureChange extends Omit<SummaryFigure, 'value'> {
  * catalogue shows them.
  */
 export const HEADLINE_FIGURES: readonly string[] = [
-  resultFigureId('cutoff', 'A1-A3', 'GWP-total'),
-  resultFigureId('cutoff', 'D', 'GWP-total'),
+  resultFigureId('cutoff', HEADLINE_MODULE, HEADLINE_INDICATOR),
+  resultFigureId('cutoff', HEADLINE_MODULE_D, HEADLINE_INDICATOR),
   resultFigureId('cutoff', 'total', 'GWP-total'),
   resultFigureId('cff', 'total', 'GWP-total'),
   resultFigureId('eol-recycling', 'total', 'GWP-total'),

@@ -6,6 +6,7 @@ import { findIndicator } from '../reference/indicators.ts';
 import { nearestName } from '../reference/nearest.ts';
 import { convertible, dimensionOf, unitsOf, type Dimension } from '../reference/units.ts';
 import { cellProblem, type Row, type Table } from '../schema/table.ts';
+import { chosenMethods } from '../schema/declaration.ts';
 import { indicatorValue, type BomLine, type EolRow, type FactorRow, type Material, type Product, type Project } from './types.ts';
 
 /**
@@ -258,7 +259,7 @@ function factorRequirements(ctx: CheckContext): void {
     reported.add(key);
     ctx.at(p.materials, material.line, material.raw, String(column), 'error', 'FACTOR_REQUIRED', `is empty, but ${because}`, { expected: 'a factor_id in factors.csv' });
   };
-  const methods = p.declaration?.methods ?? ['cff', 'eol-recycling', 'fifty-fifty'];
+  const methods = chosenMethods(p.declaration);
   const cffReported = methods.some((method) => method !== 'cutoff');
   for (const line of p.bom.rows) {
     const where = `bom.csv line ${line.line}`;

@@ -59,8 +59,6 @@ export interface SiteAllocation {
 /** The contract's columns of production.csv; any other is a user's key. */
 const PRODUCTION_COLUMNS: ReadonlySet<string> = new Set(columnsOf(productionCsv).map((column) => column.name));
 
-export const NO_ALLOCATION: SiteAllocation = { groups: [], byProduct: new Map() };
-
 const groupKey = (site: string, period: string) => `${site}\u0000${period}`;
 
 /**

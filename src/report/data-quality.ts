@@ -2,6 +2,7 @@ import { factorContributions } from '../calc/contributions.ts';
 import type { CalcContext } from '../calc/context.ts';
 import type { ProductResult } from '../calc/product.ts';
 import { findGas } from '../reference/ghg.ts';
+import { HEADLINE_INDICATOR } from '../reference/headline.ts';
 
 /**
  * PEF data quality rating (Commission Recommendation (EU) 2021/2279): per dataset,
@@ -107,7 +108,7 @@ export function productDataQuality(ctx: CalcContext, result: ProductResult): Dat
     const dqr = scored > 0 ? weighted / scored : null;
     indicators[code] = { dqr, rating: dqr === null ? null : dqrRating(dqr), scored_share: all > 0 ? scored / all : null };
   });
-  const gwp = ctx.indicators.indexOf('GWP-total');
+  const gwp = ctx.indicators.indexOf(HEADLINE_INDICATOR);
   const shareOf = (k: number): number | null => {
     if (gwp < 0) return null;
     const total = contributions.reduce((sum, _, j) => sum + weight(j, gwp), 0);

@@ -13,6 +13,7 @@ import { resultFigureId, type ResultsSummary } from './results.ts';
 import type { CffMethod } from '../calc/cff.ts';
 import { figureId, processStep, processStepOf } from '../trace/ids.ts';
 import { sensitivityView, type SensitivityView } from './sensitivity-view.ts';
+import { HEADLINE_INDICATOR, HEADLINE_MODULE, HEADLINE_MODULE_D } from '../reference/headline.ts';
 
 /**
  * What a declaration page shows of the results, formatted, every number with the link to
@@ -152,11 +153,11 @@ export function declarationResultsView(ctx: CalcContext, rows: ProductRows, resu
     ],
   };
 
-  const headlineCode = 'GWP-total';
+  const headlineCode = HEADLINE_INDICATOR;
   const hasHeadline = ctx.indicators.includes(headlineCode);
   const headline = {
-    a1a3: hasHeadline ? cell(cutoff.modules['A1-A3']?.[headlineCode], resultFigureId('cutoff', 'A1-A3', headlineCode)) : { text: 'n/a' },
-    moduleD: hasHeadline ? cell(cutoff.modules.D?.[headlineCode], resultFigureId('cutoff', 'D', headlineCode), true) : { text: 'n/a' },
+    a1a3: hasHeadline ? cell(cutoff.modules[HEADLINE_MODULE]?.[headlineCode], resultFigureId('cutoff', HEADLINE_MODULE, headlineCode)) : { text: 'n/a' },
+    moduleD: hasHeadline ? cell(cutoff.modules[HEADLINE_MODULE_D]?.[headlineCode], resultFigureId('cutoff', HEADLINE_MODULE_D, headlineCode), true) : { text: 'n/a' },
     recycledContent: recycledContent[2]!.cell,
     a1a3Value: String(cutoff.modules['A1-A3']?.[headlineCode] ?? ''),
     moduleDValue: String(cutoff.modules.D?.[headlineCode] ?? ''),

@@ -1,6 +1,7 @@
 import type { Family, WeightCell } from '../model/families.ts';
 import type { IndicatorValues, ResultsSummary } from './results.ts';
 import { textCell } from './results-csv.ts';
+import { HEADLINE_INDICATOR, HEADLINE_MODULE } from '../reference/headline.ts';
 
 /** A family figure: the members' weighted mean, and the lowest and highest member. */
 export interface FamilyStat {
@@ -48,7 +49,7 @@ export interface FamilyResults {
   member_values: Record<string, Record<string, Record<string, IndicatorValues>>>;
 }
 
-const HEADLINE = { module: 'A1-A3', indicator: 'GWP-total' } as const;
+const HEADLINE = { module: HEADLINE_MODULE, indicator: HEADLINE_INDICATOR } as const;
 
 /**
  * The weighted mean of a family's members, mean = Σ w_p·v_p / Σ w_p, with the lowest and

@@ -7,9 +7,10 @@ import { resultFigureId } from './results.ts';
 import type { ResultMethod } from '../trace/ids.ts';
 
 /** The catalogue's headline: GWP-total of cut-off A1-A3. */
-const HEADLINE_FIGURE = resultFigureId('cutoff', 'A1-A3', 'GWP-total');
+const HEADLINE_FIGURE = resultFigureId('cutoff', HEADLINE_MODULE, HEADLINE_INDICATOR);
 import { formatInput, formatScientific, formatShare } from './format.ts';
 import { RESULTS_JSON, RESULTS_CSV } from '../files.ts';
+import { HEADLINE_INDICATOR, HEADLINE_MODULE } from '../reference/headline.ts';
 
 /** A family figure as the page shows it: the mean (a link to its derivation) and the range. */
 export interface FamilyCell {
@@ -92,7 +93,7 @@ export function familyView(project: Project, results: FamilyResults, names: Read
   ];
   const rc = results.flows.recycled_content;
   const share = (s: FamilyStat) => ({ mean: s.mean === null ? 'n/a' : formatShare(s.mean), range: range(s, formatShare) });
-  const headlineStat = cutoff.modules['A1-A3']?.['GWP-total'];
+  const headlineStat = cutoff.modules[HEADLINE_MODULE]?.[HEADLINE_INDICATOR];
   const headline = headlineStat ? { a1a3: { text: sci(headlineStat.mean), range: range(headlineStat, (v) => sci(v)), href: `${familyDir(results.family_id)}/${figureHref(HEADLINE_FIGURE)}` }, a1a3Value: String(headlineStat.mean ?? '') } : { a1a3: undefined, a1a3Value: '' };
   return {
     id: results.family_id,

@@ -1,6 +1,7 @@
 import type { Project } from '../model/project.ts';
 import { GWP_SOURCES } from '../reference/ghg.ts';
 import { PROCESS_CAUTION } from './declaration-view.ts';
+import { chosenMethods } from '../schema/declaration.ts';
 
 /** How site-level data were shared among products, when the project has any (ISO 14044 §4.3.4). */
 function siteAllocationStatement(project: Project): string[] {
@@ -18,7 +19,7 @@ function siteAllocationStatement(project: Project): string[] {
  */
 export function methodology(project: Project): Array<{ title: string; paragraphs: string[] }> {
   const d = project.declaration;
-  const methods = d.methods ?? ['cutoff', 'cff', 'eol-recycling', 'fifty-fifty'];
+  const methods = chosenMethods(d);
   return [
     {
       title: 'System boundary',
@@ -48,7 +49,7 @@ export function methodology(project: Project): Array<{ title: string; paragraphs
       paragraphs: [
         `Background data: ${d.background_data.map((b) => `${b.name}, version ${b.version}`).join('; ')}. Each factor row names its dataset; each input row its source. Reference year of the inventory: ${d.reference_year}.`,
         `Direct greenhouse-gas emissions are characterised with GWP-100 values from ${GWP_SOURCES[d.gwp_set]}.`,
-        'Data quality ratings (pedigree scores) are not part of the inputs of this version; the source column of each input row and the dataset of each factor row are shown instead, and the verifier judges their representativeness.',
+        'Data quality: a factor row may carry pedigree scores (TeR, GeR, TiR, P; PEF method, Recommendation (EU) 2021/2279), from which its DQR is computed; the declaration shows the DQR of each indicator weighted by the factors’ contributions, and the share of it that rests on scored factors. A factor row without scores is said to be unscored, not given a score. The source column of each input row and the dataset of each factor row are shown beside them; the verifier judges their representativeness.',
       ],
     },
     ...(project.processes.length > 0

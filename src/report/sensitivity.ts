@@ -2,10 +2,11 @@ import { inputContributions, type InputContribution } from '../calc/contribution
 import type { CalcContext } from '../calc/context.ts';
 import type { ProductResult } from '../calc/product.ts';
 import type { Project } from '../model/types.ts';
+import { HEADLINE_INDICATOR } from '../reference/headline.ts';
 
 /** How many inputs the contribution and sensitivity tables show, per result. */
 export const TOP_INPUTS = 10;
-const INDICATOR = 'GWP-total';
+const INDICATOR = HEADLINE_INDICATOR;
 
 export interface SensitivityInput {
   kind: InputContribution['kind'];

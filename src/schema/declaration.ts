@@ -6,6 +6,9 @@ import { isIsoDate, report, reportAt } from './cells.ts';
 export const METHODS = ['cutoff', 'cff', 'eol-recycling', 'fifty-fifty'] as const;
 export type Method = (typeof METHODS)[number];
 
+/** The methods a declaration reports: those it names, or every one (declaration.json `methods`, default: all). */
+export const chosenMethods = (declaration: { methods?: readonly Method[] | undefined } | undefined): readonly Method[] => declaration?.methods ?? METHODS;
+
 const nonEmpty = (description: string) => z.string().trim().min(1).meta({ description });
 
 const isoDate = (description: string) =>
