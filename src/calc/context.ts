@@ -4,7 +4,7 @@ import type { Row, Table } from '../schema/table.ts';
 import { findGas, GWP_SOURCES, type GwpSet } from '../reference/ghg.ts';
 import { findIndicator } from '../reference/indicators.ts';
 import { conversionFactor } from '../reference/units.ts';
-import { jsonPath, locate } from '../load/json.ts';
+import { jsonPath } from '../load/json.ts';
 import { cellTerm, factorTerm, figureTerm, type CellRef, type FigureGraph, type Term } from '../trace/graph.ts';
 import { flowFactor } from '../process/run.ts';
 import { processReference } from '../process/references.ts';
@@ -222,10 +222,8 @@ export class CalcContext {
 
   /** A value of declaration.json as a cell: its line, its JSON path, its text. */
   declarationCell(path: (string | number)[]): CellRef {
-    const json = this.project.declarationFile;
-    const where = locate(json, path);
-    const value = where.node ? json.text.slice(where.node.offset, where.node.offset + where.node.length) : '';
-    return { file: json.file, line: where.line, column: jsonPath(path), value };
+    const column = jsonPath(path);
+    return this.project.declarationCells.get(column) ?? { file: this.project.declarationFile.file, line: 1, column, value: '' };
   }
 
   /** A cell of a validated row, as written. */

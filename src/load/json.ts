@@ -70,6 +70,50 @@ export function parseJsonText(file: string, text: string, bytes: Buffer = Buffer
   return { ok: true, json: { file, text, bytes, value: getNodeValue(root), root } };
 }
 
+/** A value of a JSON file as written: its line, its JSON path (`energy_recovery.heat_efficiency`), its text. */
+export interface JsonCell {
+  file: string;
+  line: number;
+  column: string;
+  value: string;
+}
+
+/**
+ * Every value of a JSON file that is not an object or an array, by JSON path, located once
+ * when the file is read: the calculation cites declaration.json values as cells without
+ * going back to the parser.
+ */
+export function jsonCells(json: JsonFile): Map<string, JsonCell> {
+  const cells = new Map<string, JsonCell>();
+  const lineStarts = [0];
+  for (let i = json.text.indexOf('\n'); i !== -1; i = json.text.indexOf('\n', i + 1)) lineStarts.push(i + 1);
+  const lineOf = (offset: number) => {
+    let low = 0;
+    let high = lineStarts.length - 1;
+    while (low < high) {
+      const mid = (low + high + 1) >> 1;
+      if (lineStarts[mid]! <= offset) low = mid;
+      else high = mid - 1;
+    }
+    return low + 1;
+  };
+  const walk = (node: Node, path: Array<string | number>) => {
+    if (node.type === 'object') {
+      for (const property of node.children ?? []) {
+        const [key, value] = property.children ?? [];
+        if (key && value) walk(value, [...path, key.value as string]);
+      }
+    } else if (node.type === 'array') {
+      (node.children ?? []).forEach((child, i) => walk(child, [...path, i]));
+    } else {
+      const column = jsonPath(path);
+      cells.set(column, { file: json.file, line: lineOf(node.offset), column, value: json.text.slice(node.offset, node.offset + node.length) });
+    }
+  };
+  walk(json.root, []);
+  return cells;
+}
+
 /** Where a JSON path points: the value if present, else the nearest enclosing value. */
 export function locate(json: JsonFile, path: ReadonlyArray<string | number>): { line: number; column: number; node: Node | undefined } {
   for (let depth = path.length; depth >= 0; depth--) {

@@ -1,7 +1,7 @@
 import path from 'node:path';
 import { readCsvText } from '../load/csv.ts';
 import { readText } from '../load/text.ts';
-import { loadJson, locate, jsonPath, type JsonFile } from '../load/json.ts';
+import { jsonCells, loadJson, locate, jsonPath, type JsonFile } from '../load/json.ts';
 import { sortProblems, type Problem } from '../problems.ts';
 import { FACTOR_INDICATOR_CODES, INDICATORS, findIndicator, inReportingOrder } from '../reference/indicators.ts';
 import { CSV_FILES, DECLARATION_FILE, productsCsv, bomCsv, materialsCsv, eolCsv, activitiesCsv, transportCsv, factorsCsv, processCsv, siteCsv, productionCsv, familiesCsv } from '../schema/index.ts';
@@ -14,7 +14,7 @@ import { describeIssue } from '../schema/issues.ts';
 import { tableReader, indicatorHeaderName, type Table, type TableOptions, type TableReader } from '../schema/table.ts';
 import type { CsvFileSchema, RowOf } from '../schema/csv-file.ts';
 import { nearestName } from '../reference/nearest.ts';
-import { crossFileChecks } from './checks.ts';
+import { crossFileChecks } from './checks/index.ts';
 
 export * from './types.ts';
 import type { Project } from './types.ts';
@@ -102,7 +102,7 @@ export async function loadProject(dirArgument: string): Promise<ProjectLoad> {
     problems.push(...crossFileChecks({ ...tables, declaration, declarationFile }));
     const sorted = sortProblems(problems);
     if (declaration && declarationFile && !sorted.some((p) => p.severity === 'error')) {
-      return { project: { ...tables, declaration, declarationFile }, problems: sorted };
+      return { project: { ...tables, declaration, declarationFile, declarationCells: jsonCells(declarationFile) }, problems: sorted };
     }
     return { problems: sorted };
   }

@@ -1,6 +1,6 @@
 import type { Product, BomLine, Material, EolRow, Activity, TransportLeg, FactorRow } from './rows.ts';
 import type { Declaration } from '../schema/declaration.ts';
-import type { JsonFile } from '../load/json.ts';
+import type { JsonCell, JsonFile } from '../load/json.ts';
 import type { Table } from '../schema/table.ts';
 import type { ProcessDefinition, ProcessRow } from './processes.ts';
 import type { ProductionRow, SiteAllocation, SiteRow } from './sites.ts';
@@ -15,6 +15,8 @@ export interface Project {
   dir: string;
   declaration: Declaration;
   declarationFile: JsonFile;
+  /** Every value of declaration.json as a cell, by JSON path, located when the file was read (the calculation cites them). */
+  declarationCells: Map<string, JsonCell>;
   /** Indicator codes the declaration reports, in EN 15804+A2 order. */
   indicators: string[];
   /** Indicator codes that factors.csv has a column for. */

@@ -1,0 +1,70 @@
+import { locate } from '../../load/json.ts';
+import { parameterSpec } from '../../schema/process-parameters.ts';
+import { findIndicator } from '../../reference/indicators.ts';
+import { indicatorValue } from '../types.ts';
+import type { CheckContext } from './context.ts';
+
+/** Factor ids the project uses, with the first place each is used. */
+function usedFactors(ctx: CheckContext): Map<string, string> {
+  const p = ctx.project;
+  const used = new Map<string, string>();
+  const use = (id: string | undefined, where: string) => {
+    if (id !== undefined && !used.has(id)) used.set(id, where);
+  };
+  const materialIds = new Set(p.bom.rows.map((row) => row.value.material));
+  for (const row of p.materials.rows) {
+    if (!materialIds.has(row.value.material)) continue;
+    for (const column of ['virgin', 'recycled', 'eol_recycling', 'substituted', 'landfill', 'incineration'] as const) use(row.value[column], `materials.csv line ${row.line}`);
+  }
+  for (const row of p.eol.rows) {
+    use(row.value.transport_factor, `eol.csv line ${row.line}`);
+    use(row.value.processing_factor, `eol.csv line ${row.line}`);
+  }
+  for (const row of p.activities.rows) use(row.value.factor, `activities.csv line ${row.line}`);
+  for (const row of p.site.rows) use(row.value.factor, `site.csv line ${row.line}`);
+  for (const row of p.transport.rows) use(row.value.factor, `transport.csv line ${row.line}`);
+  for (const row of p.process.rows) if (parameterSpec(row.value.kind, row.value.parameter)?.type === 'factor') use(row.value.value, `process.csv line ${row.line}`);
+  return used;
+}
+
+export function factorCompleteness(ctx: CheckContext): void {
+  const p = ctx.project;
+  const present = new Set(p.factorIndicators);
+  const asked = p.indicators.filter((code) => findIndicator(code)?.basis === 'factors');
+  const requested = p.declaration?.indicators;
+  if (requested && p.declarationFile) {
+    for (const code of asked) {
+      if (present.has(code)) continue;
+      const where = locate(p.declarationFile, ['indicators', requested.indexOf(code)]);
+      ctx.problems.push({
+        severity: 'warning', code: 'INDICATOR_NO_DATA', file: p.declarationFile.file, line: where.line, column: 'indicators', columnIndex: where.column, value: code,
+        message: `is asked for, but factors.csv has no ${code} column; every ${code} figure will be incomplete`,
+        expected: `a ${code} column in factors.csv`,
+      });
+    }
+  }
+  // The method comparison can only show indicators the declaration computes from factors.
+  const compared = p.declaration?.report.compare_indicators ?? [];
+  if (p.declarationFile) {
+    compared.forEach((code, index) => {
+      if (asked.includes(code)) return;
+      const where = locate(p.declarationFile!, ['report', 'compare_indicators', index]);
+      ctx.problems.push({
+        severity: 'warning', code: 'INDICATOR_NO_DATA', file: p.declarationFile!.file, line: where.line, column: 'report.compare_indicators', columnIndex: where.column, value: code,
+        message: `is asked for in the method comparison, but the declaration does not report ${code} from factors.csv; the comparison leaves it out`,
+        expected: `an indicator reported from factors.csv (${asked.slice(0, 3).join(', ')}, …)`,
+      });
+    });
+  }
+  const used = usedFactors(ctx);
+  for (const row of p.factors.rows) {
+    const where = used.get(row.value.factor_id);
+    if (!where) continue;
+    const missing = asked.filter((code) => present.has(code) && indicatorValue(row.value, code) === null);
+    if (missing.length === 0) continue;
+    const first = missing[0]!;
+    ctx.at(p.factors, row.line, row.raw, first, 'warning', 'FACTOR_VALUE_MISSING',
+      `factor ${row.value.factor_id} (used by ${where}) has no value for ${missing.join(', ')}; figures using it will be marked incomplete`,
+      { value: row.raw[first] ?? '', expected: 'a number (an empty cell means "not available", never 0)' });
+  }
+}

@@ -1,0 +1,54 @@
+import type { CheckContext } from './context.ts';
+
+/** EN 15804+A2 declares per declared unit: the BOM must add up to it. */
+const UNIT_MASS_TOLERANCE = 0.01;
+
+export function productRules(ctx: CheckContext): void {
+  const p = ctx.project;
+  const writtenLines = new Map<string, number>();
+  for (const row of p.bom.written) {
+    const product = (row.raw.product_id ?? '').trim();
+    writtenLines.set(product, (writtenLines.get(product) ?? 0) + 1);
+  }
+  const validLines = new Map<string, typeof p.bom.rows>();
+  for (const row of p.bom.rows) {
+    const list = validLines.get(row.value.product_id) ?? [];
+    list.push(row);
+    validLines.set(row.value.product_id, list);
+  }
+  const scenarioMaterials = new Map<string, Set<string>>();
+  for (const row of p.eol.written) {
+    const scenario = (row.raw.scenario ?? '').trim();
+    if (!scenarioMaterials.has(scenario)) scenarioMaterials.set(scenario, new Set());
+    scenarioMaterials.get(scenario)!.add((row.raw.material ?? '').trim());
+  }
+
+  for (const productRow of p.products.rows) {
+    const product = productRow.value;
+    const lines = validLines.get(product.product_id) ?? [];
+    const complete = lines.length === (writtenLines.get(product.product_id) ?? 0);
+    const productLines = lines.filter((line) => line.value.role === 'product');
+    if (complete && productLines.length === 0) {
+      ctx.at(p.products, productRow.line, productRow.raw, 'product_id', 'error', 'NO_BOM_LINES', 'has no product-role lines in bom.csv', { expected: 'at least one bom.csv line with role product' });
+      continue;
+    }
+    if (complete) {
+      const sum = productLines.reduce((total, line) => total + line.value.mass_kg, 0);
+      const deviation = Math.abs(sum - product.unit_mass_kg) / product.unit_mass_kg;
+      if (deviation > UNIT_MASS_TOLERANCE) {
+        ctx.at(p.products, productRow.line, productRow.raw, 'unit_mass_kg', 'error', 'UNIT_MASS_MISMATCH',
+          `differs from the sum of its product-role BOM masses, ${formatKg(sum)} kg (bom.csv lines ${productLines.map((l) => l.line).join(', ')}), by ${(deviation * 100).toFixed(1)} %`,
+          { expected: `within 1 % of ${formatKg(sum)} kg` });
+      }
+    }
+    const covered = scenarioMaterials.get(product.eol_scenario);
+    if (covered && !covered.has('*')) {
+      const missing = [...new Set(productLines.map((line) => line.value.material))].filter((material) => !covered.has(material));
+      for (const material of missing) {
+        ctx.at(p.products, productRow.line, productRow.raw, 'eol_scenario', 'error', 'EOL_SCENARIO_GAP', `has no eol.csv row for material ${material} and no * row`, { expected: `an eol.csv row with scenario ${product.eol_scenario} and material ${material} or *` });
+      }
+    }
+  }
+}
+
+const formatKg = (kg: number) => String(Math.round(kg * 1e6) / 1e6);
