@@ -5,8 +5,8 @@ import { calculateProduct } from '../src/calc/product.ts';
 import { productUncertainty } from '../src/calc/uncertainty.ts';
 import { rowsByProduct } from '../src/model/by-product.ts';
 import { loadProject } from '../src/model/project.ts';
-import { productDataQuality } from '../src/report/data-quality.ts';
-import { productSensitivity } from '../src/report/sensitivity.ts';
+import { productDataQuality } from '../src/calc/data-quality.ts';
+import { productSensitivity } from '../src/calc/sensitivity.ts';
 
 const [dir, count, iterations] = process.argv.slice(2);
 const { project, problems } = await loadProject(dir!);

@@ -1,5 +1,6 @@
 import { findIndicator } from '../reference/indicators.ts';
-import { dqrBandsText, type DataQualityJson } from './data-quality.ts';
+import { dqrBandsText } from '../reference/dqr.ts';
+import type { DataQualityJson } from '../calc/data-quality.ts';
 import { formatShare } from './format.ts';
 
 export interface DataQualityView {

@@ -6,8 +6,8 @@ import { findIndicator, type IndicatorBasis } from '../reference/indicators.ts';
 import type { FigureGraph } from '../trace/graph.ts';
 import { graphJson, type GraphJson } from '../trace/graph-json.ts';
 import { figureId, resultStep, type ResultMethod } from '../trace/ids.ts';
-import { productDataQuality, type DataQualityJson } from './data-quality.ts';
-import { productSensitivity, type SensitivityJson } from './sensitivity.ts';
+import { productDataQuality, type DataQualityJson } from '../calc/data-quality.ts';
+import { productSensitivity, type SensitivityJson } from '../calc/sensitivity.ts';
 
 /**
  * The results contract (`out/<product_id>/results.json`, format 2): keys and nesting are what

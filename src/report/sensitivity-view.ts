@@ -3,7 +3,7 @@ import { barChart, type ChartDatum, type ChartView } from './charts.ts';
 import { AUDIT_PAGE } from '../files.ts';
 import { fragment, inputAnchor } from './figure-links.ts';
 import { formatScientific, formatShare } from './format.ts';
-import type { SensitivityJson } from './sensitivity.ts';
+import type { SensitivityJson } from '../calc/sensitivity.ts';
 
 export interface SensitivityView {
   step: string;

@@ -1,5 +1,5 @@
 import type { Project } from '../model/project.ts';
-import { dqrBandsText, dqrRating, pedigreeDqr } from './data-quality.ts';
+import { dqrBandsText, dqrRating, pedigreeDqr } from '../reference/dqr.ts';
 import { factorHref } from './figure-links.ts';
 import { readersOf } from './factor-table.ts';
 import type { CatalogueEntry } from './product-view.ts';

@@ -3,7 +3,7 @@ import { CalcContext } from '../../src/calc/context.ts';
 import { calculateProduct } from '../../src/calc/product.ts';
 import { rowsByProduct, type ProductRows } from '../../src/model/by-product.ts';
 import { loadProject, type Project } from '../../src/model/project.ts';
-import { productSensitivity } from '../../src/report/sensitivity.ts';
+import { productSensitivity } from '../../src/calc/sensitivity.ts';
 import { DEMO } from '../helpers.ts';
 
 /**

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { compute, writeFixture } from '../calc/fixture.ts';
 import { loadProject } from '../../src/model/project.ts';
-import { dqrRating } from '../../src/report/data-quality.ts';
+import { dqrRating } from '../../src/reference/dqr.ts';
 
 /**
  * The PEF data quality rating (Commission Recommendation (EU) 2021/2279): DQR = (TeR + GeR +

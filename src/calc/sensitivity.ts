@@ -1,6 +1,6 @@
-import { inputContributions, type InputContribution } from '../calc/contributions.ts';
-import type { CalcContext } from '../calc/context.ts';
-import type { ProductResult } from '../calc/product.ts';
+import { inputContributions, type InputContribution } from './contributions.ts';
+import type { CalcContext } from './context.ts';
+import type { ProductResult } from './product.ts';
 import type { Project } from '../model/types.ts';
 import { HEADLINE_INDICATOR } from '../reference/headline.ts';
 
