@@ -31,25 +31,22 @@ let nodes = 0;
 let figures = 0;
 let jsonBytes = 0;
 if (flag === '--calc') {
-  const { CalcContext } = await import('../src/calc/context.ts');
-  const { calculateProduct } = await import('../src/calc/product.ts');
-  const { rowsByProduct } = await import('../src/model/by-product.ts');
-  const { resultsJsonText } = await import('../src/report/results.ts');
+  const { ProductPipeline } = await import('../src/pipeline/product.ts');
   const { figureIds } = await import('../src/trace/explain.ts');
   const calcStart = performance.now();
-  const ctx = new CalcContext(project);
-  const all = rowsByProduct(project);
+  const pipeline = new ProductPipeline(project);
+  const all = pipeline.products();
   // The full figure graph of every product is built; each is dropped after its product, as the build does.
-  for (const rows of all) nodes += calculateProduct(ctx, rows).graph.nodes.size;
+  for (const rows of all) nodes += pipeline.calculate(rows).graph.nodes.size;
   calcMs = performance.now() - calcStart;
   calcPeakRssMb = process.resourceUsage().maxRSS / 1024;
   // Serialising results.json (format 2: one entry per step), on the first 100 products.
   const jsonStart = performance.now();
   for (const rows of all.slice(0, 100)) {
-    const result = calculateProduct(ctx, rows);
-    figures += figureIds(result.graph).length;
+    const computed = pipeline.compute(rows);
+    figures += figureIds(computed.result.graph).length;
     // As the build writes it (src/render/results-files.ts).
-    jsonBytes += Buffer.byteLength(resultsJsonText(ctx, result));
+    jsonBytes += Buffer.byteLength(JSON.stringify(pipeline.resultsJson(computed)));
   }
   jsonMs = (performance.now() - jsonStart) / Math.min(100, all.length);
 }

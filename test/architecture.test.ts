@@ -26,6 +26,8 @@ export const LAYERS: ReadonlyArray<readonly string[]> = [
   ['calc'],
   // Results into view models and published formats.
   ['report'],
+  // One product computed, the one way (build, its workers, explain, the tests).
+  ['pipeline'],
   // Writing files, pages and PDFs; comparing two builds.
   ['render', 'diff'],
   // The command line.

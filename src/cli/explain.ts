@@ -1,7 +1,5 @@
-import { CalcContext } from '../calc/context.ts';
-import { calculateProduct } from '../calc/product.ts';
-import { rowsByProduct } from '../model/by-product.ts';
 import { loadProject } from '../model/project.ts';
+import { ProductPipeline } from '../pipeline/product.ts';
 import { hasErrors } from '../problems.ts';
 import { nearestName } from '../reference/nearest.ts';
 import { explainFigure, figureIds, resolveFigure } from '../trace/explain.ts';
@@ -14,13 +12,13 @@ export async function runExplain(options: { data: string; product: string; figur
     printProblems(problems, options.data, io);
     return EXIT.input;
   }
-  const rows = rowsByProduct(project).find((r) => r.product.value.product_id === options.product);
+  const pipeline = new ProductPipeline(project);
+  const rows = pipeline.product(options.product);
   if (!rows) {
     const near = nearestName(options.product, project.products.rows.map((r) => r.value.product_id));
     throw new UsageError(`no product "${options.product}"${near ? ` (did you mean "${near}"?)` : ''}`);
   }
-  const ctx = new CalcContext(project);
-  const result = calculateProduct(ctx, rows);
+  const result = pipeline.calculate(rows);
   const figure = resolveFigure(result.graph, options.figure);
   if (!figure) {
     const ids = figureIds(result.graph);

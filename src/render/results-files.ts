@@ -1,12 +1,10 @@
 import { mkdir, readFile, writeFile } from 'node:fs/promises';
 import path from 'node:path';
-import { CalcContext } from '../calc/context.ts';
-import { calculateProduct } from '../calc/product.ts';
+import { ProductPipeline } from '../pipeline/product.ts';
 import type { ProductRows } from '../model/by-product.ts';
 import type { Project } from '../model/types.ts';
 import { RESULTS_CSV_HEADER, resultsCsv } from '../report/results-csv.ts';
 import { FS_CONCURRENCY, mapLimit } from './each-limit.ts';
-import { resultsJsonText, resultsSummary } from '../report/results.ts';
 import { writeCatalogueJson } from '../report/catalogue-results.ts';
 import { auditView } from '../report/audit-view.ts';
 import { declarationResultsView } from '../report/declaration-view.ts';
@@ -25,7 +23,7 @@ import { RESULTS_JSON, RESULTS_CSV } from '../files.ts';
  * memory does not grow with the catalogue.
  */
 export class ResultsWriter {
-  private readonly ctx: CalcContext;
+  private readonly pipeline: ProductPipeline;
 
   constructor(
     project: Project,
@@ -33,17 +31,17 @@ export class ResultsWriter {
     /** The project-wide part of the pages (`pageContextKey`), for each product's input key. */
     private readonly context: string,
   ) {
-    this.ctx = new CalcContext(project);
+    this.pipeline = new ProductPipeline(project);
   }
 
   /** Writes a product's results files and returns what its pages show, with its input key. */
   async product(rows: ProductRows): Promise<{ report: ProductReport; key: string; hashes: HashedFile[] }> {
-    const ctx = this.ctx;
-    const product = calculateProduct(ctx, rows);
-    const summary = resultsSummary(ctx, product);
+    const ctx = this.pipeline.ctx;
+    const computed = this.pipeline.compute(rows);
+    const { result: product, summary } = computed;
     const dir = path.join(this.outDir, summary.product_id);
     await mkdir(dir, { recursive: true });
-    const json = `${resultsJsonText(ctx, product, summary)}\n`;
+    const json = `${JSON.stringify(this.pipeline.resultsJson(computed))}\n`;
     const csv = resultsCsv([summary]);
     await writeFile(path.join(dir, RESULTS_JSON), json);
     await writeFile(path.join(dir, RESULTS_CSV), csv);

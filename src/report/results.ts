@@ -74,9 +74,6 @@ export function resultsJson(ctx: CalcContext, result: ProductResult, summary = r
   return { ...summary, graph: graphJson(result.graph, summary.indicators.map((i) => i.code)) };
 }
 
-/** results.json as written: `resultsJson` as compact JSON. */
-export const resultsJsonText = (ctx: CalcContext, result: ProductResult, summary = resultsSummary(ctx, result)): string => JSON.stringify(resultsJson(ctx, result, summary));
-
 /** A product's results without its figure graph. */
 export function resultsSummary(ctx: CalcContext, result: ProductResult): ResultsSummary {
   const { graph } = result;

@@ -2,10 +2,10 @@ import { mkdtemp, writeFile } from 'node:fs/promises';
 import os from 'node:os';
 import path from 'node:path';
 import { CalcContext } from '../../src/calc/context.ts';
-import { calculateProduct, type ProductResult } from '../../src/calc/product.ts';
-import { rowsByProduct } from '../../src/model/by-product.ts';
+import type { ProductResult } from '../../src/calc/product.ts';
 import { loadProject } from '../../src/model/project.ts';
-import { resultsJson, type ResultsJson } from '../../src/report/results.ts';
+import type { ResultsJson } from '../../src/report/results.ts';
+import { ProductPipeline } from '../../src/pipeline/product.ts';
 import { figureMap, writtenFrom, type FlatFigure } from '../figures.ts';
 
 /** A small project written to a temporary folder, for hand-worked examples. */
@@ -59,10 +59,10 @@ export interface Computed {
 export async function compute(dir: string): Promise<Computed[]> {
   const { project, problems } = await loadProject(dir);
   if (!project) throw new Error(`fixture has errors:\n${problems.map((p) => `${p.file}:${p.line} ${p.column} ${p.code} ${p.message}`).join('\n')}`);
-  const ctx = new CalcContext(project);
-  return rowsByProduct(project).map((rows) => {
-    const result = calculateProduct(ctx, rows);
-    const results = resultsJson(ctx, result);
-    return { result, ctx, results, figures: figureMap(results, writtenFrom(project)) };
+  const pipeline = new ProductPipeline(project);
+  return pipeline.products().map((rows) => {
+    const computed = pipeline.compute(rows);
+    const results = pipeline.resultsJson(computed);
+    return { result: computed.result, ctx: pipeline.ctx, results, figures: figureMap(results, writtenFrom(project)) };
   });
 }
