@@ -5,6 +5,7 @@ import type { CutoffResult } from './cutoff.ts';
 import type { Inventory, LineFlows, MaterialEol } from './inventory.ts';
 import { sumFigure, vectorFigure } from './nodes.ts';
 import { addScaled, scaled, zeros } from './vector.ts';
+import { defaultA } from '../reference/cff.ts';
 
 /**
  * The Circular Footprint Formula (Commission Recommendation (EU) 2021/2279, Annex C), per
@@ -19,8 +20,6 @@ export type CffMethod = 'cff' | 'eol-recycling' | 'fifty-fifty';
 
 const PRESET_A: Record<Exclude<CffMethod, 'cff'>, number> = { 'eol-recycling': 0, 'fifty-fifty': 0.5 };
 
-/** Default A where materials.csv leaves cff_a empty: 0.2 for metals (Annex C), else 0.5 (from memory: the default where no Annex C value applies). */
-export const defaultA = (family: string): number => (family === 'metal' ? 0.2 : 0.5);
 
 export interface CffResult {
   parts: { material: string; energy: string; disposal: string };

@@ -3,8 +3,7 @@ import { cutoffStep, flowStep, inventoryStep, referenceStep } from '../trace/ids
 import type { CalcContext } from './context.ts';
 import type { Inventory } from './inventory.ts';
 
-/** Molar mass ratio CO2/C = 44/12, as EN 16449 and EN 15804+A2 use it. */
-export const CO2_PER_C = 44 / 12;
+import { CO2_PER_C } from '../reference/constants.ts';
 
 export interface FlowsResult {
   /** Module → flow indicator code → figure id. */

@@ -1,4 +1,5 @@
 import { flowFactor } from '../process/run.ts';
+import { MATERIAL_FACTOR_COLUMNS } from '../schema/materials.ts';
 import { PROCESS_PREFIX } from '../schema/process-parameters.ts';
 import type { Row, Table } from '../schema/table.ts';
 import { groupBy, type ProductRows } from './by-product.ts';
@@ -64,7 +65,7 @@ export function reachedRows(project: Project, rows: ProductRows): ReachedRows {
   const eolRows = index.scenarios.get(rows.product.value.eol_scenario) ?? [];
   const materials = inFileOrder([...new Set(rows.bom.map((row) => row.value.material))].map((id) => index.materials.get(id)));
   const factorIds = new Set<string>();
-  for (const m of materials) for (const id of [m.value.virgin, m.value.recycled, m.value.eol_recycling, m.value.substituted, m.value.landfill, m.value.incineration]) if (id) factorIds.add(id);
+  for (const m of materials) for (const column of MATERIAL_FACTOR_COLUMNS) if (m.value[column]) factorIds.add(m.value[column]);
   for (const a of rows.activities) factorIds.add(a.value.factor);
   for (const t of rows.transport) factorIds.add(t.value.factor);
   for (const a of rows.site) factorIds.add(a.row.value.factor);

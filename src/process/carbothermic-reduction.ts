@@ -1,4 +1,5 @@
-import { ABOVE_CARBON, CO2_PER_C_IPCC } from '../reference/smelting.ts';
+import { ABOVE_CARBON } from '../reference/smelting.ts';
+import { CO2_PER_C } from '../reference/constants.ts';
 import { nonNegative, share, StepRecorder, type ProcessResult } from './steps.ts';
 
 /** A carbon carrier in or out of the furnace, per tonne of metal. */
@@ -50,7 +51,7 @@ export function carbothermicReduction(p: CarbothermicReduction): ProcessResult {
     rec.problem('carbon_out', cOut.toFixed(4), `more carbon leaves (${cOut.toFixed(4)} t/t) than is charged (${cIn.toFixed(4)} t/t)`, 'carbon out at most carbon in');
     return rec.result();
   }
-  rec.step('co2_t_per_t', (cIn - cOut) * CO2_PER_C_IPCC, 't CO2/t', 'CO2 = (C_in − C_out)·44/12', 'Process CO2 by carbon mass balance (IPCC 2006 Vol. 3 Ch. 4.2).', ['carbon_in_t_per_t', 'carbon_out_t_per_t', 'ref:CO2_per_C']);
+  rec.step('co2_t_per_t', (cIn - cOut) * CO2_PER_C, 't CO2/t', 'CO2 = (C_in − C_out)·44/12', 'Process CO2 by carbon mass balance (IPCC 2006 Vol. 3 Ch. 4.2).', ['carbon_in_t_per_t', 'carbon_out_t_per_t', 'ref:CO2_per_C']);
   rec.flow('CO2', 'emission', 'co2_t_per_t', 't');
   for (const s of p.inputs) {
     rec.step(`reductant:${s.name}`, s.mass_t_per_t, 't/t', 'm = measured', `${s.name} charged per tonne of metal.`, [`param:reductant:${s.name}`]);

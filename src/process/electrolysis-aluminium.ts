@@ -1,7 +1,8 @@
 import { chargeAhPerKg } from '../chem/electrochemistry.ts';
 import { molarMass, parseFormula } from '../chem/formula.ts';
 import { findSpecies, massRatios, parseReaction } from '../chem/reaction.ts';
-import { CO2_PER_C_IPCC, isPrebake, PFC_SLOPE_DEFAULTS, TIER1_CO2_T_PER_T, type CellTechnology } from '../reference/smelting.ts';
+import { CO2_PER_C } from '../reference/constants.ts';
+import { isPrebake, PFC_SLOPE_DEFAULTS, TIER1_CO2_T_PER_T, type CellTechnology } from '../reference/smelting.ts';
 import { nonNegative, positive, share, StepRecorder, type ProcessResult } from './steps.ts';
 
 /** Operating data of a Hall–Héroult cell line, per tonne of aluminium (process.csv parameters). */
@@ -82,7 +83,7 @@ export function aluminiumSmelter(p: AluminiumSmelter): ProcessResult {
     if (p.anode_ash_pct === undefined) rec.problem('anode_ash_pct', undefined, 'is required with net_anode_consumption_t_per_t (IPCC Tier 2, prebake)', 'the ash content of the anodes, %');
     percent(rec, 'anode_sulphur_pct', p.anode_sulphur_pct);
     percent(rec, 'anode_ash_pct', p.anode_ash_pct);
-    rec.step('anode_co2_t_per_t', nac * ((100 - sulphur - ash) / 100) * CO2_PER_C_IPCC, 't CO2/t Al', 'E_CO2 = NAC·(100 − S_a − Ash_a)/100·44/12', 'Anode CO2, IPCC 2006 Vol. 3 Eq. 4.21 (prebake, Tier 2).', ['param:net_anode_consumption_t_per_t', 'param:anode_sulphur_pct', 'param:anode_ash_pct', 'ref:CO2_per_C']);
+    rec.step('anode_co2_t_per_t', nac * ((100 - sulphur - ash) / 100) * CO2_PER_C, 't CO2/t Al', 'E_CO2 = NAC·(100 − S_a − Ash_a)/100·44/12', 'Anode CO2, IPCC 2006 Vol. 3 Eq. 4.21 (prebake, Tier 2).', ['param:net_anode_consumption_t_per_t', 'param:anode_sulphur_pct', 'param:anode_ash_pct', 'ref:CO2_per_C']);
     rec.notes.push('Anode CO2: IPCC 2006 Tier 2, prebake equation (Eq. 4.21).');
   } else if (!isPrebake(p.technology) && p.paste_consumption_t_per_t !== undefined) {
     soderberg(rec, p, carbonFloor);
@@ -144,7 +145,7 @@ function soderberg(rec: StepRecorder, p: AluminiumSmelter, carbonFloor: number):
   const carbon = pc - p.csm_kg_per_t! / 1000 - (bc / 100) * pc * ((p.pitch_sulphur_pct! + p.pitch_ash_pct! + p.pitch_hydrogen_pct!) / 100) - ((100 - bc) / 100) * pc * ((p.coke_sulphur_pct! + p.coke_ash_pct!) / 100) - p.skimmed_dust_carbon_t_per_t!;
   rec.step(
     'anode_co2_t_per_t',
-    carbon * CO2_PER_C_IPCC,
+    carbon * CO2_PER_C,
     't CO2/t Al',
     'E_CO2 = (PC − CSM/1000 − BC/100·PC·(S_p + Ash_p + H_p)/100 − (100 − BC)/100·PC·(S_c + Ash_c)/100 − CD)·44/12',
     'Anode CO2, IPCC 2006 Vol. 3 Eq. 4.22 (Søderberg paste, Tier 2).',

@@ -1,7 +1,8 @@
 import { molarMass, parseFormula } from '../chem/formula.ts';
 import { ATOMIC_WEIGHTS_SOURCE } from '../reference/atomic-weights.ts';
 import { CONSTANTS_SOURCE, FARADAY_C_PER_MOL } from '../reference/constants.ts';
-import { CO2_PER_C_IPCC, PFC_SLOPE_DEFAULTS, SMELTING_SOURCE, TIER1_CO2_T_PER_T, type CellTechnology } from '../reference/smelting.ts';
+import { CO2_PER_C } from '../reference/constants.ts';
+import { PFC_SLOPE_DEFAULTS, SMELTING_SOURCE, TIER1_CO2_T_PER_T, type CellTechnology } from '../reference/smelting.ts';
 
 export interface ProcessReference {
   value: number;
@@ -24,7 +25,7 @@ export function processReference(name: string, values: Record<string, number | s
     case 'M_Al2O3':
       return molar('Al2O3');
     case 'CO2_per_C':
-      return { value: CO2_PER_C_IPCC, unit: 't CO2 per t C', description: 'CO2/C molar mass ratio as the IPCC 2006 Guidelines use it (44/12).' };
+      return { value: CO2_PER_C, unit: 't CO2 per t C', description: 'CO2/C molar mass ratio as the IPCC 2006 Guidelines use it (44/12).' };
     case 'tier1':
       return technology ? { value: TIER1_CO2_T_PER_T[technology], unit: 't CO2/t Al', description: `IPCC Tier 1 default emission factor for ${technology}, ${SMELTING_SOURCE} (from memory of the table).` } : undefined;
     case 'slope_cf4':

@@ -33,5 +33,3 @@ export const PFC_SLOPE_DEFAULTS: Record<CellTechnology, { slopeCf4: number; c2f6
  */
 export const ABOVE_CARBON = ['K', 'Na', 'Li', 'Rb', 'Cs', 'Ca', 'Sr', 'Ba', 'Mg', 'Be', 'Al'] as const;
 
-/** Molar mass ratio of CO2 to C as IPCC uses it (44/12). */
-export const CO2_PER_C_IPCC = 44 / 12;

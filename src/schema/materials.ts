@@ -4,6 +4,9 @@ import { defineCsv } from './csv-file.ts';
 
 export const MATERIAL_FAMILIES = ['metal', 'polymer', 'mineral', 'wood', 'paper', 'other'] as const;
 
+/** The columns of materials.csv that name a factor row (checked, reached and read the same way everywhere). */
+export const MATERIAL_FACTOR_COLUMNS = ['virgin', 'recycled', 'eol_recycling', 'substituted', 'landfill', 'incineration'] as const;
+
 const factor = (what: string) => optionalReference(`Factor id (→ factors.csv) for ${what}.`, 'factors.csv factor_id');
 
 export const materialsCsv = defineCsv({

@@ -3,6 +3,7 @@ import { parameterSpec } from '../../schema/process-parameters.ts';
 import { findIndicator } from '../../reference/indicators.ts';
 import { indicatorValue } from '../types.ts';
 import type { CheckContext } from './context.ts';
+import { MATERIAL_FACTOR_COLUMNS } from '../../schema/materials.ts';
 
 /** Factor ids the project uses, with the first place each is used. */
 function usedFactors(ctx: CheckContext): Map<string, string> {
@@ -14,7 +15,7 @@ function usedFactors(ctx: CheckContext): Map<string, string> {
   const materialIds = new Set(p.bom.rows.map((row) => row.value.material));
   for (const row of p.materials.rows) {
     if (!materialIds.has(row.value.material)) continue;
-    for (const column of ['virgin', 'recycled', 'eol_recycling', 'substituted', 'landfill', 'incineration'] as const) use(row.value[column], `materials.csv line ${row.line}`);
+    for (const column of MATERIAL_FACTOR_COLUMNS) use(row.value[column], `materials.csv line ${row.line}`);
   }
   for (const row of p.eol.rows) {
     use(row.value.transport_factor, `eol.csv line ${row.line}`);

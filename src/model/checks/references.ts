@@ -2,6 +2,7 @@ import { findGas, GHG_FACTOR_IDS, GHG_PREFIX } from '../../reference/ghg.ts';
 import { parameterSpec, PROCESS_PREFIX } from '../../schema/process-parameters.ts';
 import { nearestName } from '../../reference/nearest.ts';
 import type { AnyTable, CheckContext } from './context.ts';
+import { MATERIAL_FACTOR_COLUMNS } from '../../schema/materials.ts';
 
 export function references(ctx: CheckContext): void {
   const p = ctx.project;
@@ -27,7 +28,7 @@ export function references(ctx: CheckContext): void {
   // A process of process.csv stands for a factor per kg of its metal, wherever a factor id is accepted.
   const processFactors = [...new Set(p.process.rows.map((row) => `${PROCESS_PREFIX}${row.value.process_id}`))];
   for (const row of p.materials.rows) {
-    for (const column of ['virgin', 'recycled', 'eol_recycling', 'substituted', 'landfill', 'incineration'] as const) {
+    for (const column of MATERIAL_FACTOR_COLUMNS) {
       check(p.materials, row, column, row.value[column], factorIds, 'factor_id in factors.csv', processFactors);
     }
   }

@@ -3,6 +3,7 @@ import { parameterSpec, PROCESS_PREFIX } from '../../schema/process-parameters.t
 import { convertible, dimensionOf, unitsOf, type Dimension } from '../../reference/units.ts';
 import { type Table } from '../../schema/table.ts';
 import type { AnyTable, CheckContext } from './context.ts';
+import { MATERIAL_FACTOR_COLUMNS } from '../../schema/materials.ts';
 
 export function unitRules(ctx: CheckContext): void {
   const p = ctx.project;
@@ -16,7 +17,7 @@ export function unitRules(ctx: CheckContext): void {
     }
   };
   for (const row of p.materials.rows) {
-    for (const column of ['virgin', 'recycled', 'eol_recycling', 'substituted', 'landfill', 'incineration'] as const) {
+    for (const column of MATERIAL_FACTOR_COLUMNS) {
       perUnitOf(p.materials, row, column, row.value[column], 'mass', 'a material');
     }
   }
