@@ -7,6 +7,8 @@ export interface LifeCycleModule {
   code: string;
   stage: string;
   name: string;
+  /** Module D: beyond the system boundary, reported apart and never added to A–C. */
+  apart?: true;
 }
 
 export const LIFE_CYCLE_MODULES: readonly LifeCycleModule[] = [
@@ -26,5 +28,5 @@ export const LIFE_CYCLE_MODULES: readonly LifeCycleModule[] = [
   { code: 'C2', stage: 'End-of-life stage', name: 'Transport to waste processing' },
   { code: 'C3', stage: 'End-of-life stage', name: 'Waste processing' },
   { code: 'C4', stage: 'End-of-life stage', name: 'Disposal' },
-  { code: 'D', stage: 'Beyond the system boundary', name: 'Reuse, recovery and recycling potential' },
+  { code: 'D', stage: 'Beyond the system boundary', name: 'Reuse, recovery and recycling potential', apart: true },
 ];

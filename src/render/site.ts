@@ -4,6 +4,9 @@ import { hashText, type HashedFile } from './verification.ts';
 import type { SiteView } from '../report/site-view.ts';
 import { ELEVENTY_CONFIG, PACKAGE_ROOT, TEMPLATES_DIR } from './paths.ts';
 
+/** The templates of the catalogue-wide pages, written by the last render of a build only. */
+const CATALOGUE_TEMPLATES = ['index.njk', 'factors.njk', 'verification.njk'];
+
 /**
  * Renders the HTML pages with Eleventy: one template per page kind, paginated over products.
  * Returns each page it wrote with its SHA-256, hashed from the text Eleventy wrote, so the
@@ -18,8 +21,10 @@ export async function renderSite(view: SiteView, outDir: string): Promise<Hashed
     const eleventy = new Eleventy(TEMPLATES_DIR, outDir, {
       configPath: ELEVENTY_CONFIG,
       quietMode: true,
-      config: (config: { addGlobalData: (name: string, value: unknown) => void }) => {
+      config: (config: { addGlobalData: (name: string, value: unknown) => void; ignores: Set<string> }) => {
         config.addGlobalData('site', view);
+        // A shard's render writes its products' pages only; the catalogue-wide pages come last, once.
+        if (!view.writesCatalogue) for (const template of CATALOGUE_TEMPLATES) config.ignores.add(path.join(path.relative(PACKAGE_ROOT, TEMPLATES_DIR), template));
       },
     });
     // The build reports its own progress; Eleventy's summary line would land on stdout.

@@ -33,7 +33,8 @@ export interface ResultsTableView {
 
 export interface DeclarationResultsView {
   significantFigures: number;
-  boundary: Array<{ code: string; stage: string; name: string; declared: boolean }>;
+  /** Each life-cycle module, whether it is declared, and whether it is reported apart (module D, beyond the system boundary). */
+  boundary: Array<{ code: string; stage: string; name: string; declared: boolean; apart: boolean }>;
   modules: Array<{ code: string; moduleD: boolean }>;
   tables: ResultsTableView[];
   recycledContent: Array<{ label: string; cell: FigureCell }>;
@@ -115,7 +116,7 @@ export function declarationResultsView(ctx: CalcContext, rows: ProductRows, resu
 
   const tables: ResultsTableView[] = groupedTables(json.indicators, (code) => moduleCodes.map((module) => cell(cutoff.modules[module]?.[code], resultFigureId('cutoff', module, code), module === 'D')));
 
-  const boundary = LIFE_CYCLE_MODULES.map((m) => ({ ...m, declared: moduleCodes.includes(m.code) }));
+  const boundary = LIFE_CYCLE_MODULES.map((m) => ({ ...m, declared: moduleCodes.includes(m.code), apart: m.apart === true }));
 
   const rc = json.flows.recycled_content;
   const recycledContent = [

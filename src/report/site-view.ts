@@ -3,6 +3,7 @@ import { rowsByProduct, type ProductRows } from '../model/by-product.ts';
 import { formatProblem, type Problem } from '../problems.ts';
 import { GWP_SOURCES } from '../reference/ghg.ts';
 import { findIndicator } from '../reference/indicators.ts';
+import { HEADLINE_INDICATOR, HEADLINE_MODULE, HEADLINE_MODULE_D } from '../reference/headline.ts';
 import { TOOL_NAME, TOOL_VERSION } from '../reference/tool.ts';
 import { PROCESS_CAUTION } from './declaration-view.ts';
 import type { FamilyView } from './family-view.ts';
@@ -56,12 +57,18 @@ export interface SiteView {
   audits: ProductView[];
   /** Every product of the catalogue (in the render that writes the catalogue pages). */
   catalogue: CatalogueEntry[];
-  /** [1] in the render that writes the catalogue-wide pages, else []: those templates paginate over it. */
-  cataloguePages: number[];
+  /** Whether this render writes the catalogue-wide pages (catalogue, factor table, verification pack). */
+  writesCatalogue: boolean;
   /** Every factor row once, on its own page; product pages link to it. */
   factors: TableView;
   /** Family declarations (families.csv), in the render that writes the catalogue-wide pages. */
   families: FamilyView[];
+  /** “1 family”, “3 families”. */
+  familiesCount: string;
+  /** “1 product”, “1000 products”. */
+  productsCount: string;
+  /** The headline columns of the catalogue: `GWP-total A1-A3 (kg CO2 eq.)`, `Module D GWP-total (kg CO2 eq.)`. */
+  headlineHeads: { indicator: string; a1a3: string; d: string };
   warnings: string[];
   indicators: Array<{ code: string; name: string; unit: string }>;
 }
@@ -98,8 +105,11 @@ export function buildSiteView(project: Project, problems: readonly Problem[], op
     products,
     audits: products.filter((product) => product.audit !== undefined),
     catalogue: catalogue ?? [],
-    cataloguePages: catalogue ? [1] : [],
+    writesCatalogue: catalogue !== undefined,
     families: catalogue ? [...(options.families ?? [])] : [],
+    familiesCount: counted(catalogue ? (options.families ?? []).length : 0, 'family', 'families'),
+    productsCount: counted(catalogue?.length ?? 0, 'product', 'products'),
+    headlineHeads: headlineHeads(),
     verification: { inputs: [...(options.inputs ?? [])], datasets: catalogue ? datasetCounts(project) : [], factorQuality: catalogue ? factorQualityTable(project, catalogue) : { title: '', caption: '', headers: [], rows: [], empty: '' } },
     factors: catalogue ? factorTable(project, project.factors.rows, catalogue) : { title: '', caption: '', headers: [], rows: [], empty: '' },
     // Family spreads are known once every member is computed: the catalogue render adds them.
@@ -144,3 +154,11 @@ export function siteContext(project: Project, pdfs: boolean): SiteContext {
   };
 }
 
+/** A count with its noun, singular or plural. */
+export const counted = (n: number, one: string, many: string): string => `${n} ${n === 1 ? one : many}`;
+
+/** The catalogue's headline column heads, from the headline's definition and the indicator registry. */
+function headlineHeads(): SiteView['headlineHeads'] {
+  const unit = findIndicator(HEADLINE_INDICATOR)!.unit;
+  return { indicator: HEADLINE_INDICATOR, a1a3: `${HEADLINE_INDICATOR} ${HEADLINE_MODULE} (${unit})`, d: `Module ${HEADLINE_MODULE_D} ${HEADLINE_INDICATOR} (${unit})` };
+}

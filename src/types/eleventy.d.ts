@@ -3,7 +3,8 @@ declare module '@11ty/eleventy' {
   interface EleventyOptions {
     configPath?: string;
     quietMode?: boolean;
-    config?: (eleventyConfig: { addGlobalData: (name: string, value: unknown) => void }) => void;
+    /** `ignores`: the paths Eleventy leaves out, relative to the working directory (docs: Ignore Template Files). */
+    config?: (eleventyConfig: { addGlobalData: (name: string, value: unknown) => void; ignores: Set<string> }) => void;
   }
   export default class Eleventy {
     constructor(input?: string, output?: string, options?: EleventyOptions);
