@@ -103,7 +103,7 @@ export const declarationSchema = z
           .default(0.1)
           .meta({ description: 'One-at-a-time sensitivity: each of the ten inputs that contribute most to GWP-total A1-A3 and to module D is moved by ± this share; default 0.1 (±10 %).' }),
       })
-      .default({ significant_figures: 3, compare_indicators: ['GWP-total'], family_tolerance: 0.1, sensitivity_step: 0.1 })
+      .prefault({})
       .meta({ description: 'How the declaration pages present the results.' }),
     uncertainty: z
       .object({
@@ -133,16 +133,28 @@ export const declarationSchema = z
 
 export type Declaration = z.output<typeof declarationSchema>;
 
-/** The keys the schema knows, per object path, for "unknown key" warnings. */
-export const DECLARATION_KEYS: Record<string, readonly string[]> = {
-  '': ['$schema', ...Object.keys(declarationSchema.shape)],
-  owner: ['name', 'address', 'contact'],
-  verification: ['status', 'verifier', 'date'],
-  'background_data[]': ['name', 'version', 'licence'],
-  energy_recovery: ['electricity_efficiency', 'heat_efficiency', 'electricity_factor', 'heat_factor'],
-  report: ['significant_figures', 'compare_indicators', 'family_tolerance', 'sensitivity_step'],
-  uncertainty: ['iterations', 'seed'],
-};
+/** An object, array, optional or defaulted schema, as far as its keys are concerned. */
+type Walkable = z.ZodType & { shape?: Record<string, z.ZodType>; element?: z.ZodType; unwrap?: () => z.ZodType };
+
+/**
+ * The keys the schema knows, per object path (`report`, `background_data[]`), for "unknown
+ * key" warnings: read from the schema itself, so a key added to it is known at once.
+ */
+function knownKeys(schema: Walkable, path = '', out: Record<string, string[]> = {}): Record<string, string[]> {
+  let inner: Walkable = schema;
+  while (typeof inner.unwrap === 'function' && inner.shape === undefined && inner.element === undefined) inner = inner.unwrap() as Walkable;
+  if (inner.element !== undefined) return knownKeys(inner.element as Walkable, `${path}[]`, out);
+  if (inner.shape === undefined) return out;
+  out[path] = Object.keys(inner.shape);
+  for (const [key, child] of Object.entries(inner.shape)) knownKeys(child as Walkable, path === '' ? key : `${path}.${key}`, out);
+  return out;
+}
+
+/** The keys the schema knows, per object path; `$schema` may name the JSON Schema at the top. */
+export const DECLARATION_KEYS: Record<string, readonly string[]> = (() => {
+  const keys = knownKeys(declarationSchema as Walkable);
+  return { ...keys, '': ['$schema', ...keys['']!] };
+})();
 
 export const declarationExample = {
   owner: { name: 'Your company', address: 'Street, town, country', contact: 'lca@example.invalid' },
