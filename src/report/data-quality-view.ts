@@ -1,7 +1,7 @@
 import { findIndicator } from '../reference/indicators.ts';
 import { dqrBandsText } from '../reference/dqr.ts';
 import type { DataQualityJson } from '../calc/data-quality.ts';
-import { formatShare } from './format.ts';
+import { formatFixed, formatShare, NOT_AVAILABLE, NOT_GIVEN } from './format.ts';
 
 export interface DataQualityView {
   scope: string;
@@ -12,8 +12,8 @@ export interface DataQualityView {
   unscored: string;
 }
 
-const score = (value: number | null) => (value === null ? '—' : String(value));
-const share = (value: number | null) => (value === null ? 'n/a' : formatShare(value));
+const score = (value: number | null) => (value === null ? NOT_GIVEN : String(value));
+const share = (value: number | null) => (value === null ? NOT_AVAILABLE : formatShare(value));
 
 /** The data-quality section of a declaration page, from results.json `data_quality`. */
 export function dataQualityView(dq: DataQualityJson, factorHref: (id: string) => string): DataQualityView {
@@ -28,7 +28,7 @@ export function dataQualityView(dq: DataQualityJson, factorHref: (id: string) =>
     bands: dqrBandsText(),
     indicators: Object.entries(dq.indicators).map(([code, q]) => ({
       code: findIndicator(code)?.code ?? code,
-      dqr: q.dqr === null ? 'n/a' : q.dqr.toFixed(2),
+      dqr: formatFixed(q.dqr, 2),
       rating: q.rating ?? 'not rated',
       scored: share(q.scored_share),
     })),
@@ -40,7 +40,7 @@ export function dataQualityView(dq: DataQualityJson, factorHref: (id: string) =>
       ger: score(f.scores.ger),
       tir: score(f.scores.tir),
       p: score(f.scores.p),
-      dqr: f.dqr === null ? '—' : f.dqr.toFixed(2),
+      dqr: formatFixed(f.dqr, 2),
       rating: f.rating ?? (f.line === null ? 'built-in, not scored' : f.unscored_reason ?? ''),
       type: f.data_type ?? 'not stated',
       share: share(f.share_of_gwp_total),

@@ -8,7 +8,7 @@ import { LIFE_CYCLE_MODULES } from '../reference/modules.ts';
 import { barChart, type ChartDatum, type ChartView } from './charts.ts';
 import { dataQualityView, type DataQualityView } from './data-quality-view.ts';
 import { factorHref, figureHref } from './figure-links.ts';
-import { formatInput, formatScientific, formatShare } from './format.ts';
+import { formatInput, formatScientific, formatShare, NOT_AVAILABLE } from './format.ts';
 import { resultFigureId, type ResultsSummary } from './results.ts';
 import type { CffMethod } from '../calc/cff.ts';
 import { figureId, processStep, processStepOf } from '../trace/ids.ts';
@@ -108,7 +108,7 @@ export const METHOD_SENTENCES: Record<string, { name: string; rewards: string; s
 export function declarationResultsView(ctx: CalcContext, rows: ProductRows, result: ProductResult, json: ResultsSummary): DeclarationResultsView {
   const report = ctx.project.declaration.report;
   const digits = report.significant_figures;
-  const sci = (value: number | null | undefined): string => (value === null || value === undefined ? 'n/a' : formatScientific(value, digits));
+  const sci = (value: number | null | undefined): string => (value === null || value === undefined ? NOT_AVAILABLE : formatScientific(value, digits));
   const cell = (value: number | null | undefined, figureId: string, moduleD = false): FigureCell => ({ text: sci(value), href: figureHref(figureId), ...(moduleD ? { moduleD } : {}) });
   const cutoff = json.methods.cutoff;
   const moduleCodes = Object.keys(cutoff.modules);
@@ -157,8 +157,8 @@ export function declarationResultsView(ctx: CalcContext, rows: ProductRows, resu
   const headlineCode = HEADLINE_INDICATOR;
   const hasHeadline = ctx.indicators.includes(headlineCode);
   const headline = {
-    a1a3: hasHeadline ? cell(cutoff.modules[HEADLINE_MODULE]?.[headlineCode], resultFigureId('cutoff', HEADLINE_MODULE, headlineCode)) : { text: 'n/a' },
-    moduleD: hasHeadline ? cell(cutoff.modules[HEADLINE_MODULE_D]?.[headlineCode], resultFigureId('cutoff', HEADLINE_MODULE_D, headlineCode), true) : { text: 'n/a' },
+    a1a3: hasHeadline ? cell(cutoff.modules[HEADLINE_MODULE]?.[headlineCode], resultFigureId('cutoff', HEADLINE_MODULE, headlineCode)) : { text: NOT_AVAILABLE },
+    moduleD: hasHeadline ? cell(cutoff.modules[HEADLINE_MODULE_D]?.[headlineCode], resultFigureId('cutoff', HEADLINE_MODULE_D, headlineCode), true) : { text: NOT_AVAILABLE },
     recycledContent: recycledContent[2]!.cell,
     a1a3Value: String(cutoff.modules['A1-A3']?.[headlineCode] ?? ''),
     moduleDValue: String(cutoff.modules.D?.[headlineCode] ?? ''),

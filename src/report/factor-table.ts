@@ -4,6 +4,7 @@ import { AUDIT_PAGE } from '../files.ts';
 import { factorAnchor, fragment, inputAnchor } from './figure-links.ts';
 import type { CatalogueEntry } from './product-view.ts';
 import { num, sourceOf, txt, type Cell, type TableView } from './table-view.ts';
+import { NOT_AVAILABLE } from './format.ts';
 
 /** The factor table page: every row of factors.csv once, with the products that read it. */
 
@@ -47,7 +48,7 @@ export function factorTable(project: Project, rows: Project['factors']['rows'], 
         readBy(row.line),
         ...codes.map((code) => {
           const value = indicatorValue(row.value, code);
-          return value === null ? txt('n/a') : num(value);
+          return value === null ? txt(NOT_AVAILABLE) : num(value);
         }),
       ],
     })),

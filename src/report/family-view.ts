@@ -8,7 +8,7 @@ import type { ResultMethod } from '../trace/ids.ts';
 
 /** The catalogue's headline: GWP-total of cut-off A1-A3. */
 const HEADLINE_FIGURE = resultFigureId('cutoff', HEADLINE_MODULE, HEADLINE_INDICATOR);
-import { formatInput, formatScientific, formatShare } from './format.ts';
+import { formatInput, formatScientific, formatShare, NOT_AVAILABLE } from './format.ts';
 import { RESULTS_JSON, RESULTS_CSV } from '../files.ts';
 import { HEADLINE_INDICATOR, HEADLINE_MODULE } from '../reference/headline.ts';
 
@@ -57,7 +57,7 @@ export const familyDir = (familyId: string): string => `families/${familyId}`;
  */
 export function familyView(project: Project, results: FamilyResults, names: ReadonlyMap<string, string>): FamilyView {
   const digits = project.declaration.report.significant_figures;
-  const sci = (value: number | null): string => (value === null ? 'n/a' : formatScientific(value, digits));
+  const sci = (value: number | null): string => (value === null ? NOT_AVAILABLE : formatScientific(value, digits));
   const range = (stat: FamilyStat, format: (v: number) => string) => (stat.min === null ? '' : `${format(stat.min)} … ${format(stat.max!)}`);
   const audit: FamilyAuditEntry[] = [];
   /** The cell of figure method/module/code, its audit entry added on the way. */
@@ -92,7 +92,7 @@ export function familyView(project: Project, results: FamilyResults, names: Read
       .map((method) => ({ name: METHOD_SENTENCES[method]!.name, cells: compared.map((code) => entry(method, 'total', code, results.methods[method]!.total[code]!)) })),
   ];
   const rc = results.flows.recycled_content;
-  const share = (s: FamilyStat) => ({ mean: s.mean === null ? 'n/a' : formatShare(s.mean), range: range(s, formatShare) });
+  const share = (s: FamilyStat) => ({ mean: s.mean === null ? NOT_AVAILABLE : formatShare(s.mean), range: range(s, formatShare) });
   const headlineStat = cutoff.modules[HEADLINE_MODULE]?.[HEADLINE_INDICATOR];
   const headline = headlineStat ? { a1a3: { text: sci(headlineStat.mean), range: range(headlineStat, (v) => sci(v)), href: `${familyDir(results.family_id)}/${figureHref(HEADLINE_FIGURE)}` }, a1a3Value: String(headlineStat.mean ?? '') } : { a1a3: undefined, a1a3Value: '' };
   return {
@@ -111,7 +111,7 @@ export function familyView(project: Project, results: FamilyResults, names: Read
       share: formatShare(m.share),
       gwp: sci(m.gwp_a1_a3),
       gwpHref: `../../${m.product_id}/${figureHref(HEADLINE_FIGURE)}`,
-      deviation: m.deviation === null ? 'n/a' : `${m.deviation >= 0 ? '+' : '−'}${(Math.abs(m.deviation) * 100).toFixed(1)} %`,
+      deviation: m.deviation === null ? NOT_AVAILABLE : `${m.deviation >= 0 ? '+' : '−'}${(Math.abs(m.deviation) * 100).toFixed(1)} %`,
       outside: m.outside_tolerance,
     })),
     modulesNotDeclared: results.modules_not_declared.map((m) => `${m.module} (declared by ${m.declared_by.join(', ')} only)`),

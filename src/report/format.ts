@@ -20,8 +20,19 @@ export function formatInput(value: number): string {
   return formatScientific(value, 6).replace(/\.?0+e/, 'e');
 }
 
+/**
+ * How the pages say that something is missing, two ways and no more: a number that is not
+ * available (an input it needs is empty: never a silent zero) is `n/a`; a cell the inputs
+ * leave empty where nothing is required (no recycled factor named, no pedigree score) is `—`.
+ */
+export const NOT_AVAILABLE = 'n/a';
+export const NOT_GIVEN = '—';
+
 /** A figure's value as the audit trail shows it: six significant figures, or `n/a` where a value is not available (NaN). */
-export const formatFigure = (value: number): string => (Number.isNaN(value) ? 'n/a' : formatInput(value));
+export const formatFigure = (value: number): string => (Number.isNaN(value) ? NOT_AVAILABLE : formatInput(value));
+
+/** A number with a fixed number of decimals (a DQR, 2.25), or `n/a`. */
+export const formatFixed = (value: number | null, decimals: number): string => (value === null || !Number.isFinite(value) ? NOT_AVAILABLE : value.toFixed(decimals));
 
 /** 3 significant figures by default: `1.23e+1` style, as declarations print them. */
 export function formatScientific(value: number, significant = 3): string {

@@ -3,7 +3,7 @@ import type { ProductRows } from '../model/by-product.ts';
 import { reachedRows } from '../model/reach.ts';
 import { findGas, GWP_SOURCES } from '../reference/ghg.ts';
 import { factorsCsv } from '../schema/factors.ts';
-import { formatInput } from './format.ts';
+import { formatInput, NOT_GIVEN } from './format.ts';
 import type { AuditView } from './audit-view.ts';
 import type { DeclarationResultsView } from './declaration-view.ts';
 import type { ResultsSummary } from './results.ts';
@@ -125,7 +125,7 @@ export function productView(project: Project, rows: ProductRows, report: Product
         const m = row.value;
         return {
           source: sourceOf(project.materials, row),
-          cells: [txt(`${m.material} — ${m.name}`), txt(m.family), txt(m.virgin), txt(m.recycled ?? '—'), txt(m.eol_recycling ?? '—'), txt(m.landfill ?? '—'), txt(m.incineration ?? '—'), num(m.q_in), num(m.q_out), m.biogenic_c_kg_per_kg === null ? txt('not given') : num(m.biogenic_c_kg_per_kg)],
+          cells: [txt(`${m.material} — ${m.name}`), txt(m.family), txt(m.virgin), txt(m.recycled ?? NOT_GIVEN), txt(m.eol_recycling ?? NOT_GIVEN), txt(m.landfill ?? '—'), txt(m.incineration ?? '—'), num(m.q_in), num(m.q_out), m.biogenic_c_kg_per_kg === null ? txt('not given') : num(m.biogenic_c_kg_per_kg)],
         };
       }),
       empty: 'No materials.',
@@ -167,7 +167,7 @@ export function productView(project: Project, rows: ProductRows, report: Product
           txt(row.value.site_id), txt(row.value.period), txt(row.value.product_id), num(row.value.output),
           ...keys.flatMap((a) => {
             const key = a.group.production.includes(row) ? a.key.values.get(row.value.product_id) : undefined;
-            return key === undefined ? [txt('—'), txt('—')] : [num(key), pct(key / a.key.total)];
+            return key === undefined ? [txt(NOT_GIVEN), txt(NOT_GIVEN)] : [num(key), pct(key / a.key.total)];
           }),
           txt(row.value.source),
         ],

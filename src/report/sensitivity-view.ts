@@ -2,7 +2,7 @@ import { findIndicator } from '../reference/indicators.ts';
 import { barChart, type ChartDatum, type ChartView } from './charts.ts';
 import { AUDIT_PAGE } from '../files.ts';
 import { fragment, inputAnchor } from './figure-links.ts';
-import { formatScientific, formatShare } from './format.ts';
+import { formatScientific, formatShare, NOT_AVAILABLE } from './format.ts';
 import type { SensitivityJson } from '../calc/sensitivity.ts';
 
 export interface SensitivityView {
@@ -20,7 +20,7 @@ const KIND_NAMES: Record<string, string> = { factor: 'factor row', bom: 'BOM lin
 /** The contribution and sensitivity section of a declaration page, with a bar chart and a tornado chart per result. */
 export function sensitivityView(s: SensitivityJson, digits: number): SensitivityView {
   const unit = findIndicator(s.indicator)?.unit ?? '';
-  const sci = (v: number | null) => (v === null || !Number.isFinite(v) ? 'n/a' : formatScientific(v, digits));
+  const sci = (v: number | null) => (v === null || !Number.isFinite(v) ? NOT_AVAILABLE : formatScientific(v, digits));
   const step = formatShare(s.step);
   return {
     step,
@@ -63,7 +63,7 @@ export function sensitivityView(s: SensitivityJson, digits: number): Sensitivity
           kind: KIND_NAMES[i.kind]!,
           source: { text: `${i.file}:${i.line}${i.column ? ` ${i.column}` : ''}`, href: `${AUDIT_PAGE}#${fragment(inputAnchor(i.file, i.line))}` },
           contribution: sci(i.contribution),
-          share: i.share === null ? 'n/a' : formatShare(i.share),
+          share: i.share === null ? NOT_AVAILABLE : formatShare(i.share),
           minus: sci(i.minus),
           plus: sci(i.plus),
         })),

@@ -4,13 +4,14 @@ import { factorHref } from './figure-links.ts';
 import { readersOf } from './factor-table.ts';
 import type { CatalogueEntry } from './product-view.ts';
 import { sourceOf, txt, type Cell, type TableView } from './table-view.ts';
+import { formatFixed, NOT_GIVEN } from './format.ts';
 
 /** The verification pack's own tables: the factors' data quality and the size of each input file. */
 
 /** The verification pack's data-quality table: every factor row with its pedigree scores, DQR, rating and data type, and the products whose figures it feeds. */
 export function factorQualityTable(project: Project, catalogue: readonly CatalogueEntry[]): TableView {
   const readBy = readersOf(catalogue);
-  const score = (value: number | null | undefined): Cell => ({ text: value === null || value === undefined ? '—' : String(value), numeric: true });
+  const score = (value: number | null | undefined): Cell => ({ text: value === null || value === undefined ? NOT_GIVEN : String(value), numeric: true });
   return {
     title: 'Data quality of the factors',
     caption: `Every row of factors.csv with its pedigree scores (1 best to 5), DQR = (TeR + GeR + TiR + P) / 4 and rating (PEF method, Recommendation (EU) 2021/2279; ${dqrBandsText()}), its data type, and the products whose figures it feeds, each linked to the row in that product’s audit trail (where the figures that read it are listed). A row without all four scores has no DQR: it is not guessed.`,
@@ -23,7 +24,7 @@ export function factorQualityTable(project: Project, catalogue: readonly Catalog
         cells: [
           { text: row.value.factor_id, href: factorHref(row.value.factor_id) },
           score(ter), score(ger), score(tir), score(p),
-          { text: dqr === null ? '—' : dqr.toFixed(2), numeric: true },
+          { text: formatFixed(dqr, 2), numeric: true },
           txt(dqr === null ? (missing.length === 4 ? 'not scored' : 'partly scored') : dqrRating(dqr)),
           txt(row.value.data_type ?? 'not stated'),
           readBy(row.line),

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { formatFigure, formatInput } from '../../src/report/format.ts';
+import { formatFigure, formatFixed, formatInput, NOT_AVAILABLE } from '../../src/report/format.ts';
 
 /**
  * The one number formatter against ECMA-262 itself: six significant figures are what
@@ -29,5 +29,13 @@ describe('formatInput', () => {
     expect(formatInput(1.95212e-4)).toBe('1.95212e-4');
     expect(formatInput(3.2e9)).toBe('3.2e+9');
     expect(formatFigure(Number.NaN)).toBe('n/a');
+  });
+
+  it('says “not available” one way: a missing or non-finite number is n/a, a DQR keeps two decimals (Number.prototype.toFixed)', () => {
+    expect(formatFixed(2.25, 2)).toBe('2.25');
+    expect(formatFixed(3, 2)).toBe('3.00');
+    expect(formatFixed(null, 2)).toBe(NOT_AVAILABLE);
+    expect(formatFixed(Number.NaN, 2)).toBe('n/a');
+    expect(formatFigure(Number.NaN)).toBe(NOT_AVAILABLE);
   });
 });
