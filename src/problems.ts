@@ -76,6 +76,8 @@ export interface Problem {
   message: string;
   /** A suggestion, such as the nearest known name. */
   hint?: string;
+  /** The code of the library that found it, kept as data (csv-parse's `CSV_QUOTE_NOT_CLOSED`). */
+  cause?: string;
 }
 
 /** `bom.csv:14: mass_kg "12,5kg": expected a number in kg` */

@@ -129,6 +129,7 @@ function csvSyntaxProblem(file: string, error: CsvError): Problem {
     file,
     ...(lines === undefined ? {} : { line: lines }),
     message: `${message} (csv-parse ${error.code})`,
+    cause: error.code,
     expected: 'fields separated by the delimiter, quotes only around whole fields ("…"), "" for a quote inside',
   };
 }

@@ -50,9 +50,9 @@ describe('CSV dialects', () => {
     expect(problems).toEqual([expect.objectContaining({ severity: 'warning', code: 'COLUMN_UNKNOWN', line: 1, columnIndex: 11, hint: 'did you mean "source"?' })]);
   });
 
-  it('reports an unclosed quote as CSV_SYNTAX with its line', () => {
+  it('reports an unclosed quote as CSV_SYNTAX with its line, and keeps csv-parse’s own code as data', () => {
     const load = parseCsvText('bom.csv', `${HEADER}\nP1,L1,"Billet,al,product,1,0,0,0,recycled,x\n`);
-    expect(load.problems).toEqual([expect.objectContaining({ code: 'CSV_SYNTAX', file: 'bom.csv', line: 2 })]);
+    expect(load.problems).toEqual([expect.objectContaining({ code: 'CSV_SYNTAX', file: 'bom.csv', line: 2, cause: 'CSV_QUOTE_NOT_CLOSED' })]);
   });
 
   it('applies defaults to empty optional cells and reads an empty factor cell as null, never 0', () => {
