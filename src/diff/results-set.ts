@@ -2,6 +2,7 @@ import { readdir, readFile, stat } from 'node:fs/promises';
 import path from 'node:path';
 import { UsageError } from '../problems.ts';
 import { readCsvText } from '../load/csv.ts';
+import { readText } from '../load/text.ts';
 import { RESULTS_FORMAT, type ResultsJson, type ResultsSummary } from '../report/results.ts';
 import { GraphReader, type GraphJson, type WrittenCell } from '../trace/graph-json.ts';
 import { CSV_FILES } from '../schema/index.ts';
@@ -112,11 +113,13 @@ async function inputCopies(inputsDir: string): Promise<{ rowKey: RowKeyOf; writt
   const byFile = new Map<string, Map<number, string>>();
   const cells = new Map<string, Map<number, Map<string, string>>>();
   for (const schema of CSV_FILES) {
-    const file = path.join(inputsDir, schema.file);
-    if (!(await isFile(file))) continue;
+    if (!(await isFile(path.join(inputsDir, schema.file)))) continue;
+    // Read as the build read it (UTF-8, a byte-order mark dropped).
+    const read = await readText(inputsDir, schema.file);
+    if (!read.ok) continue;
     const keys = new Map<number, string>();
     const seen = new Map<string, number>();
-    readCsvText(schema.file, await readFile(file, 'utf8'), (source) => {
+    readCsvText(schema.file, read.text, (source) => {
       const names = source.header.names.map((name) => name.toLowerCase());
       const positions = schema.key.map((column) => names.indexOf(column.toLowerCase()));
       const fields = new Map<number, Map<string, string>>();

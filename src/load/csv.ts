@@ -58,14 +58,15 @@ const countNewlines = (field: string): number => {
 };
 
 /**
- * Reads a CSV as users write it: UTF-8 with or without BOM, comma or semicolon, CRLF or
- * LF, quoted fields, blank lines skipped, `#` at the start of a line a comment.
+ * Reads a CSV as users write it: comma or semicolon, CRLF or LF, quoted fields, blank lines
+ * skipped, `#` at the start of a line a comment. The text is the file decoded by `readText`
+ * (src/load/text.ts), which has dropped a byte-order mark.
  * Records are handed to the sink as csv-parse produces them and are not collected, so a
  * large file's records never pile up in memory beside the rows made from them.
  */
 export function readCsvText(file: string, original: string, sink: CsvSink): CsvRead {
   // One line ending throughout, so that csv-parse's line count is the physical line.
-  const text = original.replace(/^\ufeff/, '').replace(/\r\n?/g, '\n');
+  const text = original.replace(/\r\n?/g, '\n');
   const delimiter = detectDelimiter(text);
   const problems: Problem[] = [];
   let source: CsvSource | undefined;

@@ -2,6 +2,10 @@ import { describe, expect, it } from 'vitest';
 import { detectDelimiter, parseCsvText } from '../../src/load/csv.ts';
 import { parseTable } from '../../src/schema/table.ts';
 import { bomCsv } from '../../src/schema/bom.ts';
+import { readText } from '../../src/load/text.ts';
+import { writeFile } from 'node:fs/promises';
+import path from 'node:path';
+import { removeDir, tempDir } from '../helpers.ts';
 
 const parse = (text: string) => {
   const load = parseCsvText('bom.csv', text);
@@ -18,9 +22,15 @@ describe('CSV dialects', () => {
     expect(detectDelimiter('"a;b",c\n')).toBe(',');
   });
 
-  it('reads UTF-8 with a byte-order mark, CRLF endings, comments, blank lines and quoted line breaks, keeping physical lines', () => {
+  it('reads UTF-8 with a byte-order mark, CRLF endings, comments, blank lines and quoted line breaks, keeping physical lines', async () => {
     const text = `\ufeff# first comment\r\n${HEADER}\r\n\r\nP1,L1,"Billet,\r\nround",al,product,1.5,0,0,0,recycled,x\r\n# note\r\n,,,\r\nP1,L2,Film,pe,packaging,0.1,0,0,0,recycled,y\r\n`;
-    const { csv } = parse(text);
+    // As a spreadsheet saves it (the BOM as the bytes EF BB BF, RFC 3629), read the way a build reads files.
+    const dir = await tempDir();
+    await writeFile(path.join(dir, 'bom.csv'), Buffer.concat([Buffer.from([0xef, 0xbb, 0xbf]), Buffer.from(text.slice(1), 'utf8')]));
+    const read = await readText(dir, 'bom.csv');
+    await removeDir(dir);
+    if (!read.ok) throw new Error(read.problem.message);
+    const { csv } = parse(read.text);
     expect(csv.header.names[0]).toBe('product_id');
     expect(csv.header.line).toBe(2);
     expect(csv.records.map((r) => [r.line, r.lineEnd])).toEqual([
