@@ -103,5 +103,27 @@ export function sortProblems(problems: Problem[]): Problem[] {
 
 export const hasErrors = (problems: readonly Problem[]): boolean => problems.some((p) => p.severity === 'error');
 
-/** A mistake in how a command was called (exit 2), as opposed to bad input data (exit 1): raised below the CLI too (an output folder it will not replace, a shard record, a build to compare). */
-export class UsageError extends Error {}
+/**
+ * What stops a command, one type with a kind: `usage`, the command was called wrongly (an
+ * output folder it will not replace, a shard record, a build to compare; exit 2); `input`,
+ * the input data (its problems are Problems, all reported in one run; exit 1); `internal`,
+ * a failure of the tool itself, to be reported (exit 3). Raised anywhere below the CLI, which
+ * maps the kind to the exit code.
+ */
+export type ToolErrorKind = 'usage' | 'input' | 'internal';
+
+export class ToolError extends Error {
+  constructor(
+    readonly kind: ToolErrorKind,
+    message: string,
+  ) {
+    super(kind === 'internal' ? `internal: ${message}` : message);
+  }
+}
+
+/** A mistake in how a command was called: a ToolError of kind `usage`. */
+export class UsageError extends ToolError {
+  constructor(message: string) {
+    super('usage', message);
+  }
+}

@@ -1,5 +1,6 @@
 import { parseArgs, type ParseArgsConfig } from 'node:util';
 import { EXIT, UsageError, type Io } from './io.ts';
+import { ToolError } from '../problems.ts';
 
 interface Command {
   summary: string;
@@ -242,9 +243,9 @@ export async function main(argv: string[], io: Io = processIo): Promise<number> 
   try {
     return await command.run(parsed.values as Record<string, string | boolean | undefined>, parsed.positionals, io);
   } catch (error) {
-    if (error instanceof UsageError) {
+    if (error instanceof ToolError && error.kind !== 'internal') {
       io.err(`loopsheet ${name}: ${error.message}`);
-      return EXIT.usage;
+      return error.kind === 'usage' ? EXIT.usage : EXIT.input;
     }
     io.err(`loopsheet ${name}: internal failure: ${(error as Error).stack ?? String(error)}`);
     return EXIT.internal;

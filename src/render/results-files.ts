@@ -15,6 +15,7 @@ import { renderChartSvg } from './charts.ts';
 import { productInputKey, readsOutside } from './input-key.ts';
 import { productReach } from '../model/reach.ts';
 import { RESULTS_JSON, RESULTS_CSV } from '../files.ts';
+import { ToolError } from '../problems.ts';
 
 
 /**
@@ -51,7 +52,7 @@ export class ResultsWriter {
     for (const chart of [...view.charts, ...(view.sensitivity?.scopes.flatMap((scope) => scope.charts) ?? [])]) chart.svg = await renderChartSvg(chart);
     const outside = readsOutside(ctx.project, productReach(ctx.project, rows), product.graph);
     // A row the key does not cover would let `build --changed` keep a stale product: stop instead.
-    if (outside) throw new Error(`internal: figure ${outside.figure} of ${summary.product_id} reads ${outside.file} line ${outside.line}, which its input key does not cover (src/model/reach.ts productReach); please report this`);
+    if (outside) throw new ToolError('internal', `figure ${outside.figure} of ${summary.product_id} reads ${outside.file} line ${outside.line}, which its input key does not cover (src/model/reach.ts productReach); please report this`);
     const audit = auditView(ctx.project, product, rows.bom);
     audit.html = auditHtml(audit);
     return { report: { summary, results: view, audit }, key: productInputKey(ctx.project, rows, this.context).key, hashes };
@@ -71,7 +72,7 @@ export async function writeCatalogueResults(outDir: string, products: ReadonlyAr
   const bodies = await mapLimit(products, FS_CONCURRENCY, async (product) => {
     const file = path.join(outDir, product.id, RESULTS_CSV);
     const bytes = await readFile(file);
-    if (!bytes.subarray(0, header.length).equals(header)) throw new Error(`internal: ${file} does not start with the results.csv header`);
+    if (!bytes.subarray(0, header.length).equals(header)) throw new ToolError('internal', `${file} does not start with the results.csv header`);
     return bytes.subarray(header.length);
   });
   await writeFile(path.join(outDir, RESULTS_CSV), Buffer.concat([header, ...bodies]));
