@@ -1,3 +1,5 @@
+import type { Problem } from '../problems.ts';
+
 /**
  * A process calculator's derivation as named steps: each with its value, unit, formula and
  * inputs — parameters (`param:<name>`), reference values (`ref:<name>`) or earlier steps —
@@ -13,12 +15,13 @@ export interface ProcessStep {
   inputs: string[];
 }
 
-export interface ProcessProblem {
-  parameter: string;
-  value: string;
-  message: string;
-  expected: string;
-}
+/**
+ * A problem a calculator finds, in the one problem type's terms: what is wrong, the value
+ * and what was expected, named by its parameter. The calculator does not know where the
+ * parameter is written; `readProcesses` (src/model/processes.ts) places it on its
+ * process.csv cell and gives it its code.
+ */
+export type ProcessProblem = Required<Pick<Problem, 'value' | 'message' | 'expected'>> & { parameter: string };
 
 export interface InventoryFlow {
   /** What flows: `electricity`, `alumina`, `CO2`, `CF4`, a reagent's factor id, … */
