@@ -16,8 +16,10 @@ export const LAYERS: ReadonlyArray<readonly string[]> = [
   ['problems.ts', 'files.ts', 'reference', 'types'],
   // Reading text, CSV and JSON; chemistry.
   ['load', 'chem'],
-  // The input contract (zod schemas) and the process models' arithmetic.
-  ['schema', 'process'],
+  // The process models' arithmetic (its kinds are what process.csv may name).
+  ['process'],
+  // The input contract (zod schemas).
+  ['schema'],
   // The validated project.
   ['model'],
   // Figure ids and the figure graph.

@@ -4,9 +4,13 @@ import { aluminiumSmelter, type AluminiumSmelter } from './electrolysis-aluminiu
 import { electrowinning } from './electrowinning.ts';
 import { StepRecorder, type ProcessResult } from './steps.ts';
 
+/** The kinds of process a calculator exists for: process.csv `kind` takes exactly these (src/schema/process.ts). */
+export const PROCESS_KINDS = ['electrolysis-aluminium', 'electrowinning', 'carbothermic-reduction'] as const;
+export type ProcessKind = (typeof PROCESS_KINDS)[number];
+
 /** A process as process.csv gives it: its kind, named values and family values (`reagent:<factor>`). */
 export interface ProcessInput {
-  kind: 'electrolysis-aluminium' | 'electrowinning' | 'carbothermic-reduction';
+  kind: ProcessKind;
   values: Record<string, number | string>;
   families: Record<string, Record<string, number | string>>;
 }

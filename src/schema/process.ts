@@ -2,8 +2,9 @@ import { z } from 'zod';
 import { choice, id, requiredText, text } from './cells.ts';
 import { defineCsv } from './csv-file.ts';
 
-export const PROCESS_KINDS = ['electrolysis-aluminium', 'electrowinning', 'carbothermic-reduction'] as const;
-export type ProcessKind = (typeof PROCESS_KINDS)[number];
+import { PROCESS_KINDS, type ProcessKind } from '../process/run.ts';
+
+export { PROCESS_KINDS, type ProcessKind };
 
 /**
  * process.csv (optional): operating data of the declarant's own metal-making processes,
