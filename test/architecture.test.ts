@@ -12,8 +12,8 @@ import { ROOT } from './helpers.ts';
  * Run alone: `npx vitest run test/architecture.test.ts`.
  */
 export const LAYERS: ReadonlyArray<readonly string[]> = [
-  // The vocabulary: problems, published reference tables, output names, ambient types.
-  ['problems.ts', 'files.ts', 'reference', 'types'],
+  // The vocabulary: problems, published reference tables, output names, the number formatter, ambient types.
+  ['problems.ts', 'files.ts', 'format.ts', 'reference', 'types'],
   // Reading text, CSV and JSON; chemistry.
   ['load', 'chem'],
   // The process models' arithmetic (its kinds are what process.csv may name).

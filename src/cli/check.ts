@@ -1,6 +1,6 @@
 import { loadProject } from '../model/project.ts';
 import type { SiteAllocation } from '../model/sites.ts';
-import { formatShare } from '../report/format.ts';
+import { formatShare } from '../format.ts';
 import { printProblems } from './report-problems.ts';
 import { EXIT, type Io } from './io.ts';
 import { hasErrors } from '../problems.ts';

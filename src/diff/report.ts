@@ -1,6 +1,7 @@
 import { ChangedCells, type CellChange } from './attribute.ts';
 import { compareProduct, relativeChange, type FigureChange } from './compare.ts';
 import type { ResultsSet } from './results-set.ts';
+import { formatSignificant, NOT_AVAILABLE } from '../format.ts';
 
 /**
  * The change report between two builds: every figure that moved beyond the threshold, with
@@ -89,14 +90,14 @@ const MAX_PRODUCTS = 15;
 const MAX_ROWS = 8;
 const MAX_CELLS = 8;
 
-const number = (value: number | null): string => (value === null ? 'n/a' : Number(value.toPrecision(4)).toString());
-const signed = (value: number | null): string => (value === null ? 'n/a' : `${value > 0 ? '+' : ''}${number(value)}`);
+const number = (value: number | null): string => formatSignificant(value, 4);
+const signed = (value: number | null): string => (value === null ? NOT_AVAILABLE : `${value > 0 ? '+' : ''}${number(value)}`);
 const percent = (change: FigureChange): string => {
   if (change.old === null || change.new === null) return change.new === null ? 'now incomplete' : 'now complete';
   if (change.relative === null) return 'from 0';
-  return `${change.relative > 0 ? '+' : ''}${Number((change.relative * 100).toPrecision(3))} %`;
+  return `${change.relative > 0 ? '+' : ''}${formatSignificant(change.relative * 100, 3)} %`;
 };
-const share = (value: number) => `${Number((value * 100).toPrecision(3))} %`;
+const share = (value: number) => `${formatSignificant(value * 100, 3)} %`;
 const code = (text: string) => `\`${text.replace(/`/g, "'")}\``;
 const cellText = (cell: CellChange): string => {
   const where = `${code(cell.file)} ${cell.new ? `line ${cell.new.line}` : `old line ${cell.old!.line}`}${cell.row && !cell.row.startsWith('line ') ? ` (${code(cell.row)})` : ''} ${code(cell.column)}`;

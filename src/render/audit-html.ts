@@ -1,7 +1,7 @@
 import nunjucks from 'nunjucks';
 import type { AuditRun, AuditStep, AuditTerm, AuditView } from '../report/audit-view.ts';
 import { fragment } from '../report/figure-links.ts';
-import { formatFigure } from '../report/format.ts';
+import { formatFigure } from '../format.ts';
 
 // Nunjucks' own escaping (the one autoescape uses); its type declarations leave it out.
 const { escape } = nunjucks.lib as unknown as { escape: (text: string) => string };

@@ -4,7 +4,7 @@ import type { ProductResult } from '../calc/product.ts';
 import type { FigureGraph, FigureNode, Term } from '../trace/graph.ts';
 import { processStep, resultStep, stepGroup, type ResultMethod } from '../trace/ids.ts';
 import { fragment, inputAnchor } from './figure-links.ts';
-import { formatFigure as show } from './format.ts';
+import { formatFigure as show } from '../format.ts';
 import { physicalLines } from './written.ts';
 
 /**

@@ -1,7 +1,7 @@
 import { findIndicator } from '../reference/indicators.ts';
 import { dqrBandsText } from '../reference/dqr.ts';
 import type { DataQualityJson } from '../calc/data-quality.ts';
-import { formatFixed, formatShare, NOT_AVAILABLE, NOT_GIVEN } from './format.ts';
+import { formatFixed, formatShare, NOT_AVAILABLE, NOT_GIVEN } from '../format.ts';
 
 export interface DataQualityView {
   scope: string;

@@ -4,7 +4,7 @@ import { AUDIT_PAGE } from '../files.ts';
 import { factorAnchor, fragment, inputAnchor } from './figure-links.ts';
 import type { CatalogueEntry } from './product-view.ts';
 import { num, sourceOf, txt, type Cell, type TableView } from './table-view.ts';
-import { NOT_AVAILABLE } from './format.ts';
+import { NOT_AVAILABLE } from '../format.ts';
 
 /** The factor table page: every row of factors.csv once, with the products that read it. */
 

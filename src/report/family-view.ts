@@ -8,7 +8,7 @@ import type { ResultMethod } from '../trace/ids.ts';
 
 /** The catalogue's headline: GWP-total of cut-off A1-A3. */
 const HEADLINE_FIGURE = resultFigureId('cutoff', HEADLINE_MODULE, HEADLINE_INDICATOR);
-import { formatInput, formatScientific, formatShare, NOT_AVAILABLE } from './format.ts';
+import { formatFixed, formatInput, formatScientific, formatShare, NOT_AVAILABLE } from '../format.ts';
 import { RESULTS_JSON, RESULTS_CSV } from '../files.ts';
 import { HEADLINE_INDICATOR, HEADLINE_MODULE } from '../reference/headline.ts';
 
@@ -111,7 +111,7 @@ export function familyView(project: Project, results: FamilyResults, names: Read
       share: formatShare(m.share),
       gwp: sci(m.gwp_a1_a3),
       gwpHref: `../../${m.product_id}/${figureHref(HEADLINE_FIGURE)}`,
-      deviation: m.deviation === null ? NOT_AVAILABLE : `${m.deviation >= 0 ? '+' : '−'}${(Math.abs(m.deviation) * 100).toFixed(1)} %`,
+      deviation: m.deviation === null ? NOT_AVAILABLE : `${m.deviation >= 0 ? '+' : '−'}${formatFixed(Math.abs(m.deviation) * 100, 1)} %`,
       outside: m.outside_tolerance,
     })),
     modulesNotDeclared: results.modules_not_declared.map((m) => `${m.module} (declared by ${m.declared_by.join(', ')} only)`),

@@ -3,7 +3,7 @@ import type { ProductRows } from '../model/by-product.ts';
 import { reachedRows } from '../model/reach.ts';
 import { findGas, GWP_SOURCES } from '../reference/ghg.ts';
 import { factorsCsv } from '../schema/factors.ts';
-import { formatInput, NOT_GIVEN } from './format.ts';
+import { formatInput, NOT_GIVEN } from '../format.ts';
 import type { AuditView } from './audit-view.ts';
 import type { DeclarationResultsView } from './declaration-view.ts';
 import type { ResultsSummary } from './results.ts';

@@ -2,7 +2,7 @@ import { findIndicator } from '../reference/indicators.ts';
 import { barChart, type ChartDatum, type ChartView } from './charts.ts';
 import { AUDIT_PAGE } from '../files.ts';
 import { fragment, inputAnchor } from './figure-links.ts';
-import { formatScientific, formatShare, NOT_AVAILABLE } from './format.ts';
+import { formatScientific, formatShare, NOT_AVAILABLE } from '../format.ts';
 import type { SensitivityJson } from '../calc/sensitivity.ts';
 
 export interface SensitivityView {

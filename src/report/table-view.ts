@@ -1,5 +1,5 @@
 import type { Table } from '../schema/table.ts';
-import { formatInput, formatShare } from './format.ts';
+import { formatInput, formatShare } from '../format.ts';
 import { physicalLines } from './written.ts';
 
 /**

@@ -4,7 +4,7 @@ import { factorHref } from './figure-links.ts';
 import { readersOf } from './factor-table.ts';
 import type { CatalogueEntry } from './product-view.ts';
 import { sourceOf, txt, type Cell, type TableView } from './table-view.ts';
-import { formatFixed, NOT_GIVEN } from './format.ts';
+import { formatFixed, NOT_GIVEN } from '../format.ts';
 
 /** The verification pack's own tables: the factors' data quality and the size of each input file. */
 

@@ -1,3 +1,4 @@
+import { formatSignificant } from '../format.ts';
 import { findIndicator } from '../reference/indicators.ts';
 import type { FigureGraph, Term } from './graph.ts';
 import { figureId, parseFigureId } from './ids.ts';
@@ -24,7 +25,7 @@ export function figureIds(graph: FigureGraph): string[] {
   return ids;
 }
 
-const format = (value: number): string => (Number.isNaN(value) ? 'not available' : Number(value.toPrecision(6)).toString());
+const format = (value: number): string => formatSignificant(value, 6);
 
 /**
  * The derivation of a figure as an indented tree, down to the input cells, with the value

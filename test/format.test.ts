@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { formatFigure, formatFixed, formatInput, NOT_AVAILABLE } from '../../src/report/format.ts';
+import { formatFigure, formatFixed, formatInput, formatSignificant, NOT_AVAILABLE } from '../src/format.ts';
 
 /**
  * The one number formatter against ECMA-262 itself: six significant figures are what
@@ -37,5 +37,14 @@ describe('formatInput', () => {
     expect(formatFixed(null, 2)).toBe(NOT_AVAILABLE);
     expect(formatFixed(Number.NaN, 2)).toBe('n/a');
     expect(formatFigure(Number.NaN)).toBe(NOT_AVAILABLE);
+  });
+
+  it('gives any number of significant figures in the shortest form, as toPrecision read back as a number', () => {
+    expect(formatSignificant(0.042537, 3)).toBe('0.0425');
+    expect(formatSignificant(1234.5, 3)).toBe('1230');
+    expect(formatSignificant(-12.345678, 4)).toBe('-12.35');
+    expect(formatSignificant(1.5e-7, 4)).toBe('1.5e-7');
+    expect(formatSignificant(null, 4)).toBe(NOT_AVAILABLE);
+    expect(formatSignificant(Number.NaN, 6)).toBe(NOT_AVAILABLE);
   });
 });

@@ -31,6 +31,9 @@ export const NOT_GIVEN = '—';
 /** A figure's value as the audit trail shows it: six significant figures, or `n/a` where a value is not available (NaN). */
 export const formatFigure = (value: number): string => (Number.isNaN(value) ? NOT_AVAILABLE : formatInput(value));
 
+/** `digits` significant figures in the shortest form (0.0425, 1230), or `n/a`: what explain and diff print. */
+export const formatSignificant = (value: number | null, digits: number): string => (value === null || Number.isNaN(value) ? NOT_AVAILABLE : String(Number(value.toPrecision(digits))));
+
 /** A number with a fixed number of decimals (a DQR, 2.25), or `n/a`. */
 export const formatFixed = (value: number | null, decimals: number): string => (value === null || !Number.isFinite(value) ? NOT_AVAILABLE : value.toFixed(decimals));
 
