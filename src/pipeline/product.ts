@@ -6,7 +6,6 @@ import { resultsJson, resultsSummary, type ResultsJson, type ResultsSummary } fr
 
 /** One product computed: its result with the figure graph, and results.json without the graph. */
 export interface ComputedProduct {
-  rows: ProductRows;
   result: ProductResult;
   summary: ResultsSummary;
 }
@@ -46,7 +45,7 @@ export class ProductPipeline {
   /** The calculation and the results summary. */
   compute(rows: ProductRows): ComputedProduct {
     const result = calculateProduct(this.ctx, rows);
-    return { rows, result, summary: resultsSummary(this.ctx, result) };
+    return { result, summary: resultsSummary(this.ctx, result) };
   }
 
   /** results.json of a computed product (format 2: the summary and the graph). */

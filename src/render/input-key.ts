@@ -51,9 +51,8 @@ export function readsOutside(project: Project, reach: ReadonlyMap<string, Readon
   return undefined;
 }
 
-/** A product's input key, from the rows it reaches (`productReach`) and the page context. */
-export function productInputKey(project: Project, rows: ProductRows, context: string): InputKey {
-  const byFile = productReach(project, rows);
+/** A product's input key, from the rows it reaches (`productReach`, given where the caller has it already) and the page context. */
+export function productInputKey(project: Project, rows: ProductRows, context: string, byFile: ReadonlyMap<string, ReadonlySet<number>> = productReach(project, rows)): InputKey {
   const hash = createHash('sha256').update(context);
   const files = inputTables(project);
   const sorted = new Map<string, number[]>();

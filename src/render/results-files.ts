@@ -50,12 +50,14 @@ export class ResultsWriter {
     const hashes = [hashText(`${summary.product_id}/results.json`, json), hashText(`${summary.product_id}/results.csv`, csv)];
     const view = declarationResultsView(ctx, rows, product, summary);
     for (const chart of [...view.charts, ...(view.sensitivity?.scopes.flatMap((scope) => scope.charts) ?? [])]) chart.svg = await renderChartSvg(chart);
-    const outside = readsOutside(ctx.project, productReach(ctx.project, rows), product.graph);
+    // The reach, found once: checked against the figure graph, then hashed into the input key.
+    const reach = productReach(ctx.project, rows);
+    const outside = readsOutside(ctx.project, reach, product.graph);
     // A row the key does not cover would let `build --changed` keep a stale product: stop instead.
     if (outside) throw new ToolError('internal', `figure ${outside.figure} of ${summary.product_id} reads ${outside.file} line ${outside.line}, which its input key does not cover (src/model/reach.ts productReach); please report this`);
     const audit = auditView(ctx.project, product, rows.bom);
     audit.html = auditHtml(audit);
-    return { report: { summary, results: view, audit }, key: productInputKey(ctx.project, rows, this.context).key, hashes };
+    return { report: { summary, results: view, audit }, key: productInputKey(ctx.project, rows, this.context, reach).key, hashes };
   }
 
 }

@@ -155,7 +155,7 @@ export function siteContext(project: Project, pdfs: boolean): SiteContext {
 }
 
 /** A count with its noun, singular or plural. */
-export const counted = (n: number, one: string, many: string): string => `${n} ${n === 1 ? one : many}`;
+const counted = (n: number, one: string, many: string): string => `${n} ${n === 1 ? one : many}`;
 
 /** The catalogue's headline column heads, from the headline's definition and the indicator registry. */
 function headlineHeads(): SiteView['headlineHeads'] {
