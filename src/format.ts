@@ -37,6 +37,9 @@ export const formatSignificant = (value: number | null, digits: number): string 
 /** A number with a fixed number of decimals (a DQR, 2.25), or `n/a`. */
 export const formatFixed = (value: number | null, decimals: number): string => (value === null || !Number.isFinite(value) ? NOT_AVAILABLE : value.toFixed(decimals));
 
+/** A whole number with thousands separated by commas, as English text writes a count: 10000 → "10,000". */
+export const formatCount = (value: number): string => String(value).replace(/\B(?=(\d{3})+(?!\d))/g, ',');
+
 /** 3 significant figures by default: `1.23e+1` style, as declarations print them. */
 export function formatScientific(value: number, significant = 3): string {
   return value.toExponential(significant - 1);

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { formatFigure, formatFixed, formatInput, formatSignificant, NOT_AVAILABLE } from '../src/format.ts';
+import { formatCount, formatFigure, formatFixed, formatInput, formatSignificant, NOT_AVAILABLE } from '../src/format.ts';
 
 /**
  * The one number formatter against ECMA-262 itself: six significant figures are what
@@ -46,5 +46,10 @@ describe('formatInput', () => {
     expect(formatSignificant(1.5e-7, 4)).toBe('1.5e-7');
     expect(formatSignificant(null, 4)).toBe(NOT_AVAILABLE);
     expect(formatSignificant(Number.NaN, 6)).toBe(NOT_AVAILABLE);
+  });
+
+  it('writes a count with thousands separated by commas, as Intl.NumberFormat with the en locale does (ECMA-402), without depending on the ICU data installed', () => {
+    const reference = new Intl.NumberFormat('en', { useGrouping: true, maximumFractionDigits: 0 });
+    for (const value of [0, 7, 999, 1000, 12345, 100000, 1234567, 1000000000]) expect(formatCount(value)).toBe(reference.format(value));
   });
 });

@@ -1,5 +1,6 @@
 import { ATOMIC_WEIGHTS } from '../reference/atomic-weights.ts';
 import { nearestName } from '../reference/nearest.ts';
+import { ToolError } from '../problems.ts';
 
 /**
  * Chemical formulas as practitioners type them: parentheses and brackets (`Ca(OH)2`,
@@ -14,14 +15,17 @@ export interface Formula {
   charge: number;
 }
 
-/** A formula or reaction that cannot be read: where, and what was expected. */
-export class ChemError extends Error {
+/**
+ * A formula or reaction that cannot be read: an input error (the one error type, kind
+ * `input`), with the text and the position to point at.
+ */
+export class ChemError extends ToolError {
   constructor(
     message: string,
     readonly text: string,
     readonly position: number,
   ) {
-    super(message);
+    super('input', message);
   }
 }
 

@@ -1,6 +1,7 @@
 import { ChemError } from '../chem/formula.ts';
 import { atomEconomy, findSpecies, imbalances, massRatios, parseReaction } from '../chem/reaction.ts';
 import { ATOMIC_WEIGHTS_SOURCE } from '../reference/atomic-weights.ts';
+import { formatFixed, formatSignificant } from '../format.ts';
 import { EXIT, UsageError, type Io } from './io.ts';
 
 export interface ChemOptions {
@@ -9,8 +10,6 @@ export interface ChemOptions {
   unit: 'kg' | 't';
   json: boolean;
 }
-
-const round = (value: number, digits: number) => Number(value.toPrecision(digits));
 
 /**
  * `loopsheet chem`: weighs a reaction. Exit 0 when it balances, 1 when an element or the
@@ -21,6 +20,7 @@ export async function runChem(options: ChemOptions, io: Io): Promise<number> {
   try {
     reaction = parseReaction(options.reaction);
   } catch (error) {
+    // The reaction is a command-line argument: a usage error here, shown with a caret under the place.
     if (error instanceof ChemError) throw new UsageError(`cannot read the reaction: ${error.message}\n  ${error.text}\n  ${' '.repeat(error.position)}^`);
     throw error;
   }
@@ -61,19 +61,19 @@ export async function runChem(options: ChemOptions, io: Io): Promise<number> {
       ),
     );
   } else {
-    const rows = reaction.species.map((s, i) => [s.formula.text, s.side, String(s.coefficient), round(s.molarMass, 7).toString(), round(ratios[i]!, 4).toString()]);
+    const rows = reaction.species.map((s, i) => [s.formula.text, s.side, String(s.coefficient), formatSignificant(s.molarMass, 7), formatSignificant(ratios[i]!, 4)]);
     const head = ['species', 'side', 'coefficient', 'molar mass (g/mol)', `${options.unit} per ${options.unit} ${perName}`];
     const widths = head.map((h, c) => Math.max(h.length, ...rows.map((r) => r[c]!.length)));
     const line = (cells: string[]) => cells.map((cell, c) => (c >= 2 ? cell.padStart(widths[c]!) : cell.padEnd(widths[c]!))).join('  ');
     io.out(
       [
         reaction.text,
-        unbalanced.length === 0 ? 'balanced: every element and the charge' : `NOT balanced: ${unbalanced.map((u) => `${u.what} ${round(u.reactants, 6)} → ${round(u.products, 6)}`).join(', ')} (reactants → products)`,
+        unbalanced.length === 0 ? 'balanced: every element and the charge' : `NOT balanced: ${unbalanced.map((u) => `${u.what} ${formatSignificant(u.reactants, 6)} → ${formatSignificant(u.products, 6)}`).join(', ')} (reactants → products)`,
         '',
         line(head),
         ...rows.map(line),
         '',
-        `atom economy (${reaction.species[wanted]!.formula.text} of all reactants): ${economy.toFixed(1)} %`,
+        `atom economy (${reaction.species[wanted]!.formula.text} of all reactants): ${formatFixed(economy, 1)} %`,
         `molar masses: ${ATOMIC_WEIGHTS_SOURCE}`,
       ].join('\n'),
     );

@@ -121,7 +121,7 @@ async function inputCopies(inputsDir: string): Promise<{ rowKey: RowKeyOf; writt
     const seen = new Map<string, number>();
     readCsvText(schema.file, read.text, (source) => {
       const names = source.header.names.map((name) => name.toLowerCase());
-      const positions = schema.key.map((column) => names.indexOf(column.toLowerCase()));
+      const positions = schema.key.columns.map((column) => names.indexOf(column.toLowerCase()));
       const fields = new Map<number, Map<string, string>>();
       cells.set(schema.file, fields);
       return (record) => {

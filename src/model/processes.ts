@@ -10,6 +10,7 @@ import type { RowOf } from '../schema/csv-file.ts';
 import type { Row, Table } from '../schema/table.ts';
 import { flowFactor, runProcess } from '../process/run.ts';
 import type { ProcessResult } from '../process/steps.ts';
+import { formatSignificant } from '../format.ts';
 
 export type ProcessRow = RowOf<typeof processCsv>;
 
@@ -100,7 +101,7 @@ export function readProcesses(table: Table<ProcessRow>): { processes: ProcessDef
         continue;
       }
       if (rowOf.has(name)) {
-        at(row, 'parameter', { code: 'DUPLICATE_ID', value: name, message: `repeats parameter ${name} of process ${id}`, expected: 'each parameter once per process', hint: `first given on line ${rowOf.get(name)!.line}` });
+        // Reported by the duplicate-key check (process.csv's key rule); the process is not computed.
         ok = false;
         continue;
       }
@@ -148,7 +149,7 @@ export function readProcesses(table: Table<ProcessRow>): { processes: ProcessDef
     for (const flow of result.inventory) {
       const { factor, parameter } = flowFactor(definition, flow.flow);
       if (factor === undefined) {
-        at(first, 'parameter', { code: 'FACTOR_REQUIRED', value: parameter, message: `${id} (${kind}) uses ${flow.flow} (${flow.amount.toPrecision(4)} ${flow.unit} per t) but names no factor for it`, expected: `a row ${id},${kind},${parameter},<factor id in factors.csv>` });
+        at(first, 'parameter', { code: 'FACTOR_REQUIRED', value: parameter, message: `${id} (${kind}) uses ${flow.flow} (${formatSignificant(flow.amount, 4)} ${flow.unit} per t) but names no factor for it`, expected: `a row ${id},${kind},${parameter},<factor id in factors.csv>` });
         ok = false;
       }
     }

@@ -1,6 +1,7 @@
 import { ABOVE_CARBON } from '../reference/smelting.ts';
 import { CO2_PER_C } from '../reference/constants.ts';
 import { nonNegative, share, StepRecorder, type ProcessResult } from './steps.ts';
+import { formatFixed } from '../format.ts';
 
 /** A carbon carrier in or out of the furnace, per tonne of metal. */
 export interface CarbonStream {
@@ -48,7 +49,7 @@ export function carbothermicReduction(p: CarbothermicReduction): ProcessResult {
   const cIn = rec.step('carbon_in_t_per_t', value(inIds), 't C/t', 'C_in = Σ m·c', 'Carbon charged.', inIds);
   const cOut = rec.step('carbon_out_t_per_t', value(outIds), 't C/t', 'C_out = Σ m·c', 'Carbon leaving in product and by-products.', outIds);
   if (cOut > cIn) {
-    rec.problem('carbon_out', cOut.toFixed(4), `more carbon leaves (${cOut.toFixed(4)} t/t) than is charged (${cIn.toFixed(4)} t/t)`, 'carbon out at most carbon in');
+    rec.problem('carbon_out', formatFixed(cOut, 4), `more carbon leaves (${formatFixed(cOut, 4)} t/t) than is charged (${formatFixed(cIn, 4)} t/t)`, 'carbon out at most carbon in');
     return rec.result();
   }
   rec.step('co2_t_per_t', (cIn - cOut) * CO2_PER_C, 't CO2/t', 'CO2 = (C_in − C_out)·44/12', 'Process CO2 by carbon mass balance (IPCC 2006 Vol. 3 Ch. 4.2).', ['carbon_in_t_per_t', 'carbon_out_t_per_t', 'ref:CO2_per_C']);

@@ -4,6 +4,7 @@ import { findSpecies, massRatios, parseReaction } from '../chem/reaction.ts';
 import { CO2_PER_C } from '../reference/constants.ts';
 import { isPrebake, PFC_SLOPE_DEFAULTS, TIER1_CO2_T_PER_T, type CellTechnology } from '../reference/smelting.ts';
 import { nonNegative, positive, share, StepRecorder, type ProcessResult } from './steps.ts';
+import { formatFixed } from '../format.ts';
 
 /** Operating data of a Hall–Héroult cell line, per tonne of aluminium (process.csv parameters). */
 export interface AluminiumSmelter {
@@ -58,7 +59,7 @@ export function aluminiumSmelter(p: AluminiumSmelter): ProcessResult {
   if (voltageOk) {
     const floor = rec.step('dc_floor_kwh_per_t', (charge * p.cell_voltage_v!) / 1000, 'kWh/t', 'E_min = Q·U / 1000', 'DC energy at the stated voltage and 100 % current efficiency: no cell line can use less.', ['charge_ah_per_t', 'param:cell_voltage_v']);
     if (measuredOk) {
-      if (p.electricity_kwh_per_t! < floor) rec.problem('electricity_kwh_per_t', p.electricity_kwh_per_t, `${p.electricity_kwh_per_t} kWh/t is below the Faraday-law floor of ${floor.toFixed(0)} kWh/t at ${p.cell_voltage_v} V and 100 % current efficiency`, `at least ${floor.toFixed(0)} kWh/t`);
+      if (p.electricity_kwh_per_t! < floor) rec.problem('electricity_kwh_per_t', p.electricity_kwh_per_t, `${p.electricity_kwh_per_t} kWh/t is below the Faraday-law floor of ${formatFixed(floor, 0)} kWh/t at ${p.cell_voltage_v} V and 100 % current efficiency`, `at least ${formatFixed(floor, 0)} kWh/t`);
       rec.step('dc_kwh_per_t', p.electricity_kwh_per_t!, 'kWh/t', 'E = measured', 'DC energy as measured at the rectifiers.', ['param:electricity_kwh_per_t']);
     } else if (efficiencyOk) {
       rec.step('dc_kwh_per_t', floor / p.current_efficiency!, 'kWh/t', 'E = E_min / η', 'DC energy at the stated current efficiency.', ['dc_floor_kwh_per_t', 'param:current_efficiency']);
@@ -78,7 +79,7 @@ export function aluminiumSmelter(p: AluminiumSmelter): ProcessResult {
     const nac = p.net_anode_consumption_t_per_t;
     const sulphur = p.anode_sulphur_pct ?? Number.NaN;
     const ash = p.anode_ash_pct ?? Number.NaN;
-    if (nonNegative(rec, 'net_anode_consumption_t_per_t', nac) && nac < carbonFloor) rec.problem('net_anode_consumption_t_per_t', nac, `${nac} t C/t Al is below the stoichiometric floor of ${carbonFloor.toFixed(3)} t C/t Al (${HALL_HEROULT})`, `at least ${carbonFloor.toFixed(3)}`);
+    if (nonNegative(rec, 'net_anode_consumption_t_per_t', nac) && nac < carbonFloor) rec.problem('net_anode_consumption_t_per_t', nac, `${nac} t C/t Al is below the stoichiometric floor of ${formatFixed(carbonFloor, 3)} t C/t Al (${HALL_HEROULT})`, `at least ${formatFixed(carbonFloor, 3)}`);
     if (p.anode_sulphur_pct === undefined) rec.problem('anode_sulphur_pct', undefined, 'is required with net_anode_consumption_t_per_t (IPCC Tier 2, prebake)', 'the sulphur content of the anodes, %');
     if (p.anode_ash_pct === undefined) rec.problem('anode_ash_pct', undefined, 'is required with net_anode_consumption_t_per_t (IPCC Tier 2, prebake)', 'the ash content of the anodes, %');
     percent(rec, 'anode_sulphur_pct', p.anode_sulphur_pct);
@@ -110,7 +111,7 @@ export function aluminiumSmelter(p: AluminiumSmelter): ProcessResult {
   // Alumina
   rec.step('alumina_floor_t_per_t', aluminaFloor, 't/t Al', 'Al2O3_min = 2·M_Al2O3 / (4·M_Al)', `Stoichiometric alumina of ${HALL_HEROULT}.`, ['ref:M_Al2O3', 'ref:M_Al']);
   if (p.alumina_t_per_t !== undefined) {
-    if (positive(rec, 'alumina_t_per_t', p.alumina_t_per_t) && p.alumina_t_per_t < aluminaFloor) rec.problem('alumina_t_per_t', p.alumina_t_per_t, `${p.alumina_t_per_t} t/t is below the stoichiometric ${aluminaFloor.toFixed(3)} t alumina per t Al`, `at least ${aluminaFloor.toFixed(3)}`);
+    if (positive(rec, 'alumina_t_per_t', p.alumina_t_per_t) && p.alumina_t_per_t < aluminaFloor) rec.problem('alumina_t_per_t', p.alumina_t_per_t, `${p.alumina_t_per_t} t/t is below the stoichiometric ${formatFixed(aluminaFloor, 3)} t alumina per t Al`, `at least ${formatFixed(aluminaFloor, 3)}`);
     rec.step('alumina_t_per_t', p.alumina_t_per_t, 't/t Al', 'Al2O3 = measured', 'Alumina consumed, as measured.', ['param:alumina_t_per_t']);
   } else {
     const loss = p.alumina_loss_share ?? 0;
@@ -139,7 +140,7 @@ function soderberg(rec: StepRecorder, p: AluminiumSmelter, carbonFloor: number):
   for (const name of needed) if (p[name] === undefined) rec.problem(name, undefined, `is required with paste_consumption_t_per_t (IPCC Tier 2, Søderberg)`, 'the value from the plant records');
   if (needed.some((name) => p[name] === undefined)) return;
   const pc = p.paste_consumption_t_per_t!;
-  if (nonNegative(rec, 'paste_consumption_t_per_t', pc) && pc < carbonFloor) rec.problem('paste_consumption_t_per_t', pc, `${pc} t/t Al is below the stoichiometric carbon floor of ${carbonFloor.toFixed(3)} t C/t Al`, `at least ${carbonFloor.toFixed(3)}`);
+  if (nonNegative(rec, 'paste_consumption_t_per_t', pc) && pc < carbonFloor) rec.problem('paste_consumption_t_per_t', pc, `${pc} t/t Al is below the stoichiometric carbon floor of ${formatFixed(carbonFloor, 3)} t C/t Al`, `at least ${formatFixed(carbonFloor, 3)}`);
   for (const name of ['binder_pct', 'pitch_sulphur_pct', 'pitch_ash_pct', 'pitch_hydrogen_pct', 'coke_sulphur_pct', 'coke_ash_pct'] as const) percent(rec, name, p[name]);
   const bc = p.binder_pct!;
   const carbon = pc - p.csm_kg_per_t! / 1000 - (bc / 100) * pc * ((p.pitch_sulphur_pct! + p.pitch_ash_pct! + p.pitch_hydrogen_pct!) / 100) - ((100 - bc) / 100) * pc * ((p.coke_sulphur_pct! + p.coke_ash_pct!) / 100) - p.skimmed_dust_carbon_t_per_t!;

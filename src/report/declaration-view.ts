@@ -8,7 +8,7 @@ import { LIFE_CYCLE_MODULES } from '../reference/modules.ts';
 import { barChart, type ChartDatum, type ChartView } from './charts.ts';
 import { dataQualityView, type DataQualityView } from './data-quality-view.ts';
 import { factorHref, figureHref } from './figure-links.ts';
-import { formatInput, formatScientific, formatShare, NOT_AVAILABLE } from '../format.ts';
+import { formatCount, formatInput, formatScientific, formatShare, NOT_AVAILABLE } from '../format.ts';
 import { resultFigureId, type ResultsSummary } from './results.ts';
 import type { CffMethod } from '../calc/cff.ts';
 import { figureId, processStep, processStepOf } from '../trace/ids.ts';
@@ -243,7 +243,7 @@ function uncertaintyView(u: UncertaintyJson, sci: (v: number | null | undefined)
   const count = (n: number, one: string, many: string) => `${n} ${n === 1 ? one : many}`;
   const variedCount = u.varied.factors.length + u.varied.bom.length + u.varied.activities.length;
   return {
-    iterations: u.iterations.toLocaleString('en'),
+    iterations: formatCount(u.iterations),
     seed: u.seed,
     varied:
       variedCount === 0

@@ -7,7 +7,8 @@ export const ACTIVITY_MODULES = ['A1', 'A2', 'A3', 'A4', 'A5', 'C1', 'C2', 'C3',
 export const activitiesCsv = defineCsv({
   file: 'activities.csv',
   purpose: 'Energy, ancillary materials and direct emissions per declared unit, by module.',
-  key: ['product_id', 'module', 'activity'],
+  // Repeats are legal but usually a double count.
+  key: { columns: ['product_id', 'module', 'activity'], repeat: 'warning', what: 'product, module and activity' },
   row: (d) =>
     z.object({
       product_id: reference('The product.', 'products.csv product_id'),

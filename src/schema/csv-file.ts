@@ -1,6 +1,16 @@
 import { z } from 'zod';
 import type { Dialect } from './numbers.ts';
 import type { CellMeta } from './cells.ts';
+import type { Severity } from '../problems.ts';
+
+/** The columns that identify a row of a file, and what a second row with the same values is. */
+export interface KeyRule {
+  columns: readonly string[];
+  /** An error, or a warning where a repeat is legal but usually a double count. */
+  repeat: Severity;
+  /** The key in words, for the message ("line_id within its product"). */
+  what: string;
+}
 
 /**
  * One input CSV: its name, what it is for, and the zod schema of one row. The row
@@ -14,8 +24,8 @@ export interface CsvFileSchema<Shape extends z.ZodRawShape = z.ZodRawShape> {
   row: (dialect: Dialect) => z.ZodObject<Shape>;
   /** A filled-in example row for `init` (written as a comment) and the docs. */
   example: Record<string, string>;
-  /** Columns whose values together identify a row (duplicate check). */
-  key: readonly string[];
+  /** The columns whose values together identify a row, and the duplicate rule (src/model/checks/duplicate-keys.ts). */
+  key: KeyRule;
   /** True when the project is incomplete without at least one row. */
   needsRows: boolean;
   /** True when the file may be left out of the data folder (read as having no rows). */
@@ -27,7 +37,7 @@ export function defineCsv<Shape extends z.ZodRawShape>(definition: {
   purpose: string;
   row: (dialect: Dialect) => z.ZodObject<Shape>;
   example: Record<string, string>;
-  key: readonly string[];
+  key: KeyRule;
   needsRows?: boolean;
   optional?: boolean;
 }): CsvFileSchema<Shape> {

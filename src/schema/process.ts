@@ -14,7 +14,7 @@ export { PROCESS_KINDS, type ProcessKind };
 export const processCsv = defineCsv({
   file: 'process.csv',
   purpose: 'Operating data of your own metal-making processes (smelter cell line, tank house, furnace), one parameter a row; optional. See the parameters of each kind in the input format reference.',
-  key: ['process_id', 'parameter'],
+  key: { columns: ['process_id', 'parameter'], repeat: 'error', what: 'parameter within its process' },
   optional: true,
   row: () =>
     z.object({

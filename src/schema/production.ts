@@ -10,7 +10,7 @@ import { defineCsv } from './csv-file.ts';
 export const productionCsv = defineCsv({
   file: 'production.csv',
   purpose: 'Each product’s output at a site in a period, which shares the site’s consumption (site.csv); extra numeric columns are your own allocation keys; optional.',
-  key: ['site_id', 'period', 'product_id'],
+  key: { columns: ['site_id', 'period', 'product_id'], repeat: 'error', what: 'site, period and product' },
   optional: true,
   row: (d) =>
     z.object({

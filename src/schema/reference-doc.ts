@@ -50,6 +50,8 @@ function columnTable(schema: CsvFileSchema, columns: ColumnInfo[]): string {
     '|---|---|---|---|',
     ...rows,
     '',
+    `Key: ${schema.key.columns.map((name) => `\`${name}\``).join(' + ')}; a second row with the same key is ${schema.key.repeat === 'error' ? 'an error' : 'a warning (legal, but usually a double count)'}.`,
+    '',
     `Example row: \`${Object.values(example).join(',')}\``,
   ].join('\n');
 }

@@ -13,7 +13,8 @@ export const BUILT_IN_KEYS = ['mass', 'declared_unit'] as const;
 export const siteCsv = defineCsv({
   file: 'site.csv',
   purpose: 'A plant’s consumption for a whole period (annual meter readings, purchases), shared among the products it made by production.csv; optional.',
-  key: ['site_id', 'period', 'module', 'activity'],
+  // Repeats are legal but usually a double count.
+  key: { columns: ['site_id', 'period', 'module', 'activity'], repeat: 'warning', what: 'site, period, module and activity' },
   optional: true,
   row: (d) =>
     z.object({

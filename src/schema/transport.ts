@@ -7,7 +7,8 @@ export const TRANSPORT_MODULES = ['A2', 'A4', 'C2'] as const;
 export const transportCsv = defineCsv({
   file: 'transport.csv',
   purpose: 'Transport legs: the carried mass (one BOM line, or the whole product) times distance times a factor per tonne-kilometre.',
-  key: ['product_id', 'module', 'line_id', 'leg'],
+  // Repeats are legal but usually a double count.
+  key: { columns: ['product_id', 'module', 'line_id', 'leg'], repeat: 'warning', what: 'product, module, line and leg' },
   row: (d) =>
     z.object({
       product_id: reference('The product.', 'products.csv product_id'),

@@ -1,34 +1,30 @@
-import type { Severity } from '../../problems.ts';
-import type { AnyTable, CheckContext } from './context.ts';
+import { CSV_FILES } from '../../schema/index.ts';
+import { columnsOf } from '../../schema/csv-file.ts';
+import type { CheckContext } from './context.ts';
 
+/**
+ * Each file's key rule, as its schema declares it (`key` in src/schema): a second row with
+ * the same key values is reported on its last key column, pointing at the first. A row with
+ * a required key cell empty is left to that cell's own problem.
+ */
 export function duplicateKeys(ctx: CheckContext): void {
-  const p = ctx.project;
-  const rules: Array<{ table: AnyTable; key: string[]; severity: Severity; what: string }> = [
-    { table: p.products, key: ['product_id'], severity: 'error', what: 'product_id' },
-    { table: p.bom, key: ['product_id', 'line_id'], severity: 'error', what: 'line_id within its product' },
-    { table: p.materials, key: ['material'], severity: 'error', what: 'material' },
-    { table: p.eol, key: ['scenario', 'material'], severity: 'error', what: 'scenario and material' },
-    { table: p.factors, key: ['factor_id'], severity: 'error', what: 'factor_id' },
-    // Repeated activities and legs are legal but usually a double count.
-    { table: p.activities, key: ['product_id', 'module', 'activity'], severity: 'warning', what: 'product, module and activity' },
-    { table: p.transport, key: ['product_id', 'module', 'line_id', 'leg'], severity: 'warning', what: 'product, module, line and leg' },
-    { table: p.site, key: ['site_id', 'period', 'module', 'activity'], severity: 'warning', what: 'site, period, module and activity' },
-    { table: p.production, key: ['site_id', 'period', 'product_id'], severity: 'error', what: 'site, period and product' },
-    { table: p.familyRows, key: ['family_id', 'product_id'], severity: 'error', what: 'family and product' },
-  ];
-  for (const rule of rules) {
+  for (const schema of CSV_FILES) {
+    const table = ctx.table(schema.file);
+    if (!table) continue;
+    const { columns, repeat, what } = schema.key;
+    const required = new Set(columnsOf(schema).filter((column) => column.required).map((column) => column.name));
+    const column = columns.at(-1)!;
     const seen = new Map<string, number>();
-    for (const row of rule.table.written) {
-      const parts = rule.key.map((column) => (row.raw[column] ?? '').trim());
-      if (parts[0] === '' || (rule.key.length > 1 && parts[rule.key.length - 1] === '' && rule.table !== p.transport)) continue;
+    for (const row of table.written) {
+      const parts = columns.map((name) => (row.raw[name] ?? '').trim());
+      if (parts.some((part, i) => part === '' && required.has(columns[i]!))) continue;
       const key = parts.join('\u0000');
       const first = seen.get(key);
       if (first === undefined) {
         seen.set(key, row.line);
         continue;
       }
-      const column = rule.key[rule.key.length - 1]!;
-      ctx.at(rule.table, row.line, row.raw, column, rule.severity, 'DUPLICATE_ID', `repeats the ${rule.what} of line ${first}`, { expected: `a ${rule.what} not used before`, hint: `first defined on line ${first}` });
+      ctx.at(table, row.line, row.raw, column, repeat, 'DUPLICATE_ID', `repeats the ${what} of line ${first}`, { expected: `a ${what} not used before`, hint: `first defined on line ${first}` });
     }
   }
 }

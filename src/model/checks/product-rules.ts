@@ -1,4 +1,5 @@
 import type { CheckContext } from './context.ts';
+import { formatFixed, formatInput } from '../../format.ts';
 
 /** EN 15804+A2 declares per declared unit: the BOM must add up to it. */
 const UNIT_MASS_TOLERANCE = 0.01;
@@ -37,8 +38,8 @@ export function productRules(ctx: CheckContext): void {
       const deviation = Math.abs(sum - product.unit_mass_kg) / product.unit_mass_kg;
       if (deviation > UNIT_MASS_TOLERANCE) {
         ctx.at(p.products, productRow.line, productRow.raw, 'unit_mass_kg', 'error', 'UNIT_MASS_MISMATCH',
-          `differs from the sum of its product-role BOM masses, ${formatKg(sum)} kg (bom.csv lines ${productLines.map((l) => l.line).join(', ')}), by ${(deviation * 100).toFixed(1)} %`,
-          { expected: `within 1 % of ${formatKg(sum)} kg` });
+          `differs from the sum of its product-role BOM masses, ${formatInput(sum)} kg (bom.csv lines ${productLines.map((l) => l.line).join(', ')}), by ${formatFixed(deviation * 100, 1)} %`,
+          { expected: `within 1 % of ${formatInput(sum)} kg` });
       }
     }
     const covered = scenarioMaterials.get(product.eol_scenario);
@@ -51,4 +52,3 @@ export function productRules(ctx: CheckContext): void {
   }
 }
 
-const formatKg = (kg: number) => String(Math.round(kg * 1e6) / 1e6);
