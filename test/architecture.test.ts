@@ -16,10 +16,10 @@ export const LAYERS: ReadonlyArray<readonly string[]> = [
   ['problems.ts', 'files.ts', 'format.ts', 'reference', 'types'],
   // Reading text, CSV and JSON; chemistry.
   ['load', 'chem'],
-  // The process models' arithmetic (its kinds are what process.csv may name).
-  ['process'],
-  // The input contract (zod schemas).
+  // The input contract (zod schemas), process kinds and their parameters included.
   ['schema'],
+  // The process models' arithmetic, on the parameters the kinds' schemas type.
+  ['process'],
   // The validated project.
   ['model'],
   // Figure ids and the figure graph.

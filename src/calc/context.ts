@@ -8,7 +8,7 @@ import { jsonPath } from '../load/json.ts';
 import { cellTerm, factorTerm, figureTerm, type CellRef, type FigureGraph, type Term } from '../trace/graph.ts';
 import { flowFactor } from '../process/run.ts';
 import { processReference } from '../process/references.ts';
-import { PROCESS_PREFIX } from '../schema/process-parameters.ts';
+import { PROCESS_PREFIX } from '../schema/process-kinds.ts';
 import { processStep, referenceStep } from '../trace/ids.ts';
 import type { Vec } from './vector.ts';
 
@@ -162,7 +162,7 @@ export class CalcContext {
             const name = input.slice('ref:'.length);
             const refId = referenceStep.process(processId, name);
             if (!graph.get(refId)) {
-              const ref = processReference(name, definition.values);
+              const ref = processReference(name, definition);
               if (!ref) throw new Error(`process ${processId}: no reference value ${name}`);
               graph.add({ kind: 'scalar', id: refId, value: ref.value, unit: ref.unit, formula: `${name} = ${ref.value}`, description: ref.description, terms: [] });
             }
@@ -182,7 +182,7 @@ export class CalcContext {
         id: factorNodeId,
         values,
         formula: 'F = Σ flows (amount per t / 1000 kg)·F(flow)',
-        description: `Factor per kg of ${definition.kind === 'electrolysis-aluminium' ? 'aluminium' : String(definition.values.metal)} from the operating data of process ${processId} (${definition.kind})${result.notes.length ? `; ${result.notes.map((note) => note.replace(/\.$/, '')).join('; ')}` : ''}.`,
+        description: `Factor per kg of ${definition.kind === 'electrolysis-aluminium' ? 'aluminium' : definition.values.metal} from the operating data of process ${processId} (${definition.kind})${result.notes.length ? `; ${result.notes.map((note) => note.replace(/\.$/, '')).join('; ')}` : ''}.`,
         terms,
       });
     };

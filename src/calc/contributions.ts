@@ -1,5 +1,5 @@
 import type { FactorUse, FigureGraph } from '../trace/graph.ts';
-import { PROCESS_PREFIX } from '../schema/process-parameters.ts';
+import { PROCESS_PREFIX } from '../schema/process-kinds.ts';
 import type { CalcContext } from './context.ts';
 import type { Vec } from './vector.ts';
 import { findGas } from '../reference/ghg.ts';

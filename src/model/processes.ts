@@ -1,69 +1,33 @@
-import { z } from 'zod';
+import type { z } from 'zod';
 import type { Problem } from '../problems.ts';
 import { nearestName } from '../reference/nearest.ts';
-import { choice, quantity, share, text } from '../schema/cells.ts';
 import { describeIssue } from '../schema/issues.ts';
 import type { Dialect } from '../schema/numbers.ts';
-import { PROCESS_KINDS, type ProcessKind, type processCsv } from '../schema/process.ts';
-import { PROCESS_PARAMETERS, type ParameterSpec } from '../schema/process-parameters.ts';
+import type { processCsv } from '../schema/process.ts';
+import { kindSchema, knownParameters, parameterMeta, type ParameterMeta } from '../schema/process-kinds.ts';
 import type { RowOf } from '../schema/csv-file.ts';
 import type { Row, Table } from '../schema/table.ts';
-import { flowFactor, runProcess } from '../process/run.ts';
+import { flowFactor, runProcess, type ProcessInput } from '../process/run.ts';
 import type { ProcessResult } from '../process/steps.ts';
 import { formatSignificant } from '../format.ts';
 
 export type ProcessRow = RowOf<typeof processCsv>;
 
 /** One process of process.csv: its kind, its typed parameters, and the row each was read from. */
-export interface ProcessDefinition {
+export type ProcessDefinition = ProcessInput & {
   id: string;
-  kind: ProcessKind;
   /** The first row of the process (where a missing parameter is reported). */
   first: Row<ProcessRow>;
-  values: Record<string, number | string>;
-  /** Family parameters, `reagent:<factor>` → value. */
-  families: Record<string, Record<string, number | string>>;
+  /** The row of each parameter, by its name in process.csv (`reagent:acid` for a family member). */
   rows: Map<string, Row<ProcessRow>>;
   /** Its calculator's derivation and inventory, computed once at validation. */
   result: ProcessResult;
-}
+};
 
-/** The cell schema of a parameter's value, from its spec (the same cells every input file uses). */
-function valueSchema(spec: ParameterSpec, dialect: Dialect): z.ZodType {
-  switch (spec.type) {
-    case 'number':
-    case 'percent':
-      return quantity(dialect, spec.description, spec.unit || 'the stated unit', { required: false, positive: spec.unit === 'V' });
-    case 'share':
-      return share(dialect, spec.description, { default: undefined });
-    case 'choice':
-      return choice(spec.description, spec.choices as readonly [string, ...string[]]);
-    case 'integer':
-      return quantity(dialect, spec.description, 'a whole number', { required: false }).refine((value) => value === undefined || Number.isInteger(value), { params: { problem: 'OUT_OF_RANGE', expected: 'a whole number' }, message: 'is not a whole number' });
-    default:
-      return text(spec.description, { required: true });
-  }
-}
-
-/** One zod schema per kind: its named parameters, unknown ones refused (families are read apart). */
-const kindSchemas = new Map<string, z.ZodObject>();
-export function kindSchema(kind: ProcessKind, dialect: Dialect): z.ZodObject {
-  const key = `${kind}|${dialect.decimalComma}`;
-  let schema = kindSchemas.get(key);
-  if (!schema) {
-    const shape: Record<string, z.ZodType> = {};
-    for (const [name, spec] of Object.entries(PROCESS_PARAMETERS[kind].parameters)) shape[name] = spec.required ? valueSchema(spec, dialect) : valueSchema(spec, dialect).optional();
-    schema = z.object(shape).strict();
-    kindSchemas.set(key, schema);
-  }
-  return schema;
-}
-
-const unitAccepted = (spec: ParameterSpec, written: string | undefined): boolean => {
+const unitAccepted = (meta: ParameterMeta, written: string | undefined): boolean => {
   const unit = (written ?? '').trim();
-  if (spec.type === 'share') return unit === '' || unit === 'share' || unit === '%';
-  if (spec.unit === '') return unit === '';
-  return unit === spec.unit;
+  if (meta.type === 'share') return unit === '' || unit === 'share' || unit === '%';
+  return unit === meta.unit;
 };
 
 /**
@@ -88,10 +52,9 @@ export function readProcesses(table: Table<ProcessRow>): { processes: ProcessDef
   for (const [id, rows] of byProcess) {
     const first = rows[0]!;
     const kind = first.value.kind;
-    const spec = PROCESS_PARAMETERS[kind];
-    const raw: Record<string, string> = {};
+    // The written values, shaped as the kind's schema reads them: a family member under its family.
+    const raw: Record<string, string | Record<string, string>> = {};
     const rowOf = new Map<string, Row<ProcessRow>>();
-    const families: Record<string, Record<string, number | string>> = {};
     let ok = true;
     for (const row of rows) {
       const name = row.value.parameter;
@@ -106,43 +69,36 @@ export function readProcesses(table: Table<ProcessRow>): { processes: ProcessDef
         continue;
       }
       rowOf.set(name, row);
-      const colon = name.indexOf(':');
-      const familySpec = colon > 0 ? spec.families?.[name.slice(0, colon)] : undefined;
-      const parameterSpec = familySpec ?? spec.parameters[name];
-      if (!parameterSpec) {
-        const known = [...Object.keys(spec.parameters), ...Object.keys(spec.families ?? {}).map((family) => `${family}:<name>`)];
+      const meta = parameterMeta(kind, name);
+      if (!meta) {
+        const known = knownParameters(kind);
         const near = nearestName(name, known);
         at(row, 'parameter', { code: 'PARAMETER_UNKNOWN', value: name, message: `is not a parameter of ${kind}`, expected: `one of ${known.join(', ')}`, ...(near ? { hint: `did you mean "${near}"?` } : {}) });
         ok = false;
         continue;
       }
-      if (!unitAccepted(parameterSpec, row.value.unit)) {
-        at(row, 'unit', { code: 'UNIT_MISMATCH', value: row.value.unit ?? '', message: `is not the unit ${name} is written in`, expected: parameterSpec.type === 'share' ? 'share or %' : parameterSpec.unit === '' ? 'empty (the value is a word or a count)' : parameterSpec.unit });
+      if (!unitAccepted(meta, row.value.unit)) {
+        at(row, 'unit', { code: 'UNIT_MISMATCH', value: row.value.unit ?? '', message: `is not the unit ${name} is written in`, expected: meta.type === 'share' ? 'share or %' : meta.unit === '' ? 'empty (the value is a word or a count)' : meta.unit });
         ok = false;
       }
-      if (familySpec) {
-        const parsed = valueSchema(familySpec, dialect).safeParse(row.value.value);
-        if (!parsed.success) {
-          ok = false;
-          for (const issue of parsed.error.issues) cellProblem(at, row, issue);
-          continue;
-        }
-        const family = name.slice(0, colon);
-        (families[family] ??= {})[name.slice(colon + 1)] = parsed.data as number | string;
+      if (meta.family) {
+        const colon = name.indexOf(':');
+        ((raw[name.slice(0, colon)] ??= {}) as Record<string, string>)[name.slice(colon + 1)] = row.value.value;
       } else raw[name] = row.value.value;
     }
     const parsed = kindSchema(kind, dialect).safeParse(raw);
     if (!parsed.success) {
       ok = false;
       for (const issue of parsed.error.issues) {
-        const name = String(issue.path[0] ?? '');
+        const name = issue.path.length > 1 ? `${String(issue.path[0])}:${String(issue.path[1])}` : String(issue.path[0] ?? '');
         const row = rowOf.get(name);
+        const meta = parameterMeta(kind, name);
         if (row) cellProblem(at, row, issue);
-        else at(first, 'parameter', { code: 'VALUE_REQUIRED', value: name, message: `${kind} needs ${name}: ${PROCESS_PARAMETERS[kind].parameters[name]?.description ?? ''}`.trim(), expected: `a row ${id},${kind},${name},<value>,${PROCESS_PARAMETERS[kind].parameters[name]?.unit ?? ''}` });
+        else at(first, 'parameter', { code: 'VALUE_REQUIRED', value: name, message: `${kind} needs ${name}: ${meta?.description ?? ''}`.trim(), expected: `a row ${id},${kind},${name},<value>,${meta?.unit ?? ''}` });
       }
     }
     if (!ok || !parsed.success) continue;
-    const input = { kind, values: parsed.data as Record<string, number | string>, families };
+    const input = { kind, values: parsed.data } as ProcessInput;
     // Operating data below a physical or stoichiometric floor are refused here, at their row, not computed.
     const result = runProcess(input);
     const definition: ProcessDefinition = { id, first, rows: rowOf, result, ...input };
@@ -169,4 +125,3 @@ function cellProblem(at: (row: Row<ProcessRow>, column: 'value', problem: Omit<P
   at(row, 'value', { code: described.code, value: row.value.value, message: described.message, ...(described.expected ? { expected: described.expected } : {}), ...(described.hint ? { hint: described.hint } : {}) });
 }
 
-export { PROCESS_KINDS };

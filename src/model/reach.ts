@@ -1,6 +1,6 @@
 import { flowFactor } from '../process/run.ts';
 import { MATERIAL_FACTOR_COLUMNS } from '../schema/materials.ts';
-import { PROCESS_PREFIX } from '../schema/process-parameters.ts';
+import { PROCESS_PREFIX } from '../schema/process-kinds.ts';
 import type { Row, Table } from '../schema/table.ts';
 import { groupBy, type ProductRows } from './by-product.ts';
 import type { Product, Project } from './types.ts';

@@ -2,36 +2,13 @@ import { chargeAhPerKg } from '../chem/electrochemistry.ts';
 import { molarMass, parseFormula } from '../chem/formula.ts';
 import { findSpecies, massRatios, parseReaction } from '../chem/reaction.ts';
 import { CO2_PER_C } from '../reference/constants.ts';
-import { isPrebake, PFC_SLOPE_DEFAULTS, TIER1_CO2_T_PER_T, type CellTechnology } from '../reference/smelting.ts';
+import { isPrebake, PFC_SLOPE_DEFAULTS, TIER1_CO2_T_PER_T } from '../reference/smelting.ts';
+import type { ParametersOf } from '../schema/process-kinds.ts';
 import { nonNegative, positive, share, StepRecorder, type ProcessResult } from './steps.ts';
 import { formatFixed } from '../format.ts';
 
-/** Operating data of a Hall–Héroult cell line, per tonne of aluminium (process.csv parameters). */
-export interface AluminiumSmelter {
-  technology: CellTechnology;
-  cell_voltage_v?: number;
-  current_efficiency?: number;
-  electricity_kwh_per_t?: number;
-  auxiliary_share?: number;
-  net_anode_consumption_t_per_t?: number;
-  anode_sulphur_pct?: number;
-  anode_ash_pct?: number;
-  paste_consumption_t_per_t?: number;
-  csm_kg_per_t?: number;
-  binder_pct?: number;
-  pitch_sulphur_pct?: number;
-  pitch_ash_pct?: number;
-  pitch_hydrogen_pct?: number;
-  coke_sulphur_pct?: number;
-  coke_ash_pct?: number;
-  skimmed_dust_carbon_t_per_t?: number;
-  anode_effect_minutes_per_cell_day?: number;
-  slope_cf4?: number;
-  c2f6_per_cf4?: number;
-  alumina_t_per_t?: number;
-  alumina_loss_share?: number;
-  aluminium_fluoride_t_per_t?: number;
-}
+/** Operating data of a Hall–Héroult cell line, per tonne of aluminium: its process.csv parameters (src/schema/process-kinds.ts). */
+export type AluminiumSmelter = ParametersOf<'electrolysis-aluminium'>;
 
 /** The cell reaction the floors come from: carbon anodes burnt by the oxygen of the alumina. */
 export const HALL_HEROULT = '2Al2O3 + 3C -> 4Al + 3CO2';

@@ -1,19 +1,13 @@
 import { chargeAhPerKg } from '../chem/electrochemistry.ts';
 import { ChemError, molarMass, parseFormula } from '../chem/formula.ts';
+import type { ParametersOf } from '../schema/process-kinds.ts';
 import { positive, share, StepRecorder, type ProcessResult } from './steps.ts';
 
-/** Operating data of an electrowinning tank house, per tonne of cathode metal. */
-export interface Electrowinning {
-  /** Element symbol of the metal deposited (Cu, Zn, Ni, Co, …). */
-  metal: string;
-  /** Charge of its ion in the electrolyte (2 for Cu²⁺, Zn²⁺, Ni²⁺). */
-  charge: number;
-  cell_voltage_v: number;
-  current_efficiency: number;
-  auxiliary_share?: number;
-  /** Reagents per tonne of metal, by factor id, in kg. */
-  reagents?: Record<string, number>;
-}
+/**
+ * Operating data of an electrowinning tank house, per tonne of cathode metal: its
+ * process.csv parameters (src/schema/process-kinds.ts); `reagent` is kg per tonne by factor id.
+ */
+export type Electrowinning = ParametersOf<'electrowinning'>;
 
 /**
  * Electrowinning from a leach or solvent-extraction electrolyte (bacterial leaching
@@ -39,7 +33,7 @@ export function electrowinning(p: Electrowinning): ProcessResult {
   const dc = rec.step('dc_kwh_per_t', (charge * p.cell_voltage_v) / p.current_efficiency / 1000, 'kWh/t', 'E = Q·U / η / 1000', 'DC energy of the tank house.', ['charge_ah_per_t', 'param:cell_voltage_v', 'param:current_efficiency']);
   rec.step('electricity_kwh_per_t', dc * (1 + (p.auxiliary_share ?? 0)), 'kWh/t', 'E_total = E·(1 + aux)', 'Electricity including rectifier, pumping and auxiliary loads.', ['dc_kwh_per_t', ...(p.auxiliary_share !== undefined ? ['param:auxiliary_share'] : [])]);
   rec.flow('electricity', 'energy', 'electricity_kwh_per_t', 'kWh');
-  for (const [factor, kg] of Object.entries(p.reagents ?? {})) {
+  for (const [factor, kg] of Object.entries(p.reagent ?? {})) {
     if (!(kg >= 0)) {
       rec.problem(`reagent:${factor}`, kg, 'must not be negative', 'kg per tonne of metal');
       continue;

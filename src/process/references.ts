@@ -2,7 +2,8 @@ import { molarMass, parseFormula } from '../chem/formula.ts';
 import { ATOMIC_WEIGHTS_SOURCE } from '../reference/atomic-weights.ts';
 import { CONSTANTS_SOURCE, FARADAY_C_PER_MOL } from '../reference/constants.ts';
 import { CO2_PER_C } from '../reference/constants.ts';
-import { PFC_SLOPE_DEFAULTS, SMELTING_SOURCE, TIER1_CO2_T_PER_T, type CellTechnology } from '../reference/smelting.ts';
+import { PFC_SLOPE_DEFAULTS, SMELTING_SOURCE, TIER1_CO2_T_PER_T } from '../reference/smelting.ts';
+import type { ProcessInput } from './run.ts';
 
 export interface ProcessReference {
   value: number;
@@ -13,8 +14,8 @@ export interface ProcessReference {
 const molar = (formula: string): ProcessReference => ({ value: molarMass(parseFormula(formula)), unit: 'g/mol', description: `Molar mass of ${formula}, ${ATOMIC_WEIGHTS_SOURCE}.` });
 
 /** The reference value behind a calculator step's `ref:<name>` input, for this process's parameters. */
-export function processReference(name: string, values: Record<string, number | string>): ProcessReference | undefined {
-  const technology = values.technology as CellTechnology | undefined;
+export function processReference(name: string, input: ProcessInput): ProcessReference | undefined {
+  const technology = input.kind === 'electrolysis-aluminium' ? input.values.technology : undefined;
   switch (name) {
     case 'F':
       return { value: FARADAY_C_PER_MOL, unit: 'C/mol', description: `Faraday constant F = e·N_A, ${CONSTANTS_SOURCE}.` };

@@ -2,14 +2,12 @@ import { z } from 'zod';
 import { choice, id, requiredText, text } from './cells.ts';
 import { defineCsv } from './csv-file.ts';
 
-import { PROCESS_KINDS, type ProcessKind } from '../process/run.ts';
-
-export { PROCESS_KINDS, type ProcessKind };
+import { PROCESS_KINDS } from './process-kinds.ts';
 
 /**
  * process.csv (optional): operating data of the declarant's own metal-making processes,
  * one parameter a row, so that every parameter is a traceable cell. What each kind needs
- * is in `process-parameters.ts`.
+ * is in `process-kinds.ts`.
  */
 export const processCsv = defineCsv({
   file: 'process.csv',

@@ -6,7 +6,7 @@ import { KNOWN_UNITS } from '../reference/units.ts';
 import { columnsOf, DEFAULT_DIALECT, type ColumnInfo, type CsvFileSchema } from './csv-file.ts';
 import { declarationSchema } from './declaration.ts';
 import { CSV_FILES, factorsCsv } from './index.ts';
-import { PROCESS_PARAMETERS } from './process-parameters.ts';
+import { kindDescription, parametersOf, PROCESS_KINDS } from './process-kinds.ts';
 import { FACTOR_BASE_COLUMNS } from './factors.ts';
 
 /**
@@ -91,15 +91,14 @@ export function columnReference(): string {
     '',
     'One parameter a row. A share may be written 0.95 (unit `share`) or 95% (unit `%`); words and counts have an empty unit. Parameters shown as `family:<name>` are named per item (a reagent by its factor id, a reductant by its name). Values below a physical or stoichiometric floor (Faraday-law energy, stoichiometric carbon and alumina) are refused with `PROCESS_INFEASIBLE`.',
     '',
-    ...Object.entries(PROCESS_PARAMETERS).flatMap(([kind, spec]) => [
+    ...PROCESS_KINDS.flatMap((kind) => [
       `#### \`${kind}\``,
       '',
-      spec.description,
+      kindDescription(kind),
       '',
       '| parameter | unit | required | meaning |',
       '|---|---|---|---|',
-      ...Object.entries(spec.parameters).map(([name, p]) => `| \`${name}\` | ${p.unit === '' ? '—' : escapeCell(p.unit === 'share' ? 'share or %' : p.unit)} | ${p.required ? 'required' : 'optional'} | ${escapeCell(p.description)} |`),
-      ...Object.entries(spec.families ?? {}).map(([family, p]) => `| \`${family}:<name>\` | ${escapeCell(p.unit === 'share' ? 'share or %' : p.unit)} | optional | ${escapeCell(p.description)} |`),
+      ...parametersOf(kind).map(({ name, meta }) => `| \`${meta.family ? `${name}:<name>` : name}\` | ${meta.unit === '' ? '—' : escapeCell(meta.unit === 'share' ? 'share or %' : meta.unit)} | ${meta.required ? 'required' : 'optional'} | ${escapeCell(meta.description)} |`),
       '',
     ]),
     '### Units',

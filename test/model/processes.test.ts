@@ -53,7 +53,7 @@ describe('process.csv', () => {
     const [potline, tankhouse] = project!.processes;
     expect(potline).toMatchObject({ id: 'potline-1', kind: 'electrolysis-aluminium', values: { technology: 'CWPB', cell_voltage_v: 4.2, current_efficiency: 0.95, net_anode_consumption_t_per_t: 0.42 } });
     expect(potline!.rows.get('cell_voltage_v')!.line).toBe(3);
-    expect(tankhouse).toMatchObject({ id: 'tankhouse', kind: 'electrowinning', values: { metal: 'Cu', charge: 2 }, families: { reagent: { 'landfill-inert': 25 } } });
+    expect(tankhouse).toMatchObject({ id: 'tankhouse', kind: 'electrowinning', values: { metal: 'Cu', charge: 2, reagent: { 'landfill-inert': 25 } } });
   });
 
   it('reads a semicolon file with decimal commas', async () => {

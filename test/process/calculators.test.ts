@@ -101,7 +101,7 @@ describe('electrolysis-aluminium (Hall–Héroult)', () => {
 describe('electrowinning', () => {
   it('copper at 2.0 V and 92 %: 843.5 Ah/kg and about 1.83 kWh/kg', () => {
     // Field guide §4: z = 2, 843.5 Ah/kg Cu; 843.5 × 2.0 / 0.92 = 1 833.7 kWh/t (1.8–2.0 kWh/kg, common practice)
-    const result = electrowinning({ metal: 'Cu', charge: 2, cell_voltage_v: 2.0, current_efficiency: 0.92, reagents: { 'sulphuric-acid': 25 } });
+    const result = electrowinning({ metal: 'Cu', charge: 2, cell_voltage_v: 2.0, current_efficiency: 0.92, reagent: { 'sulphuric-acid': 25 } });
     expect(value(result, 'charge_ah_per_t') / 1000).toBeCloseTo(843.5, 1);
     expect(value(result, 'electricity_kwh_per_t')).toBeCloseTo(1833.7, 0);
     expect(result.inventory.map((f) => f.flow)).toEqual(['electricity', 'sulphuric-acid']);
@@ -109,7 +109,7 @@ describe('electrowinning', () => {
 
   it('zinc from Zn²⁺: 819.87 Ah/kg', () => {
     // 2 × 96 485.332 C/mol / 65.38 g/mol = 2 951.5 C/g = 2 951 500 C/kg; / 3600 s/h = 819.87 Ah/kg (Faraday's law, IUPAC atomic weight of Zn)
-    expect(value(electrowinning({ metal: 'Zn', charge: 2, cell_voltage_v: 3.3, current_efficiency: 0.9 }), 'charge_ah_per_t') / 1000).toBeCloseTo(819.87, 2);
+    expect(value(electrowinning({ metal: 'Zn', charge: 2, cell_voltage_v: 3.3, current_efficiency: 0.9, reagent: {} }), 'charge_ah_per_t') / 1000).toBeCloseTo(819.87, 2);
   });
 
   it.each([
@@ -119,7 +119,7 @@ describe('electrowinning', () => {
     [{ cell_voltage_v: -1 }, 'cell_voltage_v'],
     [{ current_efficiency: 1.2 }, 'current_efficiency'],
   ])('refuses %j', (change, parameter) => {
-    const result = electrowinning({ metal: 'Cu', charge: 2, cell_voltage_v: 2, current_efficiency: 0.9, ...change });
+    const result = electrowinning({ metal: 'Cu', charge: 2, cell_voltage_v: 2, current_efficiency: 0.9, reagent: {}, ...change });
     expect(result.steps).toEqual([]);
     expect(result.problems.map((p) => p.parameter)).toContain(parameter);
   });

@@ -1,5 +1,5 @@
 import { locate } from '../../load/json.ts';
-import { parameterSpec } from '../../schema/process-parameters.ts';
+import { parameterMeta } from '../../schema/process-kinds.ts';
 import { findIndicator } from '../../reference/indicators.ts';
 import { indicatorValue } from '../types.ts';
 import type { CheckContext } from './context.ts';
@@ -24,7 +24,7 @@ function usedFactors(ctx: CheckContext): Map<string, string> {
   for (const row of p.activities.rows) use(row.value.factor, `activities.csv line ${row.line}`);
   for (const row of p.site.rows) use(row.value.factor, `site.csv line ${row.line}`);
   for (const row of p.transport.rows) use(row.value.factor, `transport.csv line ${row.line}`);
-  for (const row of p.process.rows) if (parameterSpec(row.value.kind, row.value.parameter)?.type === 'factor') use(row.value.value, `process.csv line ${row.line}`);
+  for (const row of p.process.rows) if (parameterMeta(row.value.kind, row.value.parameter)?.type === 'factor') use(row.value.value, `process.csv line ${row.line}`);
   return used;
 }
 

@@ -1,5 +1,5 @@
 import { findGas, GHG_FACTOR_IDS, GHG_PREFIX } from '../../reference/ghg.ts';
-import { parameterSpec, PROCESS_PREFIX } from '../../schema/process-parameters.ts';
+import { parameterMeta, PROCESS_PREFIX } from '../../schema/process-kinds.ts';
 import { nearestName } from '../../reference/nearest.ts';
 import type { AnyTable, CheckContext } from './context.ts';
 import { MATERIAL_FACTOR_COLUMNS } from '../../schema/materials.ts';
@@ -34,7 +34,7 @@ export function references(ctx: CheckContext): void {
   }
   // The factor-id parameters of process.csv name rows of factors.csv.
   for (const row of p.process.rows) {
-    const type = parameterSpec(row.value.kind, row.value.parameter)?.type;
+    const type = parameterMeta(row.value.kind, row.value.parameter)?.type;
     if (type === 'factor') check(p.process, row, 'value', row.value.value, factorIds, 'factor_id in factors.csv');
     // A reagent is named by its factor id: reagent:<factor_id>.
     if (row.value.parameter.startsWith('reagent:')) check(p.process, row, 'parameter', row.value.parameter.slice('reagent:'.length), factorIds, 'factor_id in factors.csv');

@@ -1,5 +1,5 @@
 import { findGas, GHG_PREFIX } from '../../reference/ghg.ts';
-import { parameterSpec, PROCESS_PREFIX } from '../../schema/process-parameters.ts';
+import { parameterMeta, PROCESS_PREFIX } from '../../schema/process-kinds.ts';
 import { convertible, dimensionOf, unitsOf, type Dimension } from '../../reference/units.ts';
 import { type Table } from '../../schema/table.ts';
 import type { AnyTable, CheckContext } from './context.ts';
@@ -28,7 +28,7 @@ export function unitRules(ctx: CheckContext): void {
   for (const row of p.transport.rows) perUnitOf(p.transport, row, 'factor', row.value.factor, 'transport', 'a transport leg');
   // A process's electricity is in kWh, its materials in t or kg.
   for (const row of p.process.rows) {
-    if (parameterSpec(row.value.kind, row.value.parameter)?.type !== 'factor') continue;
+    if (parameterMeta(row.value.kind, row.value.parameter)?.type !== 'factor') continue;
     perUnitOf(p.process, row, 'value', row.value.value, row.value.parameter === 'electricity_factor' ? 'energy' : 'mass', `${row.value.parameter} of a process`);
   }
   for (const table of [p.activities, p.site] as Array<Table<{ factor: string; unit: string }>>) {
