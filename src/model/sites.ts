@@ -1,8 +1,9 @@
 import type { Problem } from '../problems.ts';
 import { nearestName } from '../reference/nearest.ts';
-import { readNumber, type Dialect } from '../schema/numbers.ts';
+import type { Dialect } from '../schema/numbers.ts';
+import { describeIssue } from '../schema/issues.ts';
 import { BUILT_IN_KEYS, type siteCsv } from '../schema/site.ts';
-import { productionCsv } from '../schema/production.ts';
+import { ownKeyCell, productionCsv } from '../schema/production.ts';
 import { columnsOf, type RowOf } from '../schema/csv-file.ts';
 import { cellProblem, type Row, type Table } from '../schema/table.ts';
 import type { Product } from './rows.ts';
@@ -122,14 +123,21 @@ export function readSites(site: Table<SiteRow>, production: Table<ProductionRow>
       }
       const values = new Map<string, number>();
       let readable = true;
+      const ownKey = (BUILT_IN_KEYS as readonly string[]).includes(name) ? undefined : ownKeyCell(dialect, name);
       for (const p of group.production) {
-        const value = keyValue(name, p, productById.get(p.value.product_id)?.value, dialect);
-        if (typeof value === 'string') {
-          readable = false;
-          at(production, p, name, 'error', value === '' ? 'VALUE_REQUIRED' : 'NOT_A_NUMBER', value === '' ? `is empty, but site.csv line ${row.line} shares by ${name}` : `is not a non-negative number, but site.csv line ${row.line} shares by ${name}`, { expected: `a non-negative number: the product’s ${name} in ${group.period}` });
-          continue;
-        }
-        if (value !== undefined) values.set(p.value.product_id, value);
+        const product = productById.get(p.value.product_id)?.value;
+        if (ownKey) {
+          const parsed = ownKey.safeParse(p.raw[name]);
+          if (!parsed.success) {
+            readable = false;
+            const issue = describeIssue(parsed.error.issues[0]!);
+            at(production, p, name, 'error', issue.code, `${issue.message}, but site.csv line ${row.line} shares by ${name}`, { expected: `a non-negative number: the product’s ${name} in ${group.period}` });
+            continue;
+          }
+          values.set(p.value.product_id, parsed.data);
+        } else if (name === 'declared_unit') values.set(p.value.product_id, p.value.output);
+        // By mass: output × unit mass; a product unknown to products.csv is reported by the reference checks.
+        else if (product) values.set(p.value.product_id, p.value.output * product.unit_mass_kg);
       }
       if (!readable) continue;
       const total = [...values.values()].reduce((sum, value) => sum + value, 0);
@@ -163,19 +171,5 @@ export function readSites(site: Table<SiteRow>, production: Table<ProductionRow>
   return { allocation: { groups: [...groups.values()], byProduct }, problems };
 }
 
-
 /** The allocation key a site row names (mass when empty). */
 export const allocationOf = (row: Row<SiteRow>): string => (row.value.allocation ?? '').trim() || 'mass';
-
-/**
- * A product's key: a number, undefined when its product is unknown (reported elsewhere), or
- * the cell as written when a custom key cell is not a number.
- */
-function keyValue(name: string, p: Row<ProductionRow>, product: Product | undefined, dialect: Dialect): number | string | undefined {
-  if (name === 'declared_unit') return p.value.output;
-  if (name === 'mass') return product === undefined ? undefined : p.value.output * product.unit_mass_kg;
-  const written = (p.raw[name] ?? '').trim();
-  if (written === '') return '';
-  const read = readNumber(written, dialect);
-  return read.ok && read.value >= 0 ? read.value : written;
-}

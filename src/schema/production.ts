@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { id, quantity, reference, requiredText, text } from './cells.ts';
 import { defineCsv } from './csv-file.ts';
+import type { Dialect } from './numbers.ts';
 
 /**
  * production.csv (optional): each product's output at a site in a period, the base of the
@@ -28,3 +29,10 @@ export const productionCsv = defineCsv({
     source: 'Production records 2025 (illustrative)',
   },
 });
+
+/**
+ * A production.csv column of your own that a site.csv row names as its allocation key: each
+ * product's key in the period, a non-negative number (empty is refused: a product that
+ * takes no share writes 0).
+ */
+export const ownKeyCell = (dialect: Dialect, column: string) => quantity(dialect, `The product’s ${column} in the period, an allocation key of your own.`, `the unit of ${column}`);
