@@ -73,11 +73,8 @@ function shareFigure(ctx: CalcContext, graph: FigureGraph, a: AllocatedRow): str
   return shareId;
 }
 
-const productRows = new WeakMap<object, Map<string, Row<Product>>>();
 function productRow(ctx: CalcContext, id: string): Row<Product> {
-  let rows = productRows.get(ctx.project);
-  if (!rows) productRows.set(ctx.project, (rows = new Map(ctx.project.products.rows.map((row) => [row.value.product_id, row]))));
-  const row = rows.get(id);
+  const row = ctx.project.lookups.products.get(id);
   if (!row) throw new Error(`product ${id} not in the validated project`);
   return row;
 }

@@ -11,6 +11,7 @@ import { processReference } from '../process/references.ts';
 import { PROCESS_PREFIX } from '../schema/process-kinds.ts';
 import { processStep, referenceStep } from '../trace/ids.ts';
 import type { Vec } from './vector.ts';
+import { eolRowFor } from '../model/lookups.ts';
 
 /** A factor resolved to an indicator vector, per one unit of `unit`. */
 export interface ResolvedFactor {
@@ -35,20 +36,11 @@ export class CalcContext {
   readonly flowIndicators: string[];
   readonly gwpSet: GwpSet;
   private readonly factors = new Map<string, ResolvedFactor>();
-  private readonly materials: Map<string, Row<Material>>;
-  private readonly scenarios = new Map<string, Map<string, Row<EolRow>>>();
-  private readonly factorRows: Map<string, Row<FactorRow>>;
 
   constructor(readonly project: Project) {
     this.indicators = project.indicators.filter((code) => findIndicator(code)?.basis === 'factors');
     this.flowIndicators = project.indicators.filter((code) => findIndicator(code)?.basis === 'flows');
     this.gwpSet = project.declaration.gwp_set;
-    this.materials = new Map(project.materials.rows.map((row) => [row.value.material, row]));
-    for (const row of project.eol.rows) {
-      if (!this.scenarios.has(row.value.scenario)) this.scenarios.set(row.value.scenario, new Map());
-      this.scenarios.get(row.value.scenario)!.set(row.value.material, row);
-    }
-    this.factorRows = new Map(project.factors.rows.map((row) => [row.value.factor_id, row]));
   }
 
   get length(): number {
@@ -56,15 +48,14 @@ export class CalcContext {
   }
 
   material(id: string): Row<Material> {
-    const row = this.materials.get(id);
+    const row = this.project.lookups.materials.get(id);
     if (!row) throw new Error(`material ${id} not in the validated project`);
     return row;
   }
 
   /** The scenario row for a material: its own, else `*` (validation guarantees one). */
   eolRow(scenario: string, material: string): Row<EolRow> {
-    const rows = this.scenarios.get(scenario);
-    const row = rows?.get(material) ?? rows?.get('*');
+    const row = eolRowFor(this.project.lookups, scenario, material);
     if (!row) throw new Error(`no eol.csv row for ${scenario}/${material}`);
     return row;
   }
@@ -80,13 +71,13 @@ export class CalcContext {
 
   /** A factors.csv row by id (validation guarantees every id the project uses). */
   factorRow(id: string): Row<FactorRow> {
-    const row = this.factorRows.get(id);
+    const row = this.project.lookups.factors.get(id);
     if (!row) throw new Error(`factor ${id} not in the validated project`);
     return row;
   }
 
   private tableFactor(id: string): ResolvedFactor {
-    const row = this.factorRows.get(id);
+    const row = this.project.lookups.factors.get(id);
     if (!row) throw new Error(`factor ${id} not in the validated project`);
     const values: Vec = this.indicators.map((code) => indicatorValue(row.value, code) ?? Number.NaN);
     const ref = { file: this.project.factors.file, line: row.line, factorId: id, raw: row.raw };
@@ -135,7 +126,7 @@ export class CalcContext {
    */
   private processFactor(id: string): ResolvedFactor {
     const processId = id.slice(PROCESS_PREFIX.length);
-    const definition = this.project.processes.find((process) => process.id === processId);
+    const definition = this.project.lookups.processes.get(processId);
     if (!definition) throw new Error(`process ${processId} not in the validated project`);
     const { result } = definition;
     const flows = result.inventory.map((flow) => {
@@ -194,7 +185,7 @@ export class CalcContext {
    * electricity, kg of alumina, kg of CO2 as ghg:CO2): the process factor is Σ perKg × F.
    */
   processFlows(id: string): Array<{ factor: string; perKg: number }> {
-    const definition = this.project.processes.find((process) => `${PROCESS_PREFIX}${process.id}` === id);
+    const definition = this.project.lookups.processes.get(id.slice(PROCESS_PREFIX.length));
     if (!definition) throw new Error(`process ${id} not in the validated project`);
     return definition.result.inventory.map((flow) => {
       const factorId = flowFactor(definition, flow.flow).factor!;

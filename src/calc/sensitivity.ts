@@ -74,41 +74,27 @@ export function productSensitivity(ctx: CalcContext, result: ProductResult, step
 
 /** A reader's name for an input: the factor id, or the row's own words. */
 function labeller(project: Project): (c: InputContribution) => string {
-  let tables = labelTables.get(project);
-  if (!tables) {
-    const byLine = <T>(rows: ReadonlyArray<{ line: number; value: T }>) => new Map(rows.map((row) => [row.line, row.value]));
-    tables = { bom: byLine(project.bom.rows), activities: byLine(project.activities.rows), transport: byLine(project.transport.rows), site: byLine(project.site.rows) };
-    labelTables.set(project, tables);
-  }
-  const { bom, activities, transport, site } = tables;
+  const { bom, activities, transport, site } = project.lookups.byLine;
   return (c) => {
     switch (c.kind) {
       case 'factor':
         return `factor ${c.factor}`;
       case 'bom': {
-        const b = bom.get(c.line);
+        const b = bom.get(c.line)?.value;
         return b ? `${b.line_id} ${b.component}, mass` : `bom.csv line ${c.line}`;
       }
       case 'activity': {
-        const a = activities.get(c.line);
+        const a = activities.get(c.line)?.value;
         return a ? `${a.activity}, amount` : `activities.csv line ${c.line}`;
       }
       case 'transport': {
-        const t = transport.get(c.line);
+        const t = transport.get(c.line)?.value;
         return t ? `${t.leg}, distance` : `transport.csv line ${c.line}`;
       }
       case 'site': {
-        const s = site.get(c.line);
+        const s = site.get(c.line)?.value;
         return s ? `${s.activity} (${s.site_id}), amount` : `site.csv line ${c.line}`;
       }
     }
   };
 }
-
-type LabelTables = {
-  bom: Map<number, Project['bom']['rows'][number]['value']>;
-  activities: Map<number, Project['activities']['rows'][number]['value']>;
-  transport: Map<number, Project['transport']['rows'][number]['value']>;
-  site: Map<number, Project['site']['rows'][number]['value']>;
-};
-const labelTables = new WeakMap<Project, LabelTables>();

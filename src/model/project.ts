@@ -18,6 +18,7 @@ import { crossFileChecks } from './checks/index.ts';
 
 export * from './types.ts';
 import type { Project } from './types.ts';
+import { projectLookups } from './lookups.ts';
 
 export interface ProjectLoad {
   /** Present when the project has no errors (warnings allowed). */
@@ -97,7 +98,9 @@ export async function loadProject(dirArgument: string): Promise<ProjectLoad> {
   const indicators = declaration?.indicators ? inReportingOrder(declaration.indicators) : inReportingOrder([...factorIndicators, ...flowIndicators]);
 
   if (products && bom && materials && eol && activities && transport && factors && process && processRead && site && production && sitesRead && familyRows && familiesRead) {
-    const tables = { dir, indicators, factorIndicators, products, bom, materials, eol, activities, transport, factors, process, processes: processRead.processes, site, production, allocation: sitesRead.allocation, familyRows, families: familiesRead.families };
+    const processes = processRead.processes;
+    const lookups = projectLookups({ products, materials, eol, factors, process, processes, bom, activities, transport, site });
+    const tables = { dir, indicators, factorIndicators, products, bom, materials, eol, activities, transport, factors, process, processes, site, production, allocation: sitesRead.allocation, familyRows, families: familiesRead.families, lookups };
     // Cross-file rules run even when declaration.json is broken, so one run shows every problem.
     problems.push(...crossFileChecks({ ...tables, declaration, declarationFile }));
     const sorted = sortProblems(problems);

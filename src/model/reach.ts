@@ -2,7 +2,7 @@ import { flowFactor } from '../process/run.ts';
 import { MATERIAL_FACTOR_COLUMNS } from '../schema/materials.ts';
 import { PROCESS_PREFIX } from '../schema/process-kinds.ts';
 import type { Row, Table } from '../schema/table.ts';
-import { groupBy, type ProductRows } from './by-product.ts';
+import type { ProductRows } from './by-product.ts';
 import type { Product, Project } from './types.ts';
 
 /**
@@ -26,34 +26,6 @@ export interface ReachedRows {
   familyRows: Project['familyRows']['rows'];
 }
 
-/**
- * Lookups of the project's rows by id, built once per project: without them each product
- * would filter whole tables, and the products table once per product is quadratic in the
- * catalogue (10 000 products: 10⁸ comparisons per pass).
- */
-interface ReachIndex {
-  scenarios: Map<string, Project['eol']['rows']>;
-  materials: Map<string, Project['materials']['rows'][number]>;
-  factors: Map<string, Project['factors']['rows'][number]>;
-  processRows: Map<string, Project['process']['rows']>;
-  products: Map<string, Row<Product>>;
-}
-const indexes = new WeakMap<Project, ReachIndex>();
-function reachIndex(project: Project): ReachIndex {
-  let index = indexes.get(project);
-  if (!index) {
-    index = {
-      scenarios: groupBy(project.eol.rows, (row) => row.value.scenario),
-      materials: new Map(project.materials.rows.map((row) => [row.value.material, row])),
-      factors: new Map(project.factors.rows.map((row) => [row.value.factor_id, row])),
-      processRows: groupBy(project.process.rows, (row) => row.value.process_id),
-      products: new Map(project.products.rows.map((row) => [row.value.product_id, row])),
-    };
-    indexes.set(project, index);
-  }
-  return index;
-}
-
 /** Rows found by id, in the order of their file (as a filter over the table would give them). */
 function inFileOrder<T extends { line: number }>(rows: Iterable<T | undefined>): T[] {
   return [...new Set([...rows].filter((row): row is T => row !== undefined))].sort((a, b) => a.line - b.line);
@@ -61,7 +33,7 @@ function inFileOrder<T extends { line: number }>(rows: Iterable<T | undefined>):
 
 /** The rows of other files a product reads and its page shows beside its own. */
 export function reachedRows(project: Project, rows: ProductRows): ReachedRows {
-  const index = reachIndex(project);
+  const index = project.lookups;
   const eolRows = index.scenarios.get(rows.product.value.eol_scenario) ?? [];
   const materials = inFileOrder([...new Set(rows.bom.map((row) => row.value.material))].map((id) => index.materials.get(id)));
   const factorIds = new Set<string>();
@@ -100,7 +72,7 @@ export function inputTables(project: Project): Map<string, Table<unknown>> {
  * row would stop the build rather than keep a stale product.
  */
 export function productReach(project: Project, rows: ProductRows): Map<string, Set<number>> {
-  const index = reachIndex(project);
+  const index = project.lookups;
   const byFile = new Map<string, Set<number>>();
   const addRows = (table: Table<unknown>, list: ReadonlyArray<{ line: number }>) => {
     let lines = byFile.get(table.file);
@@ -129,7 +101,7 @@ export function productReach(project: Project, rows: ProductRows): Map<string, S
     const processId = pending.pop()!.slice(PROCESS_PREFIX.length);
     if (seen.has(processId)) continue;
     seen.add(processId);
-    const definition = project.processes.find((process) => process.id === processId);
+    const definition = index.processes.get(processId);
     if (!definition) continue;
     addRows(project.process, [...definition.rows.values()]);
     const flowFactors = new Set(definition.result.inventory.map((flow) => flowFactor(definition, flow.flow).factor).filter((id) => id !== undefined));

@@ -5,6 +5,7 @@ import type { Table } from '../schema/table.ts';
 import type { ProcessDefinition, ProcessRow } from './processes.ts';
 import type { ProductionRow, SiteAllocation, SiteRow } from './sites.ts';
 import type { Family, FamilyRow } from './families.ts';
+import type { ProjectLookups } from './lookups.ts';
 
 // The row types live in rows.ts (sites.ts and families.ts use them without importing this file back).
 export type { Product, BomLine, Material, EolRow, Activity, TransportLeg, FactorRow } from './rows.ts';
@@ -42,4 +43,6 @@ export interface Project {
   familyRows: Table<FamilyRow>;
   /** Its families, members weighted. */
   families: Family[];
+  /** Rows by id, built once (src/model/lookups.ts). */
+  lookups: ProjectLookups;
 }

@@ -1,4 +1,4 @@
-import { formatFixed, formatSignificant } from '../format.ts';
+import { formatFixed, formatScientific } from '../format.ts';
 import type { Family, WeightCell } from '../model/families.ts';
 import type { IndicatorValues, ResultsSummary } from './results.ts';
 import { textCell } from './results-csv.ts';
@@ -137,7 +137,7 @@ function memberValues(s: ResultsSummary): Record<string, Record<string, Indicato
 export function familyWarnings(results: FamilyResults): string[] {
   return results.members
     .filter((m) => m.outside_tolerance)
-    .map((m) => `family ${results.family_id}: ${m.product_id} GWP-total A1-A3 ${formatSignificant(m.gwp_a1_a3!, 3)} lies ${formatFixed(Math.abs(m.deviation!) * 100, 1)} % ${m.deviation! > 0 ? 'above' : 'below'} the family’s weighted average ${formatSignificant(results.methods.cutoff.modules[HEADLINE.module]![HEADLINE.indicator]!.mean!, 3)} (tolerance ${formatFixed(results.tolerance * 100, 0)} %, declaration.json report.family_tolerance); consider declaring it apart`);
+    .map((m) => `family ${results.family_id}: ${m.product_id} GWP-total A1-A3 ${formatScientific(m.gwp_a1_a3!)} lies ${formatFixed(Math.abs(m.deviation!) * 100, 1)} % ${m.deviation! > 0 ? 'above' : 'below'} the family’s weighted average ${formatScientific(results.methods.cutoff.modules[HEADLINE.module]![HEADLINE.indicator]!.mean!)} (tolerance ${formatFixed(results.tolerance * 100, 0)} %, declaration.json report.family_tolerance); consider declaring it apart`);
 }
 
 /** One CSV row per family × method × module × indicator: mean, min and max with their members. */

@@ -5,6 +5,7 @@ import { rowsByProduct, type ProductRows } from '../../src/model/by-product.ts';
 import { loadProject, type Project } from '../../src/model/project.ts';
 import { productSensitivity } from '../../src/calc/sensitivity.ts';
 import { DEMO } from '../helpers.ts';
+import { projectLookups } from '../../src/model/lookups.ts';
 
 /**
  * One-at-a-time sensitivity checked by doing it: every input of every demo product's top-ten
@@ -27,7 +28,9 @@ function scaled(p: Project, rows: ProductRows, input: { kind: string; file: stri
       const factors = p.factors.rows.map((row) =>
         row.line === input.line ? { ...row, value: Object.fromEntries(Object.entries(row.value).map(([key, v]) => [key, codes.has(key) && typeof v === 'number' ? v * k : v])) as typeof row.value } : row,
       );
-      return { project: { ...p, factors: { ...p.factors, rows: factors } }, rows };
+      const table = { ...p.factors, rows: factors };
+      // The lookups are built from the tables once, so a changed table needs its own.
+      return { project: { ...p, factors: table, lookups: projectLookups({ ...p, factors: table }) }, rows };
     }
     case 'bom':
       return { project: p, rows: { ...rows, bom: scale(rows.bom, 'mass_kg') } };

@@ -1,13 +1,14 @@
 import type { Problem, ProblemCode, Severity } from '../../problems.ts';
 import { cellProblem, type Row, type Table } from '../../schema/table.ts';
-import type { BomLine, EolRow, FactorRow, Material, Product, Project } from '../types.ts';
+import type { BomLine, EolRow, FactorRow, Material, Project } from '../types.ts';
+import { eolRowFor } from '../lookups.ts';
 
 /** The tables, and the declaration when it parsed. */
 export type CheckInput = Omit<Project, 'declaration' | 'declarationFile' | 'declarationCells'> & Partial<Pick<Project, 'declaration' | 'declarationFile'>>;
 
 export type AnyTable = Table<unknown>;
 
-/** What every rule reads: the project's tables, lookups built once, and where problems go. */
+/** What every rule reads: the project's tables, its lookups (built once, src/model/lookups.ts), and where problems go. */
 export class CheckContext {
   constructor(
     readonly project: CheckInput,
@@ -30,36 +31,16 @@ export class CheckContext {
   }
 
   factor(id: string | undefined): Row<FactorRow> | undefined {
-    return id === undefined ? undefined : this.factorIndex().get(id);
+    return id === undefined ? undefined : this.project.lookups.factors.get(id);
   }
-
-  private factorsById: Map<string, Row<FactorRow>> | undefined;
-  factorIndex(): Map<string, Row<FactorRow>> {
-    this.factorsById ??= new Map(this.project.factors.rows.map((row) => [row.value.factor_id, row]));
-    return this.factorsById;
-  }
-
-  private scenarioRows: Map<string, Map<string, Row<EolRow>>> | undefined;
-  private productsById: Map<string, Row<Product>> | undefined;
 
   /** The end-of-life row that applies to a BOM line: its product's scenario, its material's row, else `*`. */
   eolRowOf(line: BomLine): Row<EolRow> | undefined {
-    if (!this.scenarioRows) {
-      this.scenarioRows = new Map();
-      for (const row of this.project.eol.rows) {
-        if (!this.scenarioRows.has(row.value.scenario)) this.scenarioRows.set(row.value.scenario, new Map());
-        this.scenarioRows.get(row.value.scenario)!.set(row.value.material, row);
-      }
-    }
-    this.productsById ??= new Map(this.project.products.rows.map((row) => [row.value.product_id, row]));
-    const product = this.productsById.get(line.product_id);
-    const scenario = product && this.scenarioRows.get(product.value.eol_scenario);
-    return scenario?.get(line.material) ?? scenario?.get('*');
+    const product = this.project.lookups.products.get(line.product_id);
+    return product && eolRowFor(this.project.lookups, product.value.eol_scenario, line.material);
   }
 
-  private materialsById: Map<string, Row<Material>> | undefined;
   material(id: string): Row<Material> | undefined {
-    this.materialsById ??= new Map(this.project.materials.rows.map((row) => [row.value.material, row]));
-    return this.materialsById.get(id);
+    return this.project.lookups.materials.get(id);
   }
 }
