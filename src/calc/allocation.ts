@@ -21,21 +21,21 @@ export function siteFigures(ctx: CalcContext, graph: FigureGraph, module: string
   const site = ctx.project.site;
   return allocated
     .filter((a) => a.row.value.module === module)
-    .map((a) => {
-      const s = a.row.value;
-      const f = factor(s.factor);
-      const conversion = conversionTerm(graph, s.unit, f.unit);
-      const share = shareFigure(ctx, graph, a);
-      const perUnit = (s.amount * a.share) / a.production.value.output;
-      const id = cutoffStep.site(module, a.row.line);
-      useFactor(graph, id, s.factor, perUnit * conversion.factor, [[driver(site.file, a.row.line, 'amount')]]);
-      vectorFigure(graph, id, scaled(f.values, perUnit * conversion.factor), `amount·share/output${conversion.terms.length ? '·(unit→factor unit)' : ''}·F`, `${s.activity}: ${a.group.site}, ${a.group.period}, shared by ${a.key.name}.`, [
-        cellTerm(ctx.cell(site, a.row, 'amount'), 'amount'),
-        cellTerm(ctx.cell(site, a.row, 'unit'), 'unit'),
+    .map((shared) => {
+      const siteRow = shared.row.value;
+      const resolved = factor(siteRow.factor);
+      const conversion = conversionTerm(graph, siteRow.unit, resolved.unit);
+      const share = shareFigure(ctx, graph, shared);
+      const perUnit = (siteRow.amount * shared.share) / shared.production.value.output;
+      const id = cutoffStep.site(module, shared.row.line);
+      useFactor(graph, id, siteRow.factor, perUnit * conversion.factor, [[driver(site.file, shared.row.line, 'amount')]]);
+      vectorFigure(graph, id, scaled(resolved.values, perUnit * conversion.factor), `amount·share/output${conversion.terms.length ? '·(unit→factor unit)' : ''}·F`, `${siteRow.activity}: ${shared.group.site}, ${shared.group.period}, shared by ${shared.key.name}.`, [
+        cellTerm(ctx.cell(site, shared.row, 'amount'), 'amount'),
+        cellTerm(ctx.cell(site, shared.row, 'unit'), 'unit'),
         figureTerm(share, 'share'),
-        cellTerm(ctx.cell(ctx.project.production, a.production, 'output'), 'output'),
+        cellTerm(ctx.cell(ctx.project.production, shared.production, 'output'), 'output'),
         ...conversion.terms,
-        f.term('F'),
+        resolved.term('F'),
       ]);
       return id;
     });

@@ -57,10 +57,10 @@ export function cffSharedParts(ctx: CalcContext, graph: FigureGraph, inv: Invent
   const energyIds: string[] = [];
   const disposalIds: string[] = [];
   for (const line of inv.productLines) {
-    const m = eolOf.get(line.line.material);
-    if (!m) continue;
-    energyIds.push(...energyPart(ctx, graph, line, m, factor));
-    disposalIds.push(disposalPart(ctx, graph, line, m, factor));
+    const materialEol = eolOf.get(line.line.material);
+    if (!materialEol) continue;
+    energyIds.push(...energyPart(ctx, graph, line, materialEol, factor));
+    disposalIds.push(disposalPart(ctx, graph, line, materialEol, factor));
   }
   const energy = sumFigure(graph, methodStep.part('cff', 'energy'), energyIds, 'Σ lines (1−B)·R3·M·(EER − LHV·X_heat·E_heat − LHV·X_el·E_el), B = 0', 'Energy part: incineration with energy recovery, minus the energy it replaces; it does not depend on A, so the CFF, 0:100 and 50:50 share it.');
   const disposal = sumFigure(graph, methodStep.part('cff', 'disposal'), disposalIds, 'Σ lines M·(1 − R2 − R3 − reuse)·ED', 'Disposal part: what is neither recycled, re-used nor recovered for energy; it does not depend on A, so the CFF, 0:100 and 50:50 share it.');
@@ -97,15 +97,15 @@ export function circularFootprint(ctx: CalcContext, graph: FigureGraph, inv: Inv
       addScaled(values, ev.values, line.grossKg * line.r1 * (1 - a) * material.q_in);
       terms.push(erec.term('Erec'), cellTerm(ctx.cell(ctx.project.materials, line.material, 'q_in'), 'Qsin/Qp'));
     }
-    const m = line.line.role === 'product' ? eolOf.get(line.line.material) : undefined;
+    const materialEol = line.line.role === 'product' ? eolOf.get(line.line.material) : undefined;
     let formula = 'G·[(1−R1)·Ev + R1·(A·Erec + (1−A)·Ev·Qsin/Qp)]';
-    if (m) {
-      const e = m.eol.value;
-      const eolCell = (column: string) => cellTerm(ctx.cell(ctx.project.eol, m.eol, column), column);
-      const r2 = e.recycling * e.recycling_yield;
+    if (materialEol) {
+      const eol = materialEol.eol.value;
+      const eolCell = (column: string) => cellTerm(ctx.cell(ctx.project.eol, materialEol.eol, column), column);
+      const r2 = eol.recycling * eol.recycling_yield;
       // Process scrap sent to recycling earns the same end-of-life term as the product (rule in DEVELOPERS.md).
       const scrapKg = line.line.scrap_fate === 'recycled' ? line.scrapKg : 0;
-      const recycledOutKg = line.line.mass_kg * r2 + scrapKg * e.recycling_yield;
+      const recycledOutKg = line.line.mass_kg * r2 + scrapKg * eol.recycling_yield;
       if (recycledOutKg > 0 && a < 1) {
         const recycling = factor(material.eol_recycling!);
         const substituted = factor(material.substituted ?? material.virgin);
@@ -148,14 +148,14 @@ function sharedPart(graph: FigureGraph, method: CffMethod, part: 'energy' | 'dis
   return sumFigure(graph, methodStep.part(method, part), [sharedId], `${part} = cff ${part}`, `The ${part} part of the Circular Footprint Formula, which does not depend on A: the same for every method.`, () => 'cff').id;
 }
 
-function energyPart(ctx: CalcContext, graph: FigureGraph, line: LineFlows, m: MaterialEol, factor: (id: string) => ResolvedFactor): string[] {
-  const e = m.eol.value;
+function energyPart(ctx: CalcContext, graph: FigureGraph, line: LineFlows, materialEol: MaterialEol, factor: (id: string) => ResolvedFactor): string[] {
+  const eol = materialEol.eol.value;
   const material = line.material.value;
-  if (e.energy_recovery <= 0 || !material.incineration) return [];
-  const massKg = line.line.mass_kg * e.energy_recovery;
+  if (eol.energy_recovery <= 0 || !material.incineration) return [];
+  const massKg = line.line.mass_kg * eol.energy_recovery;
   const eer = factor(material.incineration);
   const values = scaled(eer.values, massKg);
-  const eolCell = cellTerm(ctx.cell(ctx.project.eol, m.eol, 'energy_recovery'), 'R3');
+  const eolCell = cellTerm(ctx.cell(ctx.project.eol, materialEol.eol, 'energy_recovery'), 'R3');
   const terms: Term[] = [cellTerm(ctx.cell(ctx.project.bom, line.row, 'mass_kg'), 'M'), eolCell, eer.term('EER')];
   const energy = ctx.project.declaration.energy_recovery;
   const lhv = material.lhv_mj_per_kg;
@@ -187,13 +187,13 @@ function energyPart(ctx: CalcContext, graph: FigureGraph, line: LineFlows, m: Ma
  * recovery, that share is charged at the incineration factor and the rest at ED (landfill);
  * with no such share this is the formula as published.
  */
-function disposalPart(ctx: CalcContext, graph: FigureGraph, line: LineFlows, m: MaterialEol, factor: (id: string) => ResolvedFactor): string {
-  const e = m.eol.value;
+function disposalPart(ctx: CalcContext, graph: FigureGraph, line: LineFlows, materialEol: MaterialEol, factor: (id: string) => ResolvedFactor): string {
+  const eol = materialEol.eol.value;
   const material = line.material.value;
-  const r2 = e.recycling * e.recycling_yield;
-  const landfillShare = 1 - r2 - e.energy_recovery - e.reuse - e.incineration;
+  const r2 = eol.recycling * eol.recycling_yield;
+  const landfillShare = 1 - r2 - eol.energy_recovery - eol.reuse - eol.incineration;
   const values = zeros(ctx.length);
-  const eolCell = (column: string, symbol: string) => cellTerm(ctx.cell(ctx.project.eol, m.eol, column), symbol);
+  const eolCell = (column: string, symbol: string) => cellTerm(ctx.cell(ctx.project.eol, materialEol.eol, column), symbol);
   const terms: Term[] = [cellTerm(ctx.cell(ctx.project.bom, line.row, 'mass_kg'), 'M'), eolCell('recycling', 'recycling'), eolCell('recycling_yield', 'yield'), eolCell('energy_recovery', 'R3'), eolCell('reuse', 'reuse')];
   if (landfillShare > 1e-12) {
     if (material.landfill) {
@@ -205,9 +205,9 @@ function disposalPart(ctx: CalcContext, graph: FigureGraph, line: LineFlows, m: 
       values.fill(Number.NaN);
     }
   }
-  if (e.incineration > 0) {
+  if (eol.incineration > 0) {
     const inc = factor(material.incineration!);
-    addScaled(values, inc.values, line.line.mass_kg * e.incineration);
+    addScaled(values, inc.values, line.line.mass_kg * eol.incineration);
     terms.push(eolCell('incineration', 'incineration'), inc.term('E_inc'));
   }
   const id = methodStep.line('cff', 'disposal', line.key);

@@ -48,11 +48,11 @@ function openProcesses(ctx: CalcContext, graph: FigureGraph, modules: readonly s
 export function factorContributions(ctx: CalcContext, graph: FigureGraph, modules: readonly string[]): FactorContribution[] {
   const byFactor = new Map<string, FactorContribution>();
   for (const use of expandedUses(ctx, graph, modules)) {
-    const f = ctx.factor(use.factor);
+    const resolved = ctx.factor(use.factor);
     let entry = byFactor.get(use.factor);
-    if (!entry) byFactor.set(use.factor, (entry = { factor: use.factor, amount: 0, values: f.values.map(() => 0), inputs: [] }));
+    if (!entry) byFactor.set(use.factor, (entry = { factor: use.factor, amount: 0, values: resolved.values.map(() => 0), inputs: [] }));
     entry.amount += use.amount;
-    f.values.forEach((value, i) => (entry.values[i]! += use.amount * value));
+    resolved.values.forEach((value, i) => (entry.values[i]! += use.amount * value));
     if (use.input && !entry.inputs.some((i) => i.file === use.input!.file && i.line === use.input!.line)) entry.inputs.push(use.input);
   }
   return [...byFactor.values()];
@@ -83,20 +83,20 @@ const KIND: Record<string, InputContribution['kind']> = { 'bom.csv': 'bom', 'act
  */
 export function inputContributions(ctx: CalcContext, graph: FigureGraph, modules: readonly string[]): InputContribution[] {
   const byKey = new Map<string, InputContribution>();
-  const K = ctx.length;
+  const indicatorCount = ctx.length;
   const add = (key: string, make: () => Omit<InputContribution, 'values'>, amount: number, values: Vec) => {
     let entry = byKey.get(key);
-    if (!entry) byKey.set(key, (entry = { ...make(), values: new Array<number>(K).fill(0) }));
-    for (let i = 0; i < K; i++) entry.values[i]! += amount * values[i]!;
+    if (!entry) byKey.set(key, (entry = { ...make(), values: new Array<number>(indicatorCount).fill(0) }));
+    for (let i = 0; i < indicatorCount; i++) entry.values[i]! += amount * values[i]!;
   };
   for (const use of expandedUses(ctx, graph, modules)) {
-    const f = ctx.factor(use.factor);
+    const resolved = ctx.factor(use.factor);
     if (!findGas(use.factor)) {
       const row = ctx.factorRow(use.factor);
-      add(`factors.csv:${row.line}`, () => ({ kind: 'factor', file: ctx.project.factors.file, line: row.line, column: '', factor: use.factor }), use.amount, f.values);
+      add(`factors.csv:${row.line}`, () => ({ kind: 'factor', file: ctx.project.factors.file, line: row.line, column: '', factor: use.factor }), use.amount, resolved.values);
     }
     for (const group of use.drivers) {
-      for (const d of group) add(`${d.file}:${d.line}:${d.column}`, () => ({ kind: KIND[d.file] ?? 'bom', file: d.file, line: d.line, column: d.column }), use.amount * d.share, f.values);
+      for (const driver of group) add(`${driver.file}:${driver.line}:${driver.column}`, () => ({ kind: KIND[driver.file] ?? 'bom', file: driver.file, line: driver.line, column: driver.column }), use.amount * driver.share, resolved.values);
     }
   }
   return [...byKey.values()];

@@ -40,7 +40,7 @@ export type CutoffRows = Pick<ProductRows, 'activities' | 'transport' | 'site'>;
  * net benefit of recycling is reported in module D beside the A–C modules.
  */
 export function cutoff(ctx: CalcContext, graph: FigureGraph, inv: Inventory, rows: CutoffRows): CutoffResult {
-  const K = ctx.length;
+  const indicatorCount = ctx.length;
   const factor = (id: string): ResolvedFactor => {
     const resolved = ctx.factor(id);
     resolved.ensure(graph);
@@ -69,10 +69,10 @@ export function cutoff(ctx: CalcContext, graph: FigureGraph, inv: Inventory, row
     if (line.scrapKg <= 0 || fate === 'recycled') continue;
     const material = line.material.value;
     const factorId = fate === 'landfill' ? material.landfill! : material.incineration!;
-    const f = factor(factorId);
+    const resolved = factor(factorId);
     const id = cutoffStep.scrapDisposal(line.line.line_id);
     useFactor(graph, id, factorId, line.scrapKg, [[bomMass(line)]]);
-    vectorFigure(graph, id, scaled(f.values, line.scrapKg), `scrap·${fate === 'landfill' ? 'ED' : 'E_inc'}`, `Treatment of the process scrap of ${line.line.component} (${fate}).`, [figureTerm(line.ids.scrap, 'scrap'), f.term(fate === 'landfill' ? 'ED' : 'E_inc')]);
+    vectorFigure(graph, id, scaled(resolved.values, line.scrapKg), `scrap·${fate === 'landfill' ? 'ED' : 'E_inc'}`, `Treatment of the process scrap of ${line.line.component} (${fate}).`, [figureTerm(line.ids.scrap, 'scrap'), resolved.term(fate === 'landfill' ? 'ED' : 'E_inc')]);
     scrapIds.push(id);
   }
   const a3Scrap = sumFigure(graph, cutoffStep.part('A3', 'scrap-disposal'), scrapIds, 'Σ scrap to landfill·ED + scrap to incineration·E_inc', 'Process scrap that is disposed of; scrap sent to recycling leaves free of burden (reported as MFR).');
@@ -94,66 +94,66 @@ export function cutoff(ctx: CalcContext, graph: FigureGraph, inv: Inventory, row
   const c3EnergyIds: string[] = [];
   const c4Ids: string[] = [];
   const dIds: string[] = [];
-  for (const m of inv.materials) {
-    const e = m.eol.value;
-    const eolCell = (column: string) => cellTerm(ctx.cell(ctx.project.eol, m.eol, column), column);
-    const M = figureTerm(m.ids.mass, 'M_eol');
+  for (const materialEol of inv.materials) {
+    const eol = materialEol.eol.value;
+    const eolCell = (column: string) => cellTerm(ctx.cell(ctx.project.eol, materialEol.eol, column), column);
+    const massTerm = figureTerm(materialEol.ids.mass, 'M_eol');
     // End-of-life amounts scale with the material's lines' masses, each by its share of M_eol.
-    const eolMass = [m.lines.map((l) => bomMass(l, l.line.mass_kg / m.massKg))];
-    if (e.transport_km > 0 && e.transport_factor) {
-      const f = factor(e.transport_factor);
+    const eolMass = [materialEol.lines.map((l) => bomMass(l, l.line.mass_kg / materialEol.massKg))];
+    if (eol.transport_km > 0 && eol.transport_factor) {
+      const resolved = factor(eol.transport_factor);
       const tonnes = conversionTerm(graph, 'kg', 't');
-      const id = cutoffStep.material('C2', m.materialId);
-      useFactor(graph, id, e.transport_factor, m.massKg * tonnes.factor * e.transport_km, eolMass);
-      vectorFigure(graph, id, scaled(f.values, m.massKg * tonnes.factor * e.transport_km), 'M_eol/1000·km·F_tkm', `Transport of end-of-life ${m.materialId} to waste processing.`, [M, ...tonnes.terms, eolCell('transport_km'), f.term('F_tkm')]);
+      const id = cutoffStep.material('C2', materialEol.materialId);
+      useFactor(graph, id, eol.transport_factor, materialEol.massKg * tonnes.factor * eol.transport_km, eolMass);
+      vectorFigure(graph, id, scaled(resolved.values, materialEol.massKg * tonnes.factor * eol.transport_km), 'M_eol/1000·km·F_tkm', `Transport of end-of-life ${materialEol.materialId} to waste processing.`, [massTerm, ...tonnes.terms, eolCell('transport_km'), resolved.term('F_tkm')]);
       c2Ids.push(id);
     }
-    if (e.recycling > 0 && e.processing_factor) {
-      const f = factor(e.processing_factor);
-      const id = cutoffStep.material('C3', m.materialId);
-      useFactor(graph, id, e.processing_factor, m.massKg * e.recycling, eolMass);
-      vectorFigure(graph, id, scaled(f.values, m.massKg * e.recycling), 'M_eol·recycling·F_proc', `Waste processing of the ${m.materialId} sent to recycling, up to the end-of-waste state.`, [M, eolCell('recycling'), f.term('F_proc')]);
+    if (eol.recycling > 0 && eol.processing_factor) {
+      const resolved = factor(eol.processing_factor);
+      const id = cutoffStep.material('C3', materialEol.materialId);
+      useFactor(graph, id, eol.processing_factor, materialEol.massKg * eol.recycling, eolMass);
+      vectorFigure(graph, id, scaled(resolved.values, materialEol.massKg * eol.recycling), 'M_eol·recycling·F_proc', `Waste processing of the ${materialEol.materialId} sent to recycling, up to the end-of-waste state.`, [massTerm, eolCell('recycling'), resolved.term('F_proc')]);
       c3ProcessingIds.push(id);
     }
-    if (e.energy_recovery > 0 && m.material.value.incineration) {
-      const f = factor(m.material.value.incineration);
-      const id = cutoffStep.energyRecovery(m.materialId);
-      useFactor(graph, id, m.material.value.incineration, m.massKg * e.energy_recovery, eolMass);
-      vectorFigure(graph, id, scaled(f.values, m.massKg * e.energy_recovery), 'M_eol·energy_recovery·E_inc', `Incineration of ${m.materialId} with energy recovery (benefits in D).`, [M, eolCell('energy_recovery'), f.term('E_inc')]);
+    if (eol.energy_recovery > 0 && materialEol.material.value.incineration) {
+      const resolved = factor(materialEol.material.value.incineration);
+      const id = cutoffStep.energyRecovery(materialEol.materialId);
+      useFactor(graph, id, materialEol.material.value.incineration, materialEol.massKg * eol.energy_recovery, eolMass);
+      vectorFigure(graph, id, scaled(resolved.values, materialEol.massKg * eol.energy_recovery), 'M_eol·energy_recovery·E_inc', `Incineration of ${materialEol.materialId} with energy recovery (benefits in D).`, [massTerm, eolCell('energy_recovery'), resolved.term('E_inc')]);
       c3EnergyIds.push(id);
     }
     const disposal: Term[] = [];
-    const c4 = zeros(K);
-    if (e.landfill > 0) {
-      const f = factor(m.material.value.landfill!);
-      addScaled(c4, f.values, m.massKg * e.landfill);
-      disposal.push(eolCell('landfill'), f.term('ED'));
+    const c4 = zeros(indicatorCount);
+    if (eol.landfill > 0) {
+      const resolved = factor(materialEol.material.value.landfill!);
+      addScaled(c4, resolved.values, materialEol.massKg * eol.landfill);
+      disposal.push(eolCell('landfill'), resolved.term('ED'));
     }
-    if (e.incineration > 0) {
-      const f = factor(m.material.value.incineration!);
-      addScaled(c4, f.values, m.massKg * e.incineration);
-      disposal.push(eolCell('incineration'), f.term('E_inc'));
+    if (eol.incineration > 0) {
+      const resolved = factor(materialEol.material.value.incineration!);
+      addScaled(c4, resolved.values, materialEol.massKg * eol.incineration);
+      disposal.push(eolCell('incineration'), resolved.term('E_inc'));
     }
     if (disposal.length > 0) {
-      const id = cutoffStep.material('C4', m.materialId);
-      if (e.landfill > 0) useFactor(graph, id, m.material.value.landfill!, m.massKg * e.landfill, eolMass);
-      if (e.incineration > 0) useFactor(graph, id, m.material.value.incineration!, m.massKg * e.incineration, eolMass);
-      vectorFigure(graph, id, c4, 'M_eol·(landfill·ED + incineration·E_inc)', `Disposal of end-of-life ${m.materialId}.`, [M, ...disposal]);
+      const id = cutoffStep.material('C4', materialEol.materialId);
+      if (eol.landfill > 0) useFactor(graph, id, materialEol.material.value.landfill!, materialEol.massKg * eol.landfill, eolMass);
+      if (eol.incineration > 0) useFactor(graph, id, materialEol.material.value.incineration!, materialEol.massKg * eol.incineration, eolMass);
+      vectorFigure(graph, id, c4, 'M_eol·(landfill·ED + incineration·E_inc)', `Disposal of end-of-life ${materialEol.materialId}.`, [massTerm, ...disposal]);
       c4Ids.push(id);
     }
-    dIds.push(...moduleD(ctx, graph, m, factor));
+    dIds.push(...moduleD(ctx, graph, materialEol, factor));
   }
   const c2 = sumFigure(graph, cutoffStep.module('C2'), [...c2Ids, ...transportFigures(ctx, graph, 'C2', inv, rows.transport, factor), ...activities('C2')], 'C2 = Σ materials M_eol·km/1000·F_tkm + C2 legs', 'Transport to waste processing.');
   const c3Processing = sumFigure(graph, cutoffStep.part('C3', 'processing'), [...c3ProcessingIds, ...activities('C3')], 'Σ M_eol·recycling·F_proc + C3 activities', 'Processing of material sent to recycling, and other C3 activities.');
   const c3Energy = sumFigure(graph, cutoffStep.part('C3', 'energy-recovery'), c3EnergyIds, 'Σ M_eol·energy_recovery·E_inc', 'Incineration with energy recovery.');
   const c3 = sumFigure(graph, cutoffStep.module('C3'), [c3Processing.id, c3Energy.id], 'C3 = processing + energy recovery', 'Waste processing up to the end-of-waste state.');
   const c4 = sumFigure(graph, cutoffStep.module('C4'), [...c4Ids, ...activities('C4')], 'C4 = Σ M_eol·(landfill·ED + incineration·E_inc) + C4 activities', 'Disposal.');
-  const d = sumFigure(graph, cutoffStep.module('D'), dIds, 'D = Σ materials (M_MR,out − M_MR,in)·(E_MR − E_VMSub·Q) + energy recovery', 'Benefits and loads beyond the system boundary (EN 15804+A2 Annex D); declared separately and not added to A–C.');
+  const moduleDSum = sumFigure(graph, cutoffStep.module('D'), dIds, 'D = Σ materials (M_MR,out − M_MR,in)·(E_MR − E_VMSub·Q) + energy recovery', 'Benefits and loads beyond the system boundary (EN 15804+A2 Annex D); declared separately and not added to A–C.');
 
   const totalIds = [a1.id, a2.id, a3.id, ...(a4 ? [a4] : []), ...(a5 ? [a5] : []), c1.id, c2.id, c3.id, c4.id];
   const total = sumFigure(graph, cutoffStep.module('total'), totalIds, `total = ${totalIds.map(cutoffModuleOf).join(' + ')}`, 'Sum of the declared modules A1 to C4; module D is not added (EN 15804+A2).');
   return {
-    modules: { A1: a1.id, A2: a2.id, A3: a3.id, 'A1-A3': a13.id, ...(a4 ? { A4: a4 } : {}), ...(a5 ? { A5: a5 } : {}), C1: c1.id, C2: c2.id, C3: c3.id, C4: c4.id, D: d.id },
+    modules: { A1: a1.id, A2: a2.id, A3: a3.id, 'A1-A3': a13.id, ...(a4 ? { A4: a4 } : {}), ...(a5 ? { A5: a5 } : {}), C1: c1.id, C2: c2.id, C3: c3.id, C4: c4.id, D: moduleDSum.id },
     total: total.id,
     parts: { a2: a2.id, a3Activities: a3Activities.id, a3ScrapDisposal: a3Scrap.id, ...(a4 ? { a4 } : {}), ...(a5 ? { a5 } : {}), c1: c1.id, c2: c2.id, c3Processing: c3Processing.id },
   };
@@ -182,16 +182,16 @@ function activityFigures(ctx: CalcContext, graph: FigureGraph, module: string, a
   return activities
     .filter((row) => row.value.module === module)
     .map((row) => {
-      const a = row.value;
-      const f = factor(a.factor);
-      const conversion = conversionTerm(graph, a.unit, f.unit);
+      const activity = row.value;
+      const resolved = factor(activity.factor);
+      const conversion = conversionTerm(graph, activity.unit, resolved.unit);
       const id = cutoffStep.activity(module, row.line);
-      useFactor(graph, id, a.factor, a.amount * conversion.factor, [[driver(table.file, row.line, 'amount')]]);
-      vectorFigure(graph, id, scaled(f.values, a.amount * conversion.factor), conversion.terms.length ? 'amount·(unit→factor unit)·F' : 'amount·F', a.activity, [
+      useFactor(graph, id, activity.factor, activity.amount * conversion.factor, [[driver(table.file, row.line, 'amount')]]);
+      vectorFigure(graph, id, scaled(resolved.values, activity.amount * conversion.factor), conversion.terms.length ? 'amount·(unit→factor unit)·F' : 'amount·F', activity.activity, [
         cellTerm(ctx.cell(table, row, 'amount'), 'amount'),
         cellTerm(ctx.cell(table, row, 'unit'), 'unit'),
         ...conversion.terms,
-        f.term('F'),
+        resolved.term('F'),
       ]);
       return id;
     });
@@ -216,9 +216,9 @@ function transportFigures(ctx: CalcContext, graph: FigureGraph, module: string, 
           ? figureTerm(line.ids.gross, 'G')
           : cellTerm(ctx.cell(ctx.project.bom, line.row, 'mass_kg'), 'm')
         : figureTerm(inbound ? inv.ids.gross : inv.ids.mass, inbound ? 'G_product' : 'M');
-      const f = factor(leg.factor);
+      const resolved = factor(leg.factor);
       const tonnes = conversionTerm(graph, 'kg', 't');
-      const km = conversionTerm(graph, 'tkm', f.unit);
+      const km = conversionTerm(graph, 'tkm', resolved.unit);
       const id = cutoffStep.transport(module, row.line);
       // The carried mass: one line's, or shared among the lines it adds up from.
       const carried = line
@@ -227,12 +227,12 @@ function transportFigures(ctx: CalcContext, graph: FigureGraph, module: string, 
           ? inv.productLines.map((l) => bomMass(l, l.grossKg / inv.grossKg))
           : inv.materials.flatMap((m) => m.lines.map((l) => bomMass(l, l.line.mass_kg / massKg)));
       useFactor(graph, id, leg.factor, massKg * tonnes.factor * leg.distance_km * km.factor, [[driver(table.file, row.line, 'distance_km')], carried]);
-      vectorFigure(graph, id, scaled(f.values, massKg * tonnes.factor * leg.distance_km * km.factor), `(${inbound ? 'G' : 'm'}/1000)·d·F_tkm`, leg.leg, [
+      vectorFigure(graph, id, scaled(resolved.values, massKg * tonnes.factor * leg.distance_km * km.factor), `(${inbound ? 'G' : 'm'}/1000)·d·F_tkm`, leg.leg, [
         massTerm,
         ...tonnes.terms,
         cellTerm(ctx.cell(table, row, 'distance_km'), 'd'),
         ...km.terms,
-        f.term('F_tkm'),
+        resolved.term('F_tkm'),
       ]);
       return id;
     });
@@ -243,25 +243,25 @@ function transportFigures(ctx: CalcContext, graph: FigureGraph, module: string, 
  * a credit; a negative net flow (more recycled input than recycled output) is a load.
  *   D = (M_MR,out − M_MR,in) · (E_MR,after EoW − E_VMSub · Q_R,out/Q_Sub)
  */
-function moduleD(ctx: CalcContext, graph: FigureGraph, m: MaterialEol, factor: (id: string) => ResolvedFactor): string[] {
-  const e = m.eol.value;
-  const material = m.material.value;
-  const eolCell = (column: string) => cellTerm(ctx.cell(ctx.project.eol, m.eol, column), column);
-  const mr = (flow: MaterialFlow) => inventoryStep.material(m.materialId, flow);
-  const scrapLines = m.lines.filter((l) => l.line.scrap_fate === 'recycled' && l.scrapKg > 0);
+function moduleD(ctx: CalcContext, graph: FigureGraph, materialEol: MaterialEol, factor: (id: string) => ResolvedFactor): string[] {
+  const eol = materialEol.eol.value;
+  const material = materialEol.material.value;
+  const eolCell = (column: string) => cellTerm(ctx.cell(ctx.project.eol, materialEol.eol, column), column);
+  const mr = (flow: MaterialFlow) => inventoryStep.material(materialEol.materialId, flow);
+  const scrapLines = materialEol.lines.filter((l) => l.line.scrap_fate === 'recycled' && l.scrapKg > 0);
   const scrapKg = scrapLines.reduce((t, l) => t + l.scrapKg, 0);
-  const outKg = (m.massKg * e.recycling + scrapKg) * e.recycling_yield;
+  const outKg = (materialEol.massKg * eol.recycling + scrapKg) * eol.recycling_yield;
   graph.add({
     kind: 'scalar', id: mr('M_MR_out'), value: outKg, unit: 'kg',
     formula: 'M_MR,out = (M_eol·recycling + scrap to recycling)·yield',
-    description: `${m.materialId} that leaves the system and reaches the point of substitution: end-of-life material sent to recycling and process scrap sent to recycling, times the recycling yield.`,
-    terms: [figureTerm(m.ids.mass, 'M_eol'), eolCell('recycling'), ...scrapLines.map((l) => figureTerm(l.ids.scrap, `scrap(${l.line.line_id})`)), eolCell('recycling_yield')],
+    description: `${materialEol.materialId} that leaves the system and reaches the point of substitution: end-of-life material sent to recycling and process scrap sent to recycling, times the recycling yield.`,
+    terms: [figureTerm(materialEol.ids.mass, 'M_eol'), eolCell('recycling'), ...scrapLines.map((l) => figureTerm(l.ids.scrap, `scrap(${l.line.line_id})`)), eolCell('recycling_yield')],
   });
-  const inKg = m.lines.reduce((t, l) => t + l.grossKg * l.r1, 0);
+  const inKg = materialEol.lines.reduce((t, l) => t + l.grossKg * l.r1, 0);
   graph.add({
     kind: 'scalar', id: mr('M_MR_in'), value: inKg, unit: 'kg',
-    formula: 'M_MR,in = Σ G·R1', description: `Secondary ${m.materialId} entering the system.`,
-    terms: m.lines.flatMap((l) => [figureTerm(l.ids.gross, `G(${l.line.line_id})`), figureTerm(l.ids.r1, `R1(${l.line.line_id})`)]),
+    formula: 'M_MR,in = Σ G·R1', description: `Secondary ${materialEol.materialId} entering the system.`,
+    terms: materialEol.lines.flatMap((l) => [figureTerm(l.ids.gross, `G(${l.line.line_id})`), figureTerm(l.ids.r1, `R1(${l.line.line_id})`)]),
   });
   const netKg = outKg - inKg;
   graph.add({
@@ -273,39 +273,39 @@ function moduleD(ctx: CalcContext, graph: FigureGraph, m: MaterialEol, factor: (
   if (netKg !== 0) {
     const recycling = factor(material.eol_recycling!);
     const substituted = factor(material.substituted ?? material.virgin);
-    const id = cutoffStep.material('D', m.materialId);
+    const id = cutoffStep.material('D', materialEol.materialId);
     // Each line's own net flow: (m·recycling + scrap to recycling)·yield − G·R1, proportional to its mass.
-    const lineNet = m.lines.map((l) => (l.line.mass_kg * e.recycling + (l.line.scrap_fate === 'recycled' ? l.scrapKg : 0)) * e.recycling_yield - l.grossKg * l.r1);
-    const lines = [m.lines.map((l, k) => bomMass(l, lineNet[k]! / netKg))];
+    const lineNet = materialEol.lines.map((l) => (l.line.mass_kg * eol.recycling + (l.line.scrap_fate === 'recycled' ? l.scrapKg : 0)) * eol.recycling_yield - l.grossKg * l.r1);
+    const lines = [materialEol.lines.map((l, k) => bomMass(l, lineNet[k]! / netKg))];
     useFactor(graph, id, material.eol_recycling!, netKg, lines);
     useFactor(graph, id, material.substituted ?? material.virgin, -netKg * material.q_out, lines);
-    vectorFigure(graph, id, scaled(ctx.netRecyclingPerKg(m.material), netKg), '(M_MR,out − M_MR,in)·(E_MR − E_VMSub·Q_out)', `Net recycling of ${m.materialId}: recycling after end of waste minus the virgin material it replaces.`, [
+    vectorFigure(graph, id, scaled(ctx.netRecyclingPerKg(materialEol.material), netKg), '(M_MR,out − M_MR,in)·(E_MR − E_VMSub·Q_out)', `Net recycling of ${materialEol.materialId}: recycling after end of waste minus the virgin material it replaces.`, [
       figureTerm(mr('M_MR_net'), 'M_net'),
       recycling.term('E_MR'),
       substituted.term('E_VMSub'),
-      cellTerm(ctx.cell(ctx.project.materials, m.material, 'q_out'), 'Q_out'),
+      cellTerm(ctx.cell(ctx.project.materials, materialEol.material, 'q_out'), 'Q_out'),
     ]);
     ids.push(id);
   }
   const energy = ctx.project.declaration.energy_recovery;
   const lhv = material.lhv_mj_per_kg;
-  if (e.energy_recovery > 0 && lhv !== null && lhv > 0 && energy) {
-    const mj = m.massKg * e.energy_recovery * lhv;
+  if (eol.energy_recovery > 0 && lhv !== null && lhv > 0 && energy) {
+    const mj = materialEol.massKg * eol.energy_recovery * lhv;
     const elec = factor(energy.electricity_factor);
     const heat = factor(energy.heat_factor);
     const toElec = conversionTerm(graph, 'MJ', elec.unit);
     const toHeat = conversionTerm(graph, 'MJ', heat.unit);
     const values = scaled(elec.values, -mj * energy.electricity_efficiency * toElec.factor);
     addScaled(values, heat.values, -mj * energy.heat_efficiency * toHeat.factor);
-    const id = cutoffStep.exportedEnergy(m.materialId);
-    const burnt = [m.lines.map((l) => bomMass(l, l.line.mass_kg / m.massKg))];
+    const id = cutoffStep.exportedEnergy(materialEol.materialId);
+    const burnt = [materialEol.lines.map((l) => bomMass(l, l.line.mass_kg / materialEol.massKg))];
     useFactor(graph, id, energy.electricity_factor, -mj * energy.electricity_efficiency * toElec.factor, burnt);
     useFactor(graph, id, energy.heat_factor, -mj * energy.heat_efficiency * toHeat.factor, burnt);
     const declarationCell = (column: string) => cellTerm(ctx.declarationCell(['energy_recovery', column]), column);
-    vectorFigure(graph, id, values, '−M_eol·energy_recovery·LHV·(η_el·E_el + η_heat·E_heat)', `Electricity and heat exported from incinerating ${m.materialId}, replacing the declared substituted energy.`, [
-      figureTerm(m.ids.mass, 'M_eol'),
+    vectorFigure(graph, id, values, '−M_eol·energy_recovery·LHV·(η_el·E_el + η_heat·E_heat)', `Electricity and heat exported from incinerating ${materialEol.materialId}, replacing the declared substituted energy.`, [
+      figureTerm(materialEol.ids.mass, 'M_eol'),
       eolCell('energy_recovery'),
-      cellTerm(ctx.cell(ctx.project.materials, m.material, 'lhv_mj_per_kg'), 'LHV'),
+      cellTerm(ctx.cell(ctx.project.materials, materialEol.material, 'lhv_mj_per_kg'), 'LHV'),
       declarationCell('electricity_efficiency'),
       declarationCell('heat_efficiency'),
       ...toElec.terms,

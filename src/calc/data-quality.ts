@@ -74,12 +74,12 @@ export function productDataQuality(ctx: CalcContext, result: ProductResult): Dat
     let scored = 0;
     let weighted = 0;
     contributions.forEach((_, k) => {
-      const w = weight(k, i);
-      all += w;
+      const part = weight(k, i);
+      all += part;
       const dqr = qualities[k]!.dqr;
       if (dqr !== null) {
-        scored += w;
-        weighted += w * dqr;
+        scored += part;
+        weighted += part * dqr;
       }
     });
     const dqr = scored > 0 ? weighted / scored : null;

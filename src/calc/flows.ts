@@ -90,12 +90,12 @@ export function flows(ctx: CalcContext, graph: FigureGraph, inv: Inventory, modu
   const carbon = (id: string, lines: typeof inv.lines, what: string) => {
     let value = 0;
     const terms: Term[] = [];
-    for (const l of lines) {
-      const content = l.material.value.biogenic_c_kg_per_kg;
-      const family = l.material.value.family;
+    for (const lineFlows of lines) {
+      const content = lineFlows.material.value.biogenic_c_kg_per_kg;
+      const family = lineFlows.material.value.family;
       // Not given: zero for families without biogenic carbon, unknown (NaN) for wood and paper.
-      value += l.line.mass_kg * (content ?? (family === 'wood' || family === 'paper' ? Number.NaN : 0));
-      terms.push(cellTerm(ctx.cell(ctx.project.bom, l.row, 'mass_kg'), `m(${l.line.line_id})`), cellTerm(ctx.cell(ctx.project.materials, l.material, 'biogenic_c_kg_per_kg'), `c(${l.material.value.material})`));
+      value += lineFlows.line.mass_kg * (content ?? (family === 'wood' || family === 'paper' ? Number.NaN : 0));
+      terms.push(cellTerm(ctx.cell(ctx.project.bom, lineFlows.row, 'mass_kg'), `m(${lineFlows.line.line_id})`), cellTerm(ctx.cell(ctx.project.materials, lineFlows.material, 'biogenic_c_kg_per_kg'), `c(${lineFlows.material.value.material})`));
     }
     return scalar(id, value, 'kg C', 'Σ m·c', `Biogenic carbon content of the ${what}.`, terms);
   };

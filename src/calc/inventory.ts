@@ -47,25 +47,25 @@ const scalar = (graph: FigureGraph, id: string, value: number, unit: string, for
 export function inventory(ctx: CalcContext, graph: FigureGraph, product: Row<Product>, bomRows: Row<BomLine>[]): Inventory {
   const bom = ctx.project.bom;
   const lines = bomRows.map((row): LineFlows => {
-    const b = row.value;
-    const key = lineKey(b.role, b.line_id);
-    const grossKg = b.mass_kg / (1 - b.scrap_rate);
-    const r1 = b.recycled_pre + b.recycled_post;
+    const bomLine = row.value;
+    const key = lineKey(bomLine.role, bomLine.line_id);
+    const grossKg = bomLine.mass_kg / (1 - bomLine.scrap_rate);
+    const r1 = bomLine.recycled_pre + bomLine.recycled_post;
     const ids = { gross: inventoryStep.line(key, 'G'), r1: inventoryStep.line(key, 'R1'), scrap: inventoryStep.line(key, 'scrap') };
-    scalar(graph, ids.gross, grossKg, 'kg', 'G = m / (1 − s)', `Gross input of ${b.component}: net mass over the share that does not leave as process scrap.`, [
+    scalar(graph, ids.gross, grossKg, 'kg', 'G = m / (1 − s)', `Gross input of ${bomLine.component}: net mass over the share that does not leave as process scrap.`, [
       cellTerm(ctx.cell(bom, row, 'mass_kg'), 'm'),
       cellTerm(ctx.cell(bom, row, 'scrap_rate'), 's'),
     ]);
-    scalar(graph, ids.r1, r1, 'share', 'R1 = pre + post', `Recycled content of the input of ${b.component} (ISO 14021 pre- plus post-consumer).`, [
+    scalar(graph, ids.r1, r1, 'share', 'R1 = pre + post', `Recycled content of the input of ${bomLine.component} (ISO 14021 pre- plus post-consumer).`, [
       cellTerm(ctx.cell(bom, row, 'recycled_pre'), 'pre'),
       cellTerm(ctx.cell(bom, row, 'recycled_post'), 'post'),
     ]);
-    scalar(graph, ids.scrap, grossKg - b.mass_kg, 'kg', 'scrap = G − m', `Process scrap of ${b.component} (${b.scrap_fate}).`, [
+    scalar(graph, ids.scrap, grossKg - bomLine.mass_kg, 'kg', 'scrap = G − m', `Process scrap of ${bomLine.component} (${bomLine.scrap_fate}).`, [
       figureTerm(ids.gross, 'G'),
       cellTerm(ctx.cell(bom, row, 'mass_kg'), 'm'),
       cellTerm(ctx.cell(bom, row, 'scrap_fate'), 'fate'),
     ]);
-    return { row, line: b, material: ctx.material(b.material), grossKg, r1, scrapKg: grossKg - b.mass_kg, ids, key };
+    return { row, line: bomLine, material: ctx.material(bomLine.material), grossKg, r1, scrapKg: grossKg - bomLine.mass_kg, ids, key };
   });
   const productLines = lines.filter((l) => l.line.role === 'product');
   const packagingLines = lines.filter((l) => l.line.role === 'packaging');

@@ -80,20 +80,20 @@ function labeller(project: Project): (c: InputContribution) => string {
       case 'factor':
         return `factor ${c.factor}`;
       case 'bom': {
-        const b = bom.get(c.line)?.value;
-        return b ? `${b.line_id} ${b.component}, mass` : `bom.csv line ${c.line}`;
+        const bomRow = bom.get(c.line)?.value;
+        return bomRow ? `${bomRow.line_id} ${bomRow.component}, mass` : `bom.csv line ${c.line}`;
       }
       case 'activity': {
-        const a = activities.get(c.line)?.value;
-        return a ? `${a.activity}, amount` : `activities.csv line ${c.line}`;
+        const activityRow = activities.get(c.line)?.value;
+        return activityRow ? `${activityRow.activity}, amount` : `activities.csv line ${c.line}`;
       }
       case 'transport': {
-        const t = transport.get(c.line)?.value;
-        return t ? `${t.leg}, distance` : `transport.csv line ${c.line}`;
+        const leg = transport.get(c.line)?.value;
+        return leg ? `${leg.leg}, distance` : `transport.csv line ${c.line}`;
       }
       case 'site': {
-        const s = site.get(c.line)?.value;
-        return s ? `${s.activity} (${s.site_id}), amount` : `site.csv line ${c.line}`;
+        const siteRow = site.get(c.line)?.value;
+        return siteRow ? `${siteRow.activity} (${siteRow.site_id}), amount` : `site.csv line ${c.line}`;
       }
     }
   };

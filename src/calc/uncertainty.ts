@@ -87,18 +87,18 @@ export function quantile(sorted: Float64Array, p: number): number {
 
 /** FNV-1a of a text, so each product has its own stream whatever the build's order or sharding. */
 function hash32(text: string): number {
-  let h = 0x811c9dc5;
+  let hash = 0x811c9dc5;
   for (let k = 0; k < text.length; k++) {
-    h ^= text.charCodeAt(k);
-    h = Math.imul(h, 0x01000193) >>> 0;
+    hash ^= text.charCodeAt(k);
+    hash = Math.imul(hash, 0x01000193) >>> 0;
   }
-  return h;
+  return hash;
 }
 
 export function productUncertainty(ctx: CalcContext, result: ProductResult, settings: UncertaintySettings): UncertaintyJson | undefined {
   const index = ctx.indicators.indexOf(INDICATOR);
   if (index < 0) return undefined;
-  const n = settings.iterations;
+  const iterations = settings.iterations;
   const project = ctx.project;
   const bomGsd = gsdByLine(project.bom.rows);
   const activityGsd = gsdByLine(project.activities.rows);
@@ -109,24 +109,24 @@ export function productUncertainty(ctx: CalcContext, result: ProductResult, sett
   for (const { uses } of scopes) {
     for (const use of uses) {
       if (!findGas(use.factor)) inputs.set(`factor:${use.factor}`, ctx.factorRow(use.factor).value.gsd ?? null);
-      for (const group of use.drivers) for (const d of group) inputs.set(driverKey(d), d.file === project.bom.file ? (bomGsd.get(d.line) ?? null) : d.file === project.activities.file ? (activityGsd.get(d.line) ?? null) : null);
+      for (const group of use.drivers) for (const driver of group) inputs.set(driverKey(driver), driver.file === project.bom.file ? (bomGsd.get(driver.line) ?? null) : driver.file === project.activities.file ? (activityGsd.get(driver.line) ?? null) : null);
     }
   }
   const varying = [...inputs.entries()].filter(([, gsd]) => gsd !== null && gsd > 1).sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0));
   const normal = normalStream((hash32(result.productId) ^ settings.seed) >>> 0);
-  const draws = new Map(varying.map(([key, gsd]) => [key, lognormalMultipliers(normal, gsd!, n)]));
+  const draws = new Map(varying.map(([key, gsd]) => [key, lognormalMultipliers(normal, gsd!, iterations)]));
 
   const figures = scopes.map(({ module, uses }) => {
     const id = module === 'total' ? result.cutoff.total : result.cutoff.modules[module];
     const deterministic = id ? result.graph.vector(id).values[index]! : null;
-    const out = new Float64Array(n);
-    const scratch = new Float64Array(n);
+    const out = new Float64Array(iterations);
+    const scratch = new Float64Array(iterations);
     for (const use of uses) {
       const base = use.amount * ctx.factor(use.factor).values[index]!;
       if (base === 0) continue;
       scratch.fill(base);
       const factorDraws = draws.get(`factor:${use.factor}`);
-      if (factorDraws) for (let k = 0; k < n; k++) scratch[k]! *= factorDraws[k]!;
+      if (factorDraws) for (let k = 0; k < iterations; k++) scratch[k]! *= factorDraws[k]!;
       for (const group of use.drivers) {
         const varied = group.filter((d) => draws.has(driverKey(d)));
         if (varied.length === 0) continue;
@@ -134,19 +134,19 @@ export function productUncertainty(ctx: CalcContext, result: ProductResult, sett
         const fixedShare = group.filter((d) => !draws.has(driverKey(d))).reduce((sum, d) => sum + d.share, 0);
         const shares = varied.map((d) => d.share);
         const arrays = varied.map((d) => draws.get(driverKey(d))!);
-        for (let k = 0; k < n; k++) {
+        for (let k = 0; k < iterations; k++) {
           let factor = fixedShare;
           for (let j = 0; j < arrays.length; j++) factor += shares[j]! * arrays[j]![k]!;
           scratch[k]! *= factor;
         }
       }
-      for (let k = 0; k < n; k++) out[k]! += scratch[k]!;
+      for (let k = 0; k < iterations; k++) out[k]! += scratch[k]!;
     }
     return summarise(module, deterministic, out);
   });
   const varied = varying.map(([key]) => key);
   return {
-    iterations: n,
+    iterations,
     seed: settings.seed,
     varied: {
       factors: varied.filter((k) => k.startsWith('factor:')).map((k) => k.slice('factor:'.length)),
