@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { compute, writeFixture } from '../calc/fixture.ts';
+import { compute, writeFixture } from './fixture.ts';
 import { loadProject } from '../../src/model/project.ts';
 import { dqrRating } from '../../src/reference/dqr.ts';
 
