@@ -1,6 +1,7 @@
 import type { Activity, BomLine, Product, Project, TransportLeg } from './types.ts';
 import type { Row } from '../schema/table.ts';
 import type { AllocatedRow } from './sites.ts';
+import { groupBy } from './lookups.ts';
 
 export interface ProductRows {
   product: Row<Product>;
@@ -9,17 +10,6 @@ export interface ProductRows {
   transport: Row<TransportLeg>[];
   /** Rows of site.csv shared to this product through production.csv. */
   site: AllocatedRow[];
-}
-
-export function groupBy<T>(rows: T[], key: (row: T) => string): Map<string, T[]> {
-  const groups = new Map<string, T[]>();
-  for (const row of rows) {
-    const k = key(row);
-    const group = groups.get(k);
-    if (group) group.push(row);
-    else groups.set(k, [row]);
-  }
-  return groups;
 }
 
 /** Each product with its own rows, grouped once so that work per product stays linear in the catalogue. */

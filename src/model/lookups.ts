@@ -1,5 +1,4 @@
 import type { Row, Table } from '../schema/table.ts';
-import { groupBy } from './by-product.ts';
 import type { ProcessDefinition, ProcessRow } from './processes.ts';
 import type { Activity, BomLine, EolRow, FactorRow, Material, Product, TransportLeg } from './rows.ts';
 import type { SiteRow } from './sites.ts';
@@ -65,4 +64,16 @@ export function projectLookups(tables: LookupTables): ProjectLookups {
 export function eolRowFor(lookups: ProjectLookups, scenario: string, material: string): Row<EolRow> | undefined {
   const rows = lookups.eolRows.get(scenario);
   return rows?.get(material) ?? rows?.get('*');
+}
+
+/** Rows grouped by a key, each group in the rows' order. */
+export function groupBy<T>(rows: T[], key: (row: T) => string): Map<string, T[]> {
+  const groups = new Map<string, T[]>();
+  for (const row of rows) {
+    const k = key(row);
+    const group = groups.get(k);
+    if (group) group.push(row);
+    else groups.set(k, [row]);
+  }
+  return groups;
 }
