@@ -19,51 +19,60 @@ export interface Indicator {
   basis: IndicatorBasis;
 }
 
-const core = (code: string, name: string, unit: string): Indicator => ({ code, name, unit, group: 'core', basis: 'factors' });
-const additional = (code: string, name: string, unit: string): Indicator => ({ code, name, unit, group: 'additional', basis: 'factors' });
-const resource = (code: string, name: string, unit: string, basis: IndicatorBasis = 'factors'): Indicator => ({ code, name, unit, group: 'resource', basis });
-const waste = (code: string, name: string, unit: string): Indicator => ({ code, name, unit, group: 'waste', basis: 'factors' });
-const output = (code: string, name: string, unit: string, basis: IndicatorBasis = 'factors'): Indicator => ({ code, name, unit, group: 'output', basis });
+/** One table of EN 15804+A2 §7.2 as [code, name, unit] rows; `flows` names those computed from the product's mass flows. */
+function table(group: IndicatorGroup, rows: ReadonlyArray<readonly [code: string, name: string, unit: string]>, flows: readonly string[] = []): Indicator[] {
+  return rows.map(([code, name, unit]) => ({ code, name, unit, group, basis: flows.includes(code) ? 'flows' : 'factors' }));
+}
 
 /** In EN 15804+A2 reporting order. */
 export const INDICATORS: readonly Indicator[] = [
-  core('GWP-total', 'Climate change – total', 'kg CO2 eq.'),
-  core('GWP-fossil', 'Climate change – fossil', 'kg CO2 eq.'),
-  core('GWP-biogenic', 'Climate change – biogenic', 'kg CO2 eq.'),
-  core('GWP-luluc', 'Climate change – land use and land use change', 'kg CO2 eq.'),
-  core('ODP', 'Ozone depletion', 'kg CFC-11 eq.'),
-  core('AP', 'Acidification', 'mol H+ eq.'),
-  core('EP-freshwater', 'Eutrophication, freshwater', 'kg P eq.'),
-  core('EP-marine', 'Eutrophication, marine', 'kg N eq.'),
-  core('EP-terrestrial', 'Eutrophication, terrestrial', 'mol N eq.'),
-  core('POCP', 'Photochemical ozone formation', 'kg NMVOC eq.'),
-  core('ADP-minerals&metals', 'Depletion of abiotic resources – minerals and metals', 'kg Sb eq.'),
-  core('ADP-fossil', 'Depletion of abiotic resources – fossil fuels', 'MJ, net calorific value'),
-  core('WDP', 'Water use', 'm3 world eq. deprived'),
-  additional('PM', 'Particulate matter emissions', 'disease incidence'),
-  additional('IRP', 'Ionising radiation, human health', 'kBq U235 eq.'),
-  additional('ETP-fw', 'Ecotoxicity, freshwater', 'CTUe'),
-  additional('HTP-c', 'Human toxicity, cancer effects', 'CTUh'),
-  additional('HTP-nc', 'Human toxicity, non-cancer effects', 'CTUh'),
-  additional('SQP', 'Land use related impacts / soil quality', 'dimensionless'),
-  resource('PERE', 'Renewable primary energy used as energy carrier', 'MJ'),
-  resource('PERM', 'Renewable primary energy used as raw material', 'MJ'),
-  resource('PERT', 'Total use of renewable primary energy', 'MJ'),
-  resource('PENRE', 'Non-renewable primary energy used as energy carrier', 'MJ'),
-  resource('PENRM', 'Non-renewable primary energy used as raw material', 'MJ'),
-  resource('PENRT', 'Total use of non-renewable primary energy', 'MJ'),
-  resource('SM', 'Use of secondary material', 'kg', 'flows'),
-  resource('RSF', 'Use of renewable secondary fuels', 'MJ'),
-  resource('NRSF', 'Use of non-renewable secondary fuels', 'MJ'),
-  resource('FW', 'Net use of fresh water', 'm3'),
-  waste('HWD', 'Hazardous waste disposed', 'kg'),
-  waste('NHWD', 'Non-hazardous waste disposed', 'kg'),
-  waste('RWD', 'Radioactive waste disposed', 'kg'),
-  output('CRU', 'Components for re-use', 'kg', 'flows'),
-  output('MFR', 'Materials for recycling', 'kg', 'flows'),
-  output('MER', 'Materials for energy recovery', 'kg', 'flows'),
-  output('EEE', 'Exported electrical energy', 'MJ'),
-  output('EET', 'Exported thermal energy', 'MJ'),
+  ...table('core', [
+    ['GWP-total', 'Climate change – total', 'kg CO2 eq.'],
+    ['GWP-fossil', 'Climate change – fossil', 'kg CO2 eq.'],
+    ['GWP-biogenic', 'Climate change – biogenic', 'kg CO2 eq.'],
+    ['GWP-luluc', 'Climate change – land use and land use change', 'kg CO2 eq.'],
+    ['ODP', 'Ozone depletion', 'kg CFC-11 eq.'],
+    ['AP', 'Acidification', 'mol H+ eq.'],
+    ['EP-freshwater', 'Eutrophication, freshwater', 'kg P eq.'],
+    ['EP-marine', 'Eutrophication, marine', 'kg N eq.'],
+    ['EP-terrestrial', 'Eutrophication, terrestrial', 'mol N eq.'],
+    ['POCP', 'Photochemical ozone formation', 'kg NMVOC eq.'],
+    ['ADP-minerals&metals', 'Depletion of abiotic resources – minerals and metals', 'kg Sb eq.'],
+    ['ADP-fossil', 'Depletion of abiotic resources – fossil fuels', 'MJ, net calorific value'],
+    ['WDP', 'Water use', 'm3 world eq. deprived'],
+  ]),
+  ...table('additional', [
+    ['PM', 'Particulate matter emissions', 'disease incidence'],
+    ['IRP', 'Ionising radiation, human health', 'kBq U235 eq.'],
+    ['ETP-fw', 'Ecotoxicity, freshwater', 'CTUe'],
+    ['HTP-c', 'Human toxicity, cancer effects', 'CTUh'],
+    ['HTP-nc', 'Human toxicity, non-cancer effects', 'CTUh'],
+    ['SQP', 'Land use related impacts / soil quality', 'dimensionless'],
+  ]),
+  ...table('resource', [
+    ['PERE', 'Renewable primary energy used as energy carrier', 'MJ'],
+    ['PERM', 'Renewable primary energy used as raw material', 'MJ'],
+    ['PERT', 'Total use of renewable primary energy', 'MJ'],
+    ['PENRE', 'Non-renewable primary energy used as energy carrier', 'MJ'],
+    ['PENRM', 'Non-renewable primary energy used as raw material', 'MJ'],
+    ['PENRT', 'Total use of non-renewable primary energy', 'MJ'],
+    ['SM', 'Use of secondary material', 'kg'],
+    ['RSF', 'Use of renewable secondary fuels', 'MJ'],
+    ['NRSF', 'Use of non-renewable secondary fuels', 'MJ'],
+    ['FW', 'Net use of fresh water', 'm3'],
+  ], ['SM']),
+  ...table('waste', [
+    ['HWD', 'Hazardous waste disposed', 'kg'],
+    ['NHWD', 'Non-hazardous waste disposed', 'kg'],
+    ['RWD', 'Radioactive waste disposed', 'kg'],
+  ]),
+  ...table('output', [
+    ['CRU', 'Components for re-use', 'kg'],
+    ['MFR', 'Materials for recycling', 'kg'],
+    ['MER', 'Materials for energy recovery', 'kg'],
+    ['EEE', 'Exported electrical energy', 'MJ'],
+    ['EET', 'Exported thermal energy', 'MJ'],
+  ], ['CRU', 'MFR', 'MER']),
 ];
 
 const byLowerCode = new Map(INDICATORS.map((indicator) => [indicator.code.toLowerCase(), indicator]));

@@ -12,33 +12,20 @@ interface UnitDefinition {
   toBase: number;
 }
 
-const UNITS: Record<string, UnitDefinition> = {
-  // mass, base kg
-  g: { dimension: 'mass', toBase: 1e-3 },
-  kg: { dimension: 'mass', toBase: 1 },
-  t: { dimension: 'mass', toBase: 1e3 },
-  // energy, base MJ
-  kJ: { dimension: 'energy', toBase: 1e-3 },
-  MJ: { dimension: 'energy', toBase: 1 },
-  GJ: { dimension: 'energy', toBase: 1e3 },
-  Wh: { dimension: 'energy', toBase: 3.6e-3 },
-  kWh: { dimension: 'energy', toBase: 3.6 },
-  MWh: { dimension: 'energy', toBase: 3.6e3 },
-  // volume, base m3
-  L: { dimension: 'volume', toBase: 1e-3 },
-  m3: { dimension: 'volume', toBase: 1 },
-  // transport work, base tkm
-  kgkm: { dimension: 'transport', toBase: 1e-3 },
-  tkm: { dimension: 'transport', toBase: 1 },
-  // count, base piece
-  piece: { dimension: 'count', toBase: 1 },
-  // length, base m
-  mm: { dimension: 'length', toBase: 1e-3 },
-  m: { dimension: 'length', toBase: 1 },
-  km: { dimension: 'length', toBase: 1e3 },
-  // area, base m2
-  m2: { dimension: 'area', toBase: 1 },
+/** Each dimension's units, by how many base units one of each is (the base is the one worth 1: kg, MJ, m3, tkm, piece, m, m2). */
+const DIMENSIONS: Record<Dimension, Record<string, number>> = {
+  mass: { g: 1e-3, kg: 1, t: 1e3 },
+  energy: { kJ: 1e-3, MJ: 1, GJ: 1e3, Wh: 3.6e-3, kWh: 3.6, MWh: 3.6e3 },
+  volume: { L: 1e-3, m3: 1 },
+  transport: { kgkm: 1e-3, tkm: 1 },
+  count: { piece: 1 },
+  length: { mm: 1e-3, m: 1, km: 1e3 },
+  area: { m2: 1 },
 };
+
+const UNITS: Record<string, UnitDefinition> = Object.fromEntries(
+  Object.entries(DIMENSIONS).flatMap(([dimension, units]) => Object.entries(units).map(([name, toBase]) => [name, { dimension: dimension as Dimension, toBase }])),
+);
 
 /** Spellings users write for the same unit, all matched case-insensitively. */
 const ALIASES: Record<string, string> = {

@@ -8,7 +8,7 @@ export const SCRAP_FATES = ['recycled', 'landfill', 'incineration'] as const;
 export const bomCsv = defineCsv({
   file: 'bom.csv',
   purpose: 'Bill of materials: one row per material line in one declared unit of a product, product parts and packaging.',
-  key: { columns: ['product_id', 'line_id'], repeat: 'error', what: 'line_id within its product' },
+  key: { columns: ['product_id', 'line_id'], what: 'line_id within its product' },
   needsRows: true,
   row: (d) =>
     z

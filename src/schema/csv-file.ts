@@ -37,13 +37,15 @@ export function defineCsv<Shape extends z.ZodRawShape>(definition: {
   purpose: string;
   row: (dialect: Dialect) => z.ZodObject<Shape>;
   example: Record<string, string>;
-  key: KeyRule;
+  /** A repeat is an error unless said otherwise; the key in words defaults to its columns ("scenario and material"). */
+  key: Pick<KeyRule, 'columns'> & Partial<KeyRule>;
   needsRows?: boolean;
   optional?: boolean;
 }): CsvFileSchema<Shape> {
   const cache = new Map<boolean, z.ZodObject<Shape>>();
   return {
     ...definition,
+    key: { repeat: 'error', what: inWords(definition.key.columns), ...definition.key },
     needsRows: definition.needsRows ?? false,
     optional: definition.optional ?? false,
     row: (dialect) => {
@@ -56,6 +58,9 @@ export function defineCsv<Shape extends z.ZodRawShape>(definition: {
     },
   };
 }
+
+/** `a`, `a and b`, `a, b and c`. */
+const inWords = (names: readonly string[]): string => (names.length < 2 ? names.join('') : `${names.slice(0, -1).join(', ')} and ${names.at(-1)}`);
 
 export const DEFAULT_DIALECT: Dialect = { decimalComma: false };
 

@@ -8,7 +8,7 @@ const SUM_TOLERANCE = 1e-6;
 export const eolCsv = defineCsv({
   file: 'eol.csv',
   purpose: 'End-of-life scenarios: per scenario and material (or * for all others), the shares of the end-of-life mass by route and the C2/C3 factors.',
-  key: { columns: ['scenario', 'material'], repeat: 'error', what: 'scenario and material' },
+  key: { columns: ['scenario', 'material'] },
   needsRows: true,
   row: (d) =>
     z

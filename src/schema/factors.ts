@@ -36,7 +36,7 @@ export const FACTOR_BASE_COLUMNS = Object.keys(baseShape({ decimalComma: false }
 export const factorsCsv = defineCsv({
   file: 'factors.csv',
   purpose: 'Impact factors per unit of a flow, one column per EN 15804+A2 indicator code.',
-  key: { columns: ['factor_id'], repeat: 'error', what: 'factor_id' },
+  key: { columns: ['factor_id'] },
   needsRows: true,
   row: (d) => z.object({ ...baseShape(d), ...indicatorShape(d) }),
   example: {

@@ -9,7 +9,7 @@ import { defineCsv } from './csv-file.ts';
 export const familiesCsv = defineCsv({
   file: 'families.csv',
   purpose: 'Product families declared together (variants of one product: alloys, finishes, sizes), one row per member; the family declaration is the weighted average of its members; optional.',
-  key: { columns: ['family_id', 'product_id'], repeat: 'error', what: 'family and product' },
+  key: { columns: ['family_id', 'product_id'], what: 'family and product' },
   optional: true,
   row: (d) =>
     z.object({

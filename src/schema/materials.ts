@@ -12,7 +12,7 @@ const factor = (what: string) => optionalReference(`Factor id (→ factors.csv) 
 export const materialsCsv = defineCsv({
   file: 'materials.csv',
   purpose: 'One row per material: the factors for making it, recycling it and disposing of it, and the parameters of the recycling-credit methods.',
-  key: { columns: ['material'], repeat: 'error', what: 'material' },
+  key: { columns: ['material'] },
   needsRows: true,
   row: (d) =>
     z.object({

@@ -55,12 +55,13 @@ function cellsOf(d: Dialect) {
   } satisfies Record<string, (...args: never[]) => readonly [z.ZodType, Described]>;
 }
 
+type Cells = ReturnType<typeof cellsOf>;
+
 const KINDS = {
   'electrolysis-aluminium': {
     description: 'A Hall–Héroult cell line making primary aluminium.',
-    parameters: (d: Dialect) => {
-      const c = cellsOf(d);
-      return z.strictObject({
+    parameters: (c: Cells) =>
+      z.strictObject({
         technology: required(...c.choice('Cell technology: CWPB, SWPB (prebake), VSS, HSS (Søderberg).', CELL_TECHNOLOGIES)),
         cell_voltage_v: required(...c.number('Average cell voltage.', 'V', { positive: true })),
         current_efficiency: optional(...c.share('Current efficiency (needed unless electricity_kwh_per_t is measured).')),
@@ -88,14 +89,12 @@ const KINDS = {
         alumina_factor: optional(...c.factor('Factor id of the alumina.')),
         aluminium_fluoride_factor: optional(...c.factor('Factor id of the aluminium fluoride.')),
         anode_factor: optional(...c.factor('Factor id of anode production.')),
-      });
-    },
+      }),
   },
   electrowinning: {
     description: 'An electrowinning tank house (leach or solvent-extraction electrolyte, bacterial leaching included).',
-    parameters: (d: Dialect) => {
-      const c = cellsOf(d);
-      return z.strictObject({
+    parameters: (c: Cells) =>
+      z.strictObject({
         metal: required(...c.element('Element symbol of the metal won (Cu, Zn, Ni, Co, …).')),
         charge: required(...c.integer('Charge of its ion in the electrolyte (2 for Cu²⁺, Zn²⁺, Ni²⁺).')),
         cell_voltage_v: required(...c.number('Average cell voltage.', 'V', { positive: true })),
@@ -103,24 +102,21 @@ const KINDS = {
         auxiliary_share: optional(...c.share('Rectifier, pumping and auxiliary loads on top of the DC energy.')),
         electricity_factor: optional(...c.factor('Factor id (factors.csv) of the electricity supplied.')),
         reagent: family(...c.number('A reagent per tonne of metal, named reagent:<factor id>.', 'kg/t')),
-      });
-    },
+      }),
   },
   'carbothermic-reduction': {
     description: 'A furnace reducing an oxide with carbon (zinc, iron, tin, lead, ferroalloys).',
-    parameters: (d: Dialect) => {
-      const c = cellsOf(d);
-      return z.strictObject({
+    parameters: (c: Cells) =>
+      z.strictObject({
         metal: required(...c.element('Element symbol of the metal made.')),
         reductant: family(...c.number('A reductant or fuel charged per tonne of metal, named reductant:<name>.', 't/t')),
         reductant_carbon: family(...c.share('Carbon content of reductant <name>, named reductant_carbon:<name>.')),
         carbon_out: family(...c.number('A product or by-product carrying carbon out, named carbon_out:<name>.', 't/t')),
         carbon_out_carbon: family(...c.share('Carbon content of carbon_out <name>, named carbon_out_carbon:<name>.')),
         reductant_factor: family(...c.factor('Factor id (factors.csv, per mass) of producing reductant <name>, named reductant_factor:<name>.')),
-      });
-    },
+      }),
   },
-} satisfies Record<ProcessKind, { description: string; parameters: (d: Dialect) => z.ZodObject }>;
+} satisfies Record<ProcessKind, { description: string; parameters: (c: Cells) => z.ZodObject }>;
 
 /** A kind's parameters as its calculator takes them (inferred from its schema). */
 export type ParametersOf<K extends ProcessKind> = z.output<ReturnType<(typeof KINDS)[K]['parameters']>>;
@@ -134,7 +130,7 @@ export function kindSchema<K extends ProcessKind>(kind: K, dialect: Dialect): Re
   const key = `${kind}|${dialect.decimalComma}`;
   let schema = schemas.get(key);
   if (!schema) {
-    schema = KINDS[kind].parameters(dialect);
+    schema = KINDS[kind].parameters(cellsOf(dialect));
     schemas.set(key, schema);
   }
   return schema as ReturnType<(typeof KINDS)[K]['parameters']>;

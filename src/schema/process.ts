@@ -12,7 +12,7 @@ import { PROCESS_KINDS } from './process-kinds.ts';
 export const processCsv = defineCsv({
   file: 'process.csv',
   purpose: 'Operating data of your own metal-making processes (smelter cell line, tank house, furnace), one parameter a row; optional. See the parameters of each kind in the input format reference.',
-  key: { columns: ['process_id', 'parameter'], repeat: 'error', what: 'parameter within its process' },
+  key: { columns: ['process_id', 'parameter'], what: 'parameter within its process' },
   optional: true,
   row: () =>
     z.object({

@@ -11,7 +11,7 @@ import type { Dialect } from './numbers.ts';
 export const productionCsv = defineCsv({
   file: 'production.csv',
   purpose: 'Each product’s output at a site in a period, which shares the site’s consumption (site.csv); extra numeric columns are your own allocation keys; optional.',
-  key: { columns: ['site_id', 'period', 'product_id'], repeat: 'error', what: 'site, period and product' },
+  key: { columns: ['site_id', 'period', 'product_id'], what: 'site, period and product' },
   optional: true,
   row: (d) =>
     z.object({

@@ -5,7 +5,7 @@ import { defineCsv } from './csv-file.ts';
 export const productsCsv = defineCsv({
   file: 'products.csv',
   purpose: 'One row per declared product: what it is, its declared unit and its end-of-life scenario.',
-  key: { columns: ['product_id'], repeat: 'error', what: 'product_id' },
+  key: { columns: ['product_id'] },
   needsRows: true,
   row: (d) =>
     z.object({
