@@ -118,8 +118,8 @@ export async function benchBuild(data: string, out: string, products: number, wo
   for (const version of [edited, text, edited]) {
     await writeFile(factors, version);
     const changed = await timedBuild(['build', '--data', data, '--out', out, '--no-pdf', '--changed']);
-    const match = /rebuilt (\d+) of (\d+) products/.exec(changed.stdout);
-    runs.push({ ms: changed.totalMs, rebuilt: Number(match?.[1] ?? NaN), of: Number(match?.[2] ?? NaN) });
+    const match = /rebuilt (\d+) of ([\d,]+) products?/.exec(changed.stdout);
+    runs.push({ ms: changed.totalMs, rebuilt: Number(match?.[1] ?? NaN), of: Number((match?.[2] ?? '').replace(/,/g, '') || NaN) });
   }
   const sorted = [...runs].sort((a, b) => a.ms - b.ms);
 

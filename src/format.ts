@@ -40,6 +40,9 @@ export const formatFixed = (value: number | null, decimals: number): string => (
 /** A whole number with thousands separated by commas, as English text writes a count: 10000 → "10,000". */
 export const formatCount = (value: number): string => String(value).replace(/\B(?=(\d{3})+(?!\d))/g, ',');
 
+/** A count with its noun: `1 product`, `7 products` (the count as formatCount writes it). */
+export const formatCounted = (value: number, one: string, many: string): string => `${formatCount(value)} ${value === 1 ? one : many}`;
+
 /** 3 significant figures by default: `1.23e+1` style, as declarations print them. */
 export function formatScientific(value: number, significant = 3): string {
   return value.toExponential(significant - 1);

@@ -10,6 +10,7 @@ import { copyInputs, hashInputs, writeManifest, type HashedFile } from '../rende
 import { EXIT, UsageError, type Io } from './io.ts';
 import { createProgress } from './progress.ts';
 import { printProblems } from './report-problems.ts';
+import { formatCounted } from '../format.ts';
 
 export interface BuildOptions {
   data: string;
@@ -77,17 +78,17 @@ export async function runBuild(options: BuildOptions, io: Io): Promise<number> {
     }
     if (shard) {
       await writeShardRecord(staging, { shard, pdfs: browser !== undefined, context: built.context, inputs, outcomes: built.outcomes });
-      summary = `built shard ${shard.k}/${shard.n}: ${built.outcomes.length} products into ${options.out}${options.pdf === 'off' ? ' (no PDFs: --no-pdf)' : ''}; join the shards with loopsheet merge`;
+      summary = `built shard ${shard.k}/${shard.n}: ${formatCounted(built.outcomes.length, 'product', 'products')} into ${options.out}${options.pdf === 'off' ? ' (no PDFs: --no-pdf)' : ''}; join the shards with loopsheet merge`;
     } else {
       progress.phase('verification manifest');
       // Kept products' files keep their previous hashes; built ones were hashed as written.
       await writeManifest(staging, inputs, new Map([...keptHashes(previous, built.kept), ...built.outcomes.flatMap((o) => o.hashes).map((h): [string, HashedFile] => [h.file, h])]));
-      summary = `built ${built.outcomes.length} products into ${options.out}${options.pdf === 'off' ? ' (no PDFs: --no-pdf)' : ''}`;
+      summary = `built ${formatCounted(built.outcomes.length, 'product', 'products')} into ${options.out}${options.pdf === 'off' ? ' (no PDFs: --no-pdf)' : ''}`;
     }
     if (options.changed) {
       const lines = built.rebuilt.slice(0, LISTED).map(({ id, reasons }) => `  ${id}: ${reasons.length > 3 ? `${reasons.slice(0, 3).join(', ')} and ${reasons.length - 3} more` : reasons.join(', ') || 'new build'}`);
       if (built.rebuilt.length > LISTED) lines.push(`  …and ${built.rebuilt.length - LISTED} more`);
-      summary += `\nrebuilt ${built.rebuilt.length} of ${built.outcomes.length} products (${built.kept.length} kept from the previous build)${lines.length > 0 ? `:\n${lines.join('\n')}` : ''}`;
+      summary += `\nrebuilt ${built.rebuilt.length} of ${formatCounted(built.outcomes.length, 'product', 'products')} (${built.kept.length} kept from the previous build)${lines.length > 0 ? `:\n${lines.join('\n')}` : ''}`;
     }
   });
   if (missingPdfs.length > 0) {

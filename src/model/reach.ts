@@ -42,6 +42,9 @@ export function reachedRows(project: Project, rows: ProductRows): ReachedRows {
   for (const t of rows.transport) factorIds.add(t.value.factor);
   for (const a of rows.site) factorIds.add(a.row.value.factor);
   for (const e of eolRows) for (const id of [e.value.transport_factor, e.value.processing_factor]) if (id) factorIds.add(id);
+  // Energy recovery credits the electricity and heat it exports with the factors declaration.json names (module D, the CFF energy part).
+  const recovery = project.declaration.energy_recovery;
+  if (recovery && eolRows.some((e) => e.value.energy_recovery > 0)) for (const id of [recovery.electricity_factor, recovery.heat_factor]) factorIds.add(id);
   const factors = inFileOrder([...factorIds].map((id) => index.factors.get(id)));
   const processIds = new Set([...factorIds].filter((id) => id.startsWith(PROCESS_PREFIX)).map((id) => id.slice(PROCESS_PREFIX.length)));
   const processRows = inFileOrder([...processIds].flatMap((id) => index.processRows.get(id) ?? []));

@@ -12,6 +12,7 @@ import { methodology } from './methodology.ts';
 import { productView, type CatalogueEntry, type ProductReport, type ProductView } from './product-view.ts';
 import type { TableView } from './table-view.ts';
 import { datasetCounts, factorQualityTable } from './verification-view.ts';
+import { formatCounted } from '../format.ts';
 
 export type { CatalogueEntry, ProductReport, ProductView } from './product-view.ts';
 export { catalogueEntry } from './product-view.ts';
@@ -107,8 +108,8 @@ export function buildSiteView(project: Project, problems: readonly Problem[], op
     catalogue: catalogue ?? [],
     writesCatalogue: catalogue !== undefined,
     families: catalogue ? [...(options.families ?? [])] : [],
-    familiesCount: counted(catalogue ? (options.families ?? []).length : 0, 'family', 'families'),
-    productsCount: counted(catalogue?.length ?? 0, 'product', 'products'),
+    familiesCount: formatCounted(catalogue ? (options.families ?? []).length : 0, 'family', 'families'),
+    productsCount: formatCounted(catalogue?.length ?? 0, 'product', 'products'),
     headlineHeads: headlineHeads(),
     verification: { inputs: [...(options.inputs ?? [])], datasets: catalogue ? datasetCounts(project) : [], factorQuality: catalogue ? factorQualityTable(project, catalogue) : { title: '', caption: '', headers: [], rows: [], empty: '' } },
     factors: catalogue ? factorTable(project, project.factors.rows, catalogue) : { title: '', caption: '', headers: [], rows: [], empty: '' },
@@ -155,7 +156,6 @@ export function siteContext(project: Project, pdfs: boolean): SiteContext {
 }
 
 /** A count with its noun, singular or plural. */
-const counted = (n: number, one: string, many: string): string => `${n} ${n === 1 ? one : many}`;
 
 /** The catalogue's headline column heads, from the headline's definition and the indicator registry. */
 function headlineHeads(): SiteView['headlineHeads'] {
