@@ -69,7 +69,13 @@ export function productDataQuality(ctx: CalcContext, result: ProductResult): Dat
     return Number.isFinite(value) ? Math.abs(value) : 0;
   };
   const indicators: DataQualityJson['indicators'] = {};
+  const cradleToGate = result.graph.vector(result.cutoff.modules['A1-A3']!).values;
   ctx.indicators.forEach((code, i) => {
+    // A result that is not available (an input it needs is empty) has no data quality either.
+    if (Number.isNaN(cradleToGate[i]!)) {
+      indicators[code] = { dqr: null, rating: null, scored_share: null };
+      return;
+    }
     let all = 0;
     let scored = 0;
     let weighted = 0;

@@ -14,13 +14,18 @@ export interface FlowsResult {
   biogenicCarbon: { product: string; packaging: string; productCo2: string; packagingCo2: string };
 }
 
-type FlowCode = 'SM' | 'CRU' | 'MFR' | 'MER';
+type FlowCode = 'SM' | 'CRU' | 'MFR' | 'MER' | 'EEE' | 'EET';
+
+/** Material flows are in kg; exported energy in MJ. */
+const FLOW_UNITS: Record<FlowCode, string> = { SM: 'kg', CRU: 'kg', MFR: 'kg', MER: 'kg', EEE: 'MJ', EET: 'MJ' };
 
 /**
- * EN 15804+A2 inventory indicators from the product's own mass flows (kg): SM secondary
+ * EN 15804+A2 output and input flow indicators from the product's own flows: SM secondary
  * material input, CRU components for re-use, MFR materials for recycling, MER materials
- * for energy recovery. Every module gets a figure for each, zero where no such flow
- * arises, so a reported 0 is a computed 0.
+ * for energy recovery (kg), and EEE, EET the electrical and thermal energy its own energy
+ * recovery exports (MJ: mass × share to energy recovery × heating value × the declared net
+ * efficiency). Every module gets a figure for each, zero where no such flow arises, so a
+ * reported 0 is a computed 0.
  */
 export function flows(ctx: CalcContext, graph: FigureGraph, inv: Inventory, modules: readonly string[], totalModules: readonly string[]): FlowsResult {
   const eol = ctx.project.eol;
@@ -32,6 +37,22 @@ export function flows(ctx: CalcContext, graph: FigureGraph, inv: Inventory, modu
   const secondary = (lines: typeof inv.lines) => sum(lines.map((l) => ({ value: l.grossKg * l.r1, terms: [figureTerm(l.ids.gross, `G(${l.line.line_id})`), figureTerm(l.ids.r1, `R1(${l.line.line_id})`)] })));
   const perMaterial = (column: 'recycling' | 'energy_recovery' | 'reuse') =>
     sum(inv.materials.map((m) => ({ value: m.massKg * m.eol.value[column], terms: [figureTerm(m.ids.mass, `M_eol(${m.materialId})`), cellTerm(ctx.cell(eol, m.eol, column), column)] })));
+  // Exported energy: only where module D credits it (a heating value, and energy_recovery in declaration.json).
+  const recovery = ctx.project.declaration.energy_recovery;
+  const exported = (efficiency: 'electricity_efficiency' | 'heat_efficiency') =>
+    sum(
+      inv.materials
+        .filter((m) => recovery && m.eol.value.energy_recovery > 0 && (m.material.value.lhv_mj_per_kg ?? 0) > 0)
+        .map((m) => ({
+          value: m.massKg * m.eol.value.energy_recovery * m.material.value.lhv_mj_per_kg! * recovery![efficiency],
+          terms: [
+            figureTerm(m.ids.mass, `M_eol(${m.materialId})`),
+            cellTerm(ctx.cell(eol, m.eol, 'energy_recovery'), `energy_recovery(${m.materialId})`),
+            cellTerm(ctx.cell(ctx.project.materials, m.material, 'lhv_mj_per_kg'), `LHV(${m.materialId})`),
+            cellTerm(ctx.declarationCell(['energy_recovery', efficiency]), efficiency === 'electricity_efficiency' ? 'η_el' : 'η_heat'),
+          ],
+        })),
+    );
   const scrapToRecycling = sum(inv.lines.filter((l) => l.line.scrap_fate === 'recycled' && l.scrapKg > 0).map((l) => ({ value: l.scrapKg, terms: [figureTerm(l.ids.scrap, `scrap(${l.line.line_id})`)] })));
 
   const defined: Partial<Record<string, Partial<Record<FlowCode, { value: number; terms: Term[]; formula: string; description: string }>>>> = {
@@ -45,6 +66,8 @@ export function flows(ctx: CalcContext, graph: FigureGraph, inv: Inventory, modu
       MFR: { ...perMaterial('recycling'), formula: 'MFR = Σ M_eol·recycling', description: 'End-of-life material sent to recycling.' },
       MER: { ...perMaterial('energy_recovery'), formula: 'MER = Σ M_eol·energy_recovery', description: 'End-of-life material sent to energy recovery.' },
       CRU: { ...perMaterial('reuse'), formula: 'CRU = Σ M_eol·reuse', description: 'End-of-life components for re-use.' },
+      EEE: { ...exported('electricity_efficiency'), formula: 'EEE = Σ M_eol·energy_recovery·LHV·η_el', description: 'Electrical energy exported by the energy recovery of the end-of-life material.' },
+      EET: { ...exported('heat_efficiency'), formula: 'EET = Σ M_eol·energy_recovery·LHV·η_heat', description: 'Thermal energy exported by the energy recovery of the end-of-life material.' },
     },
   };
   const moduleFlows: FlowsResult['moduleFlows'] = {};
@@ -56,11 +79,11 @@ export function flows(ctx: CalcContext, graph: FigureGraph, inv: Inventory, modu
       const parts = composite[module];
       if (parts) {
         const ids = parts.map((p) => moduleFlows[p]![code]!);
-        scalar(id, ids.reduce((t, child) => t + graph.scalar(child).value, 0), 'kg', `${code} = ${parts.join(' + ')}`, `${code} over ${module}.`, ids.map((child, i) => figureTerm(child, parts[i]!)));
+        scalar(id, ids.reduce((t, child) => t + graph.scalar(child).value, 0), FLOW_UNITS[code], `${code} = ${parts.join(' + ')}`, `${code} over ${module}.`, ids.map((child, i) => figureTerm(child, parts[i]!)));
       } else {
         const flow = defined[module]?.[code];
-        if (flow) scalar(id, flow.value, 'kg', flow.formula, flow.description, flow.terms);
-        else scalar(id, 0, 'kg', `${code} = 0`, `No ${code} flow arises in module ${module}.`, []);
+        if (flow) scalar(id, flow.value, FLOW_UNITS[code], flow.formula, flow.description, flow.terms);
+        else scalar(id, 0, FLOW_UNITS[code], `${code} = 0`, `No ${code} flow arises in module ${module}.`, []);
       }
       moduleFlows[module]![code] = id;
     }
@@ -69,7 +92,7 @@ export function flows(ctx: CalcContext, graph: FigureGraph, inv: Inventory, modu
   const totalFlows: Record<string, string> = {};
   for (const code of ctx.flowIndicators) {
     const ids = totalModules.map((module) => moduleFlows[module]![code]!);
-    totalFlows[code] = scalar(cutoffStep.flow('total', code), ids.reduce((t, child) => t + graph.scalar(child).value, 0), 'kg', `${code} = ${totalModules.join(' + ')}`, `${code} over the declared modules A1 to C4.`, ids.map((child, i) => figureTerm(child, totalModules[i]!)));
+    totalFlows[code] = scalar(cutoffStep.flow('total', code), ids.reduce((t, child) => t + graph.scalar(child).value, 0), FLOW_UNITS[code as FlowCode], `${code} = ${totalModules.join(' + ')}`, `${code} over the declared modules A1 to C4.`, ids.map((child, i) => figureTerm(child, totalModules[i]!)));
   }
 
   // Recycled content of the product, ISO 14021 terms, as shares of the product-role gross input.

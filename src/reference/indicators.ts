@@ -5,8 +5,8 @@
  * of `factors.csv`.
  *
  * `basis` says where a value comes from: `factors` — characterised from factor rows;
- * `flows` — computed from the product's own mass flows (SM, CRU, MFR, MER), never read
- * from a factor table.
+ * `flows` — computed from the product's own mass and energy flows (SM, CRU, MFR, MER, and
+ * EEE, EET from its own energy recovery), never read from a factor table.
  */
 export type IndicatorGroup = 'core' | 'additional' | 'resource' | 'waste' | 'output';
 export type IndicatorBasis = 'factors' | 'flows';
@@ -72,7 +72,7 @@ export const INDICATORS: readonly Indicator[] = [
     ['MER', 'Materials for energy recovery', 'kg'],
     ['EEE', 'Exported electrical energy', 'MJ'],
     ['EET', 'Exported thermal energy', 'MJ'],
-  ], ['CRU', 'MFR', 'MER']),
+  ], ['CRU', 'MFR', 'MER', 'EEE', 'EET']),
 ];
 
 const byLowerCode = new Map(INDICATORS.map((indicator) => [indicator.code.toLowerCase(), indicator]));

@@ -76,4 +76,23 @@ describe('data quality (PEF DQR), hand-worked', async () => {
     expect(problems).toContainEqual(expect.objectContaining({ code: 'NOT_A_NUMBER', file: 'factors.csv', line: 2, column: 'p', value: 'x' }));
     expect(problems).toContainEqual(expect.objectContaining({ code: 'BAD_CHOICE', file: 'factors.csv', line: 2, column: 'data_type', value: 'own' }));
   });
+
+  it('gives no rating to an indicator whose result is not available (a factor behind it has no value)', async () => {
+    const dir = await writeFixture({
+      bom: `product_id,line_id,component,material,role,mass_kg,recycled_pre,recycled_post,scrap_rate,scrap_fate,source
+P1,L1,Part,m1,product,1,0,0,0,recycled,test`,
+      materials: `material,name,family,virgin,landfill
+m1,Metal,metal,ev,ed`,
+      eol: `scenario,material,recycling,landfill,recycling_yield,transport_km
+s1,*,0,1,1,0`,
+      factors: `factor_id,name,unit,dataset,GWP-total,AP,ter,ger,tir,p,data_type
+ev,virgin,kg,test,2,,1,2,1,2,specific
+ed,landfill,kg,test,0.1,0.001,2,2,2,2,generic`,
+      declaration: { methods: ['cutoff'] },
+    });
+    const [product] = await compute(dir);
+    expect(product!.results.methods.cutoff.modules['A1-A3']!.AP).toBeNull();
+    expect(product!.results.data_quality!.indicators.AP).toEqual({ dqr: null, rating: null, scored_share: null });
+    expect(product!.results.data_quality!.indicators['GWP-total']!.dqr).toBe(1.5);
+  });
 });

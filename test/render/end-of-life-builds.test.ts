@@ -51,6 +51,11 @@ describe('a product whose end of life includes energy recovery', () => {
     const results = JSON.parse(await readFile(path.join(out, 'P1', 'results.json'), 'utf8')) as { methods: { cutoff: { modules: Record<string, Record<string, number>> } } };
     // D's energy part: −0.5 kg · 40 MJ/kg · (0.2 · 0.5 kg CO2/kWh / 3.6 MJ/kWh + 0.3 · 0.07 kg CO2/MJ) = −0.9756 kg CO2 eq. (1 kWh = 3.6 MJ, SI)
     expect(results.methods.cutoff.modules.D!['GWP-total']).toBeCloseTo(-0.5 * 40 * ((0.2 * 0.5) / 3.6 + 0.3 * 0.07), 9);
+    // EN 15804+A2 output flows of its own energy recovery, in C3: EEE = 1 kg · 0.5 · 40 MJ/kg · 0.2 = 4 MJ, EET = … · 0.3 = 6 MJ.
+    expect(results.methods.cutoff.modules.C3!.EEE).toBeCloseTo(4, 12);
+    expect(results.methods.cutoff.modules.C3!.EET).toBeCloseTo(6, 12);
+    expect(results.methods.cutoff.modules.C3!.MER).toBeCloseTo(0.5, 12);
+    expect(results.methods.cutoff.modules['A1-A3']!.EEE).toBe(0);
     await editFile(path.join(data, 'factors.csv'), (text) => text.replace('heat,heat,MJ,test,0.07', 'heat,heat,MJ,test,0.08'));
     const changed = await runCli(['build', '--data', data, '--out', out, '--no-pdf', '--changed']);
     expect(changed.code, changed.stderr).toBe(0);
