@@ -37,7 +37,7 @@ function allocationOf(ctx: CalcContext, graph: FigureGraph, method: CffMethod, l
   if (material.cff_a !== undefined) return { a: material.cff_a, term: cellTerm(ctx.cell(ctx.project.materials, line.material, 'cff_a'), 'A') };
   const a = defaultA(material.family);
   const id = referenceStep.defaultA(material.family === 'metal' ? 'metal' : 'other');
-  if (!graph.get(id)) graph.add({ kind: 'scalar', id, value: a, unit: 'share', formula: `A = ${a}`, description: material.family === 'metal' ? 'Default allocation factor for metals, Recommendation (EU) 2021/2279 Annex C.' : 'Default allocation factor where materials.csv gives none (from memory of the PEF default).', terms: [] });
+  if (!graph.get(id)) graph.add({ kind: 'scalar', id, value: a, unit: 'share', formula: `A = ${a}`, description: material.family === 'metal' ? 'Default allocation factor for metals, Recommendation (EU) 2021/2279 Annex C.' : 'loopsheet’s default allocation factor where materials.csv gives none: set cff_a from the applicable PCR.', terms: [] });
   return { a, term: figureTerm(id, 'A') };
 }
 

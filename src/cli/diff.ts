@@ -1,4 +1,4 @@
-import { changeReport, changeReportJson, changeReportMarkdown } from '../diff/report.ts';
+import { changeReport, changeReportJson, changeReportMarkdown, type FailOverMethods } from '../diff/report.ts';
 import { readResultsSet } from '../diff/results-set.ts';
 import { EXIT, UsageError, type Io } from './io.ts';
 
@@ -7,6 +7,7 @@ export interface DiffOptions {
   new: string;
   threshold: number;
   failOver?: number;
+  failOverMethods?: FailOverMethods;
   format: 'md' | 'json';
 }
 
@@ -22,10 +23,10 @@ export function parseShare(text: string, option: string): number {
 /** Exit 0, or 1 when `--fail-over` was given and a headline figure moved more than it allows. */
 export async function runDiff(options: DiffOptions, io: Io): Promise<number> {
   const [old, now] = await Promise.all([readResultsSet(options.old), readResultsSet(options.new)]);
-  const report = await changeReport(old, now, { threshold: options.threshold, ...(options.failOver !== undefined ? { failOver: options.failOver } : {}) });
+  const report = await changeReport(old, now, { threshold: options.threshold, ...(options.failOver !== undefined ? { failOver: options.failOver } : {}), ...(options.failOverMethods ? { failOverMethods: options.failOverMethods } : {}) });
   io.out(options.format === 'json' ? changeReportJson(report) : changeReportMarkdown(report));
   if (report.over.length > 0) {
-    io.err(`loopsheet diff: ${report.over.length} headline figure(s) moved more than ${options.failOver! * 100} %: ${report.over.slice(0, 5).map((o) => `${o.product_id} ${o.figure}`).join(', ')}${report.over.length > 5 ? ', …' : ''}`);
+    io.err(`loopsheet diff: ${report.over.length} ${report.fail_over_methods === 'all' ? '' : 'declared '}headline figure(s) moved more than ${options.failOver! * 100} %: ${report.over.slice(0, 5).map((o) => `${o.product_id} ${o.figure}`).join(', ')}${report.over.length > 5 ? ', …' : ''}`);
     return EXIT.input;
   }
   return EXIT.ok;

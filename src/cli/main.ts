@@ -119,7 +119,7 @@ Exit 0 when the reaction balances, 1 when it does not, 2 when it cannot be read.
   },
   diff: {
     summary: 'report which figures moved between two builds, and the input cells behind them',
-    usage: `loopsheet diff OLD NEW [--threshold 1%] [--format md|json] [--fail-over 5%]
+    usage: `loopsheet diff OLD NEW [--threshold 1%] [--format md|json] [--fail-over 5%] [--fail-over-methods declared|all]
 
 Compares two builds (two output folders, or two results.json files or folders of them):
 every product × method × module × indicator whose value changed by more than the threshold,
@@ -130,26 +130,34 @@ listed. Markdown is short enough to paste as a review comment; JSON lists every 
 
   --threshold SHARE  report changes larger than this (default 1%; 0 reports every change)
   --format md|json   Markdown (default) or JSON on stdout
-  --fail-over SHARE  exit 1 when a headline figure (GWP-total of A1-A3, D and each method's
-                     total; recycled content) moved by more than this share
+  --fail-over SHARE  exit 1 when a headline figure of the declared result (cut-off GWP-total
+                     of A1-A3, D and the total; recycled content) moved by more than this share
+  --fail-over-methods declared|all
+                     all: guard the comparison methods' totals too (CFF, 0:100, 50:50)
+
+The declared result (cut-off, with D) is listed first; the methods shown for comparison only
+follow.
 
 Both sides must be results format 2 (loopsheet 0.2 and later); a build of an earlier
 format is named as one to build again (exit 2).
 
 Shares are written 1%, 0.5 % or 0.01. Exit 0, 1 over --fail-over, 2 usage errors.`,
-    options: { threshold: { type: 'string' }, format: { type: 'string' }, 'fail-over': { type: 'string' } },
+    options: { threshold: { type: 'string' }, format: { type: 'string' }, 'fail-over': { type: 'string' }, 'fail-over-methods': { type: 'string' } },
     positionals: { min: 2, max: 2 },
     run: async (values, positionals, io) => {
       const { parseShare, runDiff } = await import('./diff.ts');
       const format = str(values.format) ?? 'md';
       if (format !== 'md' && format !== 'json') throw new UsageError(`--format ${format}: expected md or json`);
       const failOver = str(values['fail-over']);
+      const failOverMethods = str(values['fail-over-methods']) ?? 'declared';
+      if (failOverMethods !== 'declared' && failOverMethods !== 'all') throw new UsageError(`--fail-over-methods ${failOverMethods}: expected declared or all`);
       return runDiff(
         {
           old: positionals[0]!,
           new: positionals[1]!,
           threshold: parseShare(str(values.threshold) ?? '1%', '--threshold'),
           ...(failOver !== undefined ? { failOver: parseShare(failOver, '--fail-over') } : {}),
+          failOverMethods,
           format,
         },
         io,

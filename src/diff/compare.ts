@@ -28,6 +28,8 @@ export interface FigureChange extends Omit<SummaryFigure, 'value'> {
   /** (new − old) / |old|; null when old is 0 or either side is null. */
   relative: number | null;
   headline: boolean;
+  /** A figure of the declared result (cut-off, with module D, and the product's flows), not of a method shown for comparison only. */
+  declared: boolean;
 }
 
 /**
@@ -44,6 +46,13 @@ export const HEADLINE_FIGURES: readonly string[] = [
   resultFigureId('fifty-fifty', 'total', 'GWP-total'),
   flowStep.recycledContent('total'),
 ];
+
+/** The methods whose figures are the declaration's own; the CFF, 0:100 and 50:50 are shown for comparison. */
+export const DECLARED_METHODS: ReadonlySet<string> = new Set(['cutoff', 'flows']);
+
+/** Declared figures first, then headline figures, then the largest move: the order a review reads. */
+export const reviewOrder = (a: FigureChange, b: FigureChange): number =>
+  Number(b.declared) - Number(a.declared) || Number(b.headline) - Number(a.headline) || relativeChange(b.old, b.new) - relativeChange(a.old, a.new) || (a.figure < b.figure ? -1 : 1);
 
 const FLOW_UNITS: Record<string, string> = { recycled_content: 'share of gross input', biogenic_carbon_kg: 'kg C', biogenic_co2_kg: 'kg CO2' };
 
@@ -92,6 +101,7 @@ export function compareProduct(old: ResultsSummary, now: ResultsSummary, thresho
       absolute: oldValue === null || newValue === null ? null : newValue - oldValue,
       relative: oldValue === null || newValue === null || oldValue === 0 ? null : (newValue - oldValue) / Math.abs(oldValue),
       headline: HEADLINE_FIGURES.includes(figure.figure),
+      declared: DECLARED_METHODS.has(figure.method),
     });
   };
   for (const figure of summaryFigures(now)) consider(figure, before.get(figure.figure)?.value ?? null, figure.value);

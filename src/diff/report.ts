@@ -1,5 +1,5 @@
 import { ChangedCells, type CellChange } from './attribute.ts';
-import { compareProduct, relativeChange, type FigureChange } from './compare.ts';
+import { compareProduct, relativeChange, reviewOrder, type FigureChange } from './compare.ts';
 import type { ResultsSet } from './results-set.ts';
 import { formatSignificant, NOT_AVAILABLE } from '../format.ts';
 
@@ -13,6 +13,8 @@ export interface ChangeReport {
   new: string;
   threshold: number;
   fail_over: number | null;
+  /** Whose headline figures --fail-over guards: the declared result (default), or every method's. */
+  fail_over_methods: FailOverMethods;
   products: { compared: number; changed: string[]; added: string[]; removed: string[] };
   /** Input files whose SHA-256 differs between the two verification manifests (when both have one). */
   changed_files: string[] | null;
@@ -24,7 +26,10 @@ export interface ChangeReport {
   over: Array<{ product_id: string; figure: string; relative: number | null }>;
 }
 
-export async function changeReport(old: ResultsSet, now: ResultsSet, options: { threshold: number; failOver?: number }): Promise<ChangeReport> {
+export type FailOverMethods = 'declared' | 'all';
+
+export async function changeReport(old: ResultsSet, now: ResultsSet, options: { threshold: number; failOver?: number; failOverMethods?: FailOverMethods }): Promise<ChangeReport> {
+  const guarded = options.failOverMethods ?? 'declared';
   const changes: ChangeReport['changes'] = [];
   const inputs: CellChange[] = [];
   const inputIndex = new Map<string, number>();
@@ -40,14 +45,14 @@ export async function changeReport(old: ResultsSet, now: ResultsSet, options: { 
     const moved = all.filter((change) => relativeChange(change.old, change.new) > options.threshold);
     if (options.failOver !== undefined) {
       for (const change of all) {
-        if (change.headline && relativeChange(change.old, change.new) > options.failOver) over.push({ product_id: id, figure: change.figure, relative: change.relative });
+        if (change.headline && (guarded === 'all' || change.declared) && relativeChange(change.old, change.new) > options.failOver) over.push({ product_id: id, figure: change.figure, relative: change.relative });
       }
     }
     if (moved.length === 0) continue;
     changed.push(id);
     const [oldGraph, newGraph] = await Promise.all([old.graph(id), now.graph(id)]);
     const cells = oldGraph && newGraph ? new ChangedCells(oldGraph, newGraph, old.rowKey, now.rowKey) : undefined;
-    for (const change of moved) {
+    for (const change of moved.sort(reviewOrder)) {
       const under = cells?.under(change.figure).map((k) => {
         const cell = cells.cells[k]!;
         const key = `${cell.file}\u0000${cell.row}\u0000${cell.column}\u0000${cell.old?.value ?? ''}\u0000${cell.new?.value ?? ''}`;
@@ -74,6 +79,7 @@ export async function changeReport(old: ResultsSet, now: ResultsSet, options: { 
     new: now.label,
     threshold: options.threshold,
     fail_over: options.failOver ?? null,
+    fail_over_methods: guarded,
     products: { compared, changed, added, removed },
     changed_files: changedFiles,
     tool: { old: old.manifest?.toolVersion ?? null, new: now.manifest?.toolVersion ?? null },
@@ -105,6 +111,7 @@ const cellText = (cell: CellChange): string => {
   if (!cell.new) return `${where}: no longer read (was ${code(cell.old.value)})`;
   return `${where}: ${code(cell.old.value)} → ${code(cell.new.value)}${cell.old.line !== cell.new.line ? ` (was line ${cell.old.line})` : ''}`;
 };
+const guardedWhat = (report: ChangeReport) => (report.fail_over_methods === 'all' ? 'headline figure' : 'declared headline figure');
 const figureLabel = (change: FigureChange) => (change.method === 'flows' ? `${change.module} ${change.indicator}` : `${change.method} ${change.module} ${change.indicator}`);
 
 /**
@@ -123,8 +130,8 @@ export function changeReportMarkdown(report: ChangeReport): string {
   if (report.fail_over !== null) {
     lines.push(
       report.over.length > 0
-        ? `**${report.over.length} headline figure${report.over.length === 1 ? '' : 's'} moved more than ${share(report.fail_over)}** (the --fail-over limit).`
-        : `No headline figure moved more than ${share(report.fail_over)} (the --fail-over limit).`,
+        ? `**${report.over.length} ${guardedWhat(report)}${report.over.length === 1 ? '' : 's'} moved more than ${share(report.fail_over)}** (the --fail-over limit).`
+        : `No ${guardedWhat(report)} moved more than ${share(report.fail_over)} (the --fail-over limit).`,
     );
   }
   if (products.added.length > 0) lines.push('', `Added: ${products.added.map(code).join(', ')}`);
@@ -134,7 +141,7 @@ export function changeReportMarkdown(report: ChangeReport): string {
   for (const change of report.changes) byProduct.set(change.product_id, [...(byProduct.get(change.product_id) ?? []), change]);
   const ranked = [...byProduct.entries()].sort((a, b) => largest(b[1]) - largest(a[1]) || (a[0] < b[0] ? -1 : 1));
   for (const [id, changes] of ranked.slice(0, MAX_PRODUCTS)) {
-    const sorted = [...changes].sort((a, b) => Number(b.headline) - Number(a.headline) || relativeChange(b.old, b.new) - relativeChange(a.old, a.new) || (a.figure < b.figure ? -1 : 1));
+    const sorted = [...changes].sort(reviewOrder);
     lines.push('', `#### ${code(id)}`, '', '| figure | old | new | change | |', '|---|---:|---:|---:|---:|');
     for (const change of sorted.slice(0, MAX_ROWS)) {
       lines.push(`| ${change.headline ? '**' : ''}${figureLabel(change)}${change.headline ? '**' : ''} ${change.unit ? `(${change.unit})` : ''} | ${number(change.old)} | ${number(change.new)} | ${signed(change.absolute)} | ${percent(change)} |`);
@@ -154,6 +161,7 @@ export function changeReportMarkdown(report: ChangeReport): string {
   return `${lines.join('\n')}\n`;
 }
 
+/** A product's largest move among its declared headline figures (the comparison methods do not rank products). */
 function largest(changes: readonly FigureChange[]): number {
-  return Math.max(...changes.filter((c) => c.headline).map((c) => relativeChange(c.old, c.new)), 0);
+  return Math.max(...changes.filter((c) => c.headline && c.declared).map((c) => relativeChange(c.old, c.new)), 0);
 }

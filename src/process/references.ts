@@ -28,11 +28,11 @@ export function processReference(name: string, input: ProcessInput): ProcessRefe
     case 'CO2_per_C':
       return { value: CO2_PER_C, unit: 't CO2 per t C', description: 'CO2/C molar mass ratio as the IPCC 2006 Guidelines use it (44/12).' };
     case 'tier1':
-      return technology ? { value: TIER1_CO2_T_PER_T[technology], unit: 't CO2/t Al', description: `IPCC Tier 1 default emission factor for ${technology}, ${SMELTING_SOURCE} (from memory of the table).` } : undefined;
+      return technology ? { value: TIER1_CO2_T_PER_T[technology], unit: 't CO2/t Al', description: `IPCC Tier 1 default emission factor for ${technology}, ${SMELTING_SOURCE}, as transcribed in loopsheet: check it against the table.` } : undefined;
     case 'slope_cf4':
-      return technology ? { value: PFC_SLOPE_DEFAULTS[technology].slopeCf4, unit: '(kg CF4/t Al) per (AE-min/cell-day)', description: `IPCC default CF4 slope for ${technology}, ${SMELTING_SOURCE} (from memory of the table).` } : undefined;
+      return technology ? { value: PFC_SLOPE_DEFAULTS[technology].slopeCf4, unit: '(kg CF4/t Al) per (AE-min/cell-day)', description: `IPCC default CF4 slope for ${technology}, ${SMELTING_SOURCE}, as transcribed in loopsheet: check it against the table.` } : undefined;
     case 'c2f6_per_cf4':
-      return technology ? { value: PFC_SLOPE_DEFAULTS[technology].c2f6PerCf4, unit: 'kg C2F6 per kg CF4', description: `IPCC default C2F6/CF4 weight fraction for ${technology}, ${SMELTING_SOURCE} (from memory of the table).` } : undefined;
+      return technology ? { value: PFC_SLOPE_DEFAULTS[technology].c2f6PerCf4, unit: 'kg C2F6 per kg CF4', description: `IPCC default C2F6/CF4 weight fraction for ${technology}, ${SMELTING_SOURCE}, as transcribed in loopsheet: check it against the table.` } : undefined;
     default:
       return undefined;
   }

@@ -95,7 +95,7 @@ export const declarationSchema = z
           .min(0)
           .max(1)
           .default(0.1)
-          .meta({ description: 'A family member whose GWP-total A1-A3 lies further than this share from the family’s weighted average is flagged on the family page and on stderr; default 0.1 (10 %, a grouping rule of EN 15804+A2 practice).' }),
+          .meta({ description: 'A family member whose GWP-total A1-A3 lies further than this share from the family’s weighted average is flagged on the family page and on stderr; default 0.1 (10 %, loopsheet’s default: set it from the applicable PCR).' }),
         sensitivity_step: z
           .number()
           .gt(0)

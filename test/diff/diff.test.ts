@@ -3,6 +3,8 @@ import { readFile, writeFile } from 'node:fs/promises';
 import path from 'node:path';
 import { ChangedCells } from '../../src/diff/attribute.ts';
 import { compareProduct, relativeChange } from '../../src/diff/compare.ts';
+import { changeReport, changeReportMarkdown } from '../../src/diff/report.ts';
+import type { ResultsSet } from '../../src/diff/results-set.ts';
 import type { ResultsJson, ResultsSummary } from '../../src/report/results.ts';
 import { GraphReader, type GraphJson } from '../../src/trace/graph-json.ts';
 import { figureMap } from '../figures.ts';
@@ -43,6 +45,30 @@ describe('which figures moved', () => {
     expect(changes.find((c) => c.figure === 'flows/recycled_content/total')).toMatchObject({ old: 0, new: 0.2, relative: null, headline: true });
     expect(relativeChange(0, 0)).toBe(0);
     expect(relativeChange(null, null)).toBe(0);
+  });
+});
+
+describe('the declared result first', () => {
+  /** A product whose cut-off A1-A3 moves 2 % and whose CFF total (a comparison method) moves 20 %. */
+  const withCff = (a1: number, cff: number): ResultsSummary => {
+    const base = summary(a1, -2);
+    return { ...base, methods: { ...base.methods, cff: { parts: { material: { 'GWP-total': cff } }, total: { 'GWP-total': cff } } } } as ResultsSummary;
+  };
+  const set = (label: string, s: ResultsSummary): ResultsSet => ({ label, products: new Map([['P1', s]]), graph: async () => undefined, rowKey: (file, line) => `${file}:${line}` });
+
+  it('lists cut-off and D before the comparison methods, and --fail-over guards the declared result unless told otherwise', async () => {
+    const old = set('old', withCff(10, 10));
+    const now = set('new', withCff(10.2, 12));
+    const declared = await changeReport(old, now, { threshold: 0.01, failOver: 0.05 });
+    expect(declared.changes[0]!.method).toBe('cutoff');
+    expect(declared.changes.findIndex((c) => c.method === 'cff')).toBeGreaterThan(declared.changes.findIndex((c) => c.figure === 'cutoff/total/GWP-total'));
+    // 2 % on the declared result is within 5 %; the CFF's 20 % is a comparison, not the declaration.
+    expect(declared.over).toEqual([]);
+    expect(changeReportMarkdown(declared)).toContain('No declared headline figure moved more than 5 %');
+    const markdownRows = changeReportMarkdown(declared).split('\n').filter((line) => line.startsWith('| '));
+    expect(markdownRows[2]).toContain('cutoff');
+    const all = await changeReport(old, now, { threshold: 0.01, failOver: 0.05, failOverMethods: 'all' });
+    expect(all.over.map((o) => o.figure)).toEqual(['cff/total/GWP-total']);
   });
 });
 

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { execFileSync } from 'node:child_process';
-import { readFile, stat } from 'node:fs/promises';
+import { readdir, readFile, stat } from 'node:fs/promises';
 import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { findBrowser } from '../../src/render/browser.ts';
@@ -77,6 +77,12 @@ describe('PDF in a real Chromium', async () => {
     for (const page of pages) expect(page).toContain('Illustrative data: invented values, not a real dataset');
     // No link in the PDF points into the build folder (it would be a file:// path of this machine).
     expect(readFileSync(path.join(out, 'KV-CU-BB10', 'declaration.pdf'), 'latin1')).not.toContain('file://');
+  });
+
+  it.skipIf(!browser)('says where a default comes from on every page, never "from memory" (a public claim names its source or its setting)', async () => {
+    const pages = (await readdir(out, { recursive: true })).filter((file) => file.endsWith('.html'));
+    expect(pages.length).toBeGreaterThan(10);
+    for (const page of pages) expect(await readFile(path.join(out, page), 'utf8'), page).not.toMatch(/from memory/i);
   });
 
   it.skipIf(!browser || !pdftotext)('prints the family page with its weighted averages, the draft status on every page (poppler pdftotext)', async () => {
