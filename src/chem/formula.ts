@@ -33,9 +33,27 @@ const SUPERSCRIPT_DIGITS = '⁰¹²³⁴⁵⁶⁷⁸⁹';
 const HYDRATE_SEPARATORS = new Set(['·', '.', '*', '•', '⋅']);
 const ELEMENT_SYMBOLS = Object.keys(ATOMIC_WEIGHTS);
 
+/**
+ * Ion charges as plain text writes them in ionic equations, rewritten to `^`: a monatomic ion's
+ * digit before the sign is its charge (`Cu2+` is Cu²⁺, `Fe3+`, `O2-`); a polyatomic ion's is
+ * the count of its last atom unless a second digit follows (`NH4+` is NH₄⁺, `SO42-` is
+ * SO₄²⁻, `Hg22+` is Hg₂²⁺); a sign before the digits is a charge too (`Fe+3`).
+ */
+function plainTextCharge(text: string): string {
+  const signFirst = /^(.*[A-Za-z)\]])([+-])(\d+)$/.exec(text);
+  if (signFirst) return `${signFirst[1]}^${signFirst[3]}${signFirst[2]}`;
+  const digitsFirst = /^(.*?[A-Za-z)\]])(\d+)([+-])$/.exec(text);
+  if (!digitsFirst) return text;
+  const [, body, digits, sign] = digitsFirst as unknown as [string, string, string, string];
+  if (digits.length >= 2) return `${body}${digits.slice(0, -1)}^${digits.at(-1)}${sign}`;
+  return /^[A-Z][a-z]?$/.test(body) ? `${body}^${digits}${sign}` : text;
+}
+
 export function parseFormula(input: string): Formula {
-  const text = input.trim();
-  if (text === 'e' || text === 'e-' || text === 'e^-' || text === 'e⁻') return { text, elements: new Map(), charge: -1 };
+  const written = input.trim();
+  if (written === 'e' || written === 'e-' || written === 'e^-' || written === 'e⁻') return { text: written, elements: new Map(), charge: -1 };
+  // Positions in problems point into the text as it was written; the charge is read from its ^ form.
+  const text = plainTextCharge(written);
   let pos = 0;
   const fail = (message: string): never => {
     throw new ChemError(message, text, pos);
@@ -88,7 +106,7 @@ export function parseFormula(input: string): Formula {
     pos++;
   }
   const charge = readCharge(text, pos, fail);
-  return { text, elements, charge };
+  return { text: written, elements, charge };
 }
 
 function readCharge(text: string, from: number, fail: (message: string) => never): number {

@@ -9,6 +9,8 @@ import { ChemError, molarMass, parseFormula, type Formula } from './formula.ts';
 export interface Species {
   formula: Formula;
   coefficient: number;
+  /** Whether the coefficient was written (a reaction written with none may be balanced by loopsheet). */
+  written: boolean;
   side: 'reactant' | 'product';
   /** g/mol */
   molarMass: number;
@@ -27,6 +29,13 @@ export interface Imbalance {
 }
 
 const ARROW = /\s*(?:->|→|=>|⟶|=)\s*/;
+
+/** The reaction with these coefficients (a balance found for it), written as a practitioner writes it. */
+export function withCoefficients(reaction: Reaction, coefficients: readonly number[]): Reaction {
+  const species = reaction.species.map((s, i) => ({ ...s, coefficient: coefficients[i]!, written: true }));
+  const side = (which: Species['side']) => species.filter((s) => s.side === which).map((s) => `${s.coefficient === 1 ? '' : `${s.coefficient} `}${s.formula.text}`).join(' + ');
+  return { text: `${side('reactant')} -> ${side('product')}`, species };
+}
 
 export function parseReaction(input: string): Reaction {
   const text = input.trim();
@@ -47,7 +56,7 @@ export function parseReaction(input: string): Reaction {
         if (error instanceof ChemError) throw new ChemError(`${match[2]}: ${error.message}`, text, text.indexOf(match[2]) + error.position);
         throw error;
       }
-      species.push({ formula, coefficient, side, molarMass: molarMass(formula) });
+      species.push({ formula, coefficient, written: match[1] !== undefined, side, molarMass: molarMass(formula) });
     }
   });
   return { text, species };

@@ -101,14 +101,18 @@ cff/total/GWP-total, inventory/line:L1/G, flows/recycled_content/total.
 Reads a reaction such as "2Al2O3 + 3C -> 4Al + 3CO2", checks that every element and the
 charge balance (and says which do not), and prints each species' molar mass from the IUPAC
 standard atomic weights and its mass per kg (or tonne) of the chosen species, with the
-atom economy. Formulas may hold parentheses, hydrates (CuSO4·5H2O) and charges (Al^3+,
-SO4^2-, Na+, e-). Separate species with " + " (spaces around the plus).
+atom economy. A reaction written without any coefficient ("Al2O3 + C -> Al + CO2") is
+balanced first, with exact rational arithmetic, and the coefficients found are printed; one
+that has no balance, or more than one, is said to. An unbalanced reaction gets no masses.
+Formulas may hold parentheses, hydrates (CuSO4·5H2O) and charges (Al^3+, Al³⁺, and as ionic
+equations write them: Cu2+, Fe3+, NH4+, SO42-, Na+, e-). Separate species with " + "
+(spaces around the plus).
 
   --per SPECIES   the species the masses are given per (default: the first product)
   --unit kg|t     label the ratios per kg or per tonne (the same numbers)
   --json          print the result as JSON on stdout
 
-Exit 0 when the reaction balances, 1 when it does not, 2 when it cannot be read.`,
+Exit 0 when the reaction balances (as written or as balanced), 1 when it does not or cannot be\nbalanced, 2 when it cannot be read.`,
     options: { per: { type: 'string' }, unit: { type: 'string' }, json: { type: 'boolean' } },
     positionals: { min: 1, max: 1 },
     run: async (values, positionals, io) => {

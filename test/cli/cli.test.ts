@@ -268,16 +268,33 @@ describe('loopsheet chem', () => {
     expect(result.stdout).toContain('atom economy (Al of all reactants): 45.0 %');
   });
 
-  it('names what does not balance (exit 1), and prints JSON on request', async () => {
-    const result = await runCli(['chem', 'Al2O3 + C -> Al + CO2', '--json']);
+  it('names what does not balance (exit 1) and gives no masses for it; prints JSON on request', async () => {
+    const result = await runCli(['chem', '2Al2O3 + C -> Al + CO2', '--json']);
     expect(result.code).toBe(1);
     const json = JSON.parse(result.stdout);
     expect(json.balanced).toBe(false);
+    expect(json.coefficients_by).toBe('as written');
     expect(json.imbalances).toEqual([
-      { what: 'Al', reactants: 2, products: 1 },
-      { what: 'O', reactants: 3, products: 2 },
+      { what: 'Al', reactants: 4, products: 1 },
+      { what: 'O', reactants: 6, products: 2 },
     ]);
     expect(json.species.map((s: { formula: string }) => s.formula)).toEqual(['Al2O3', 'C', 'Al', 'CO2']);
+    expect(json.species.every((s: { mass_per_unit_of_per: number | null }) => s.mass_per_unit_of_per === null)).toBe(true);
+    expect(json.atom_economy_pct).toBeNull();
+    const text = await runCli(['chem', '2Al2O3 + C -> Al + CO2']);
+    expect(text.stdout).toContain('no masses are given for an unbalanced reaction');
+    expect(text.stdout).not.toContain('kg per kg');
+  });
+
+  it('balances a reaction written without coefficients, and reads ions as ionic equations write them', async () => {
+    // Permanganate titration of iron(II): MnO4⁻ + 5 Fe²⁺ + 8 H⁺ → Mn²⁺ + 5 Fe³⁺ + 4 H2O (a standard redox equation of general chemistry texts; common practice).
+    const result = await runCli(['chem', 'MnO4- + Fe2+ + H+ -> Mn2+ + Fe3+ + H2O', '--json']);
+    expect(result.code, result.stderr).toBe(0);
+    const json = JSON.parse(result.stdout);
+    expect(json).toMatchObject({ balanced: true, coefficients_by: 'loopsheet', reaction: 'MnO4- + 5 Fe2+ + 8 H+ -> Mn2+ + 5 Fe3+ + 4 H2O' });
+    const none = await runCli(['chem', 'H2 + O2 -> H2O + H2O2']);
+    expect(none.code).toBe(1);
+    expect(none.stdout).toContain('it balances in 2 independent ways');
   });
 
   it('points at what it cannot read (exit 2)', async () => {
