@@ -16,8 +16,8 @@ describe('EN 15804+A2 indicator registry', () => {
     expect(findIndicator('AP')?.unit).toBe('mol H+ eq.');
   });
 
-  it('SM, CRU, MFR and MER come from mass flows, not from factors (EN 15804+A2)', () => {
-    expect(INDICATORS.filter((i) => i.basis === 'flows').map((i) => i.code).sort()).toEqual(['CRU', 'MER', 'MFR', 'SM']);
+  it('SM, CRU, MFR, MER and the exported energy EEE, EET come from the product’s own flows, not from factors (EN 15804+A2; field guide §2)', () => {
+    expect(INDICATORS.filter((i) => i.basis === 'flows').map((i) => i.code).sort()).toEqual(['CRU', 'EEE', 'EET', 'MER', 'MFR', 'SM']);
   });
 
   it('sorts into reporting order and matches codes case-insensitively', () => {
