@@ -99,7 +99,7 @@ export class CalcContext {
   private gasFactor(id: string): ResolvedFactor {
     const gas = findGas(id)!;
     const gwp = gas[this.gwpSet];
-    const part = gas.id === 'CH4-nonfossil' ? 'GWP-biogenic' : 'GWP-fossil';
+    const part = gas.id === 'CH4-nonfossil' || gas.id === 'CO2-biogenic' ? 'GWP-biogenic' : 'GWP-fossil';
     const values: Vec = this.indicators.map((code) => (code === 'GWP-total' || code === part ? gwp : 0));
     const referenceId = referenceStep.gwp(this.gwpSet, gas.id);
     return {

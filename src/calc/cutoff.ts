@@ -9,6 +9,8 @@ import type { Inventory, LineFlows, MaterialEol } from './inventory.ts';
 import { driver, sumFigure, useFactor, vectorFigure } from './nodes.ts';
 import { bomCsv } from '../schema/bom.ts';
 import { addScaled, scaled, zeros } from './vector.ts';
+import { packagingEndOfLife, type PackagingEndOfLife } from './packaging.ts';
+import { declaresModule } from '../model/declared-modules.ts';
 
 /** Modules in EN 15804+A2 order. A4 and A5 appear only when the product has rows for them. */
 export const CUTOFF_MODULES = ['A1', 'A2', 'A3', 'A1-A3', 'A4', 'A5', 'C1', 'C2', 'C3', 'C4', 'D'] as const;
@@ -18,6 +20,8 @@ export interface CutoffResult {
   /** Figure id of each declared module. */
   modules: Partial<Record<CutoffModule, string>>;
   total: string;
+  /** The packaging's end of life, where A5 is declared. */
+  packaging?: PackagingEndOfLife;
   /** Sub-figures the other methods reuse. */
   parts: {
     a2: string;
@@ -81,11 +85,15 @@ export function cutoff(ctx: CalcContext, graph: FigureGraph, inv: Inventory, row
 
   const a13 = sumFigure(graph, cutoffStep.module('A1-A3'), [a1.id, a2.id, a3.id], 'A1-A3 = A1 + A2 + A3', 'Cradle to gate.');
 
-  // A4, A5: only where the product has rows for them.
+  // A4, A5: where declaration.json declares them, or the product has rows for them.
   const a4Ids = [...transportFigures(ctx, graph, 'A4', inv, rows.transport, factor), ...activities('A4')];
-  const a5Ids = activities('A5');
-  const a4 = a4Ids.length > 0 ? sumFigure(graph, cutoffStep.module('A4'), a4Ids, 'A4 = Σ legs and activities', 'Transport to the site.').id : undefined;
-  const a5 = a5Ids.length > 0 ? sumFigure(graph, cutoffStep.module('A5'), a5Ids, 'A5 = Σ activities', 'Installation.').id : undefined;
+  const a4 = a4Ids.length > 0 || declaresModule(ctx.project.declaration, rows, 'A4') ? sumFigure(graph, cutoffStep.module('A4'), a4Ids, 'A4 = Σ legs and activities', 'Transport to the site.').id : undefined;
+  // The packaging's end of life is part of A5 where A5 is declared (EN 15804+A2).
+  const packagingWaste = declaresModule(ctx.project.declaration, rows, 'A5') ? packagingEndOfLife(ctx, graph, inv, factor) : undefined;
+  const a5Ids = [...(packagingWaste?.a5 ?? []), ...activities('A5')];
+  const a5 = packagingWaste
+    ? sumFigure(graph, cutoffStep.module('A5'), a5Ids, 'A5 = Σ packaging end of life + Σ activities', 'Installation: the waste processing and disposal of the packaging, the release of its biogenic carbon, and installation activities.').id
+    : undefined;
 
   // C1–C4 and D, per material of the product.
   const c1 = sumFigure(graph, cutoffStep.module('C1'), activities('C1'), 'C1 = Σ C1 activities', 'De-construction and demolition.');
@@ -148,11 +156,13 @@ export function cutoff(ctx: CalcContext, graph: FigureGraph, inv: Inventory, row
   const c3Energy = sumFigure(graph, cutoffStep.part('C3', 'energy-recovery'), c3EnergyIds, 'Σ M_eol·energy_recovery·E_inc', 'Incineration with energy recovery.');
   const c3 = sumFigure(graph, cutoffStep.module('C3'), [c3Processing.id, c3Energy.id], 'C3 = processing + energy recovery', 'Waste processing up to the end-of-waste state.');
   const c4 = sumFigure(graph, cutoffStep.module('C4'), [...c4Ids, ...activities('C4')], 'C4 = Σ M_eol·(landfill·ED + incineration·E_inc) + C4 activities', 'Disposal.');
+  dIds.push(...(packagingWaste?.d ?? []));
   const moduleDSum = sumFigure(graph, cutoffStep.module('D'), dIds, 'D = Σ materials (M_MR,out − M_MR,in)·(E_MR − E_VMSub·Q) + energy recovery', 'Benefits and loads beyond the system boundary (EN 15804+A2 Annex D); declared separately and not added to A–C.');
 
   const totalIds = [a1.id, a2.id, a3.id, ...(a4 ? [a4] : []), ...(a5 ? [a5] : []), c1.id, c2.id, c3.id, c4.id];
   const total = sumFigure(graph, cutoffStep.module('total'), totalIds, `total = ${totalIds.map(cutoffModuleOf).join(' + ')}`, 'Sum of the declared modules A1 to C4; module D is not added (EN 15804+A2).');
   return {
+    ...(packagingWaste ? { packaging: packagingWaste } : {}),
     modules: { A1: a1.id, A2: a2.id, A3: a3.id, 'A1-A3': a13.id, ...(a4 ? { A4: a4 } : {}), ...(a5 ? { A5: a5 } : {}), C1: c1.id, C2: c2.id, C3: c3.id, C4: c4.id, D: moduleDSum.id },
     total: total.id,
     parts: { a2: a2.id, a3Activities: a3Activities.id, a3ScrapDisposal: a3Scrap.id, ...(a4 ? { a4 } : {}), ...(a5 ? { a5 } : {}), c1: c1.id, c2: c2.id, c3Processing: c3Processing.id },

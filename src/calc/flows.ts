@@ -1,9 +1,10 @@
 import { cellTerm, figureTerm, type FigureGraph, type Term } from '../trace/graph.ts';
-import { cutoffStep, flowStep, inventoryStep, referenceStep } from '../trace/ids.ts';
+import { cutoffStep, flowStep, inventoryStep } from '../trace/ids.ts';
 import type { CalcContext } from './context.ts';
-import type { Inventory } from './inventory.ts';
+import type { Inventory, MaterialEol } from './inventory.ts';
 
 import { CO2_PER_C } from '../reference/constants.ts';
+import { co2PerCStep } from './nodes.ts';
 
 export interface FlowsResult {
   /** Module → flow indicator code → figure id. */
@@ -27,7 +28,7 @@ const FLOW_UNITS: Record<FlowCode, string> = { SM: 'kg', CRU: 'kg', MFR: 'kg', M
  * efficiency). Every module gets a figure for each, zero where no such flow arises, so a
  * reported 0 is a computed 0.
  */
-export function flows(ctx: CalcContext, graph: FigureGraph, inv: Inventory, modules: readonly string[], totalModules: readonly string[]): FlowsResult {
+export function flows(ctx: CalcContext, graph: FigureGraph, inv: Inventory, modules: readonly string[], totalModules: readonly string[], packagingWaste?: readonly MaterialEol[]): FlowsResult {
   const eol = ctx.project.eol;
   const scalar = (id: string, value: number, unit: string, formula: string, description: string, terms: Term[]) => {
     graph.add({ kind: 'scalar', id, value, unit, formula, description, terms });
@@ -35,18 +36,18 @@ export function flows(ctx: CalcContext, graph: FigureGraph, inv: Inventory, modu
   };
   const sum = (parts: Array<{ value: number; terms: Term[] }>) => ({ value: parts.reduce((t, p) => t + p.value, 0), terms: parts.flatMap((p) => p.terms) });
   const secondary = (lines: typeof inv.lines) => sum(lines.map((l) => ({ value: l.grossKg * l.r1, terms: [figureTerm(l.ids.gross, `G(${l.line.line_id})`), figureTerm(l.ids.r1, `R1(${l.line.line_id})`)] })));
-  const perMaterial = (column: 'recycling' | 'energy_recovery' | 'reuse') =>
-    sum(inv.materials.map((m) => ({ value: m.massKg * m.eol.value[column], terms: [figureTerm(m.ids.mass, `M_eol(${m.materialId})`), cellTerm(ctx.cell(eol, m.eol, column), column)] })));
+  const perMaterial = (column: 'recycling' | 'energy_recovery' | 'reuse', materials: readonly MaterialEol[] = inv.materials, symbol = 'M_eol') =>
+    sum(materials.map((m) => ({ value: m.massKg * m.eol.value[column], terms: [figureTerm(m.ids.mass, `${symbol}(${m.materialId})`), cellTerm(ctx.cell(eol, m.eol, column), column)] })));
   // Exported energy: only where module D credits it (a heating value, and energy_recovery in declaration.json).
   const recovery = ctx.project.declaration.energy_recovery;
-  const exported = (efficiency: 'electricity_efficiency' | 'heat_efficiency') =>
+  const exported = (efficiency: 'electricity_efficiency' | 'heat_efficiency', materials: readonly MaterialEol[] = inv.materials, symbol = 'M_eol') =>
     sum(
-      inv.materials
+      materials
         .filter((m) => recovery && m.eol.value.energy_recovery > 0 && (m.material.value.lhv_mj_per_kg ?? 0) > 0)
         .map((m) => ({
           value: m.massKg * m.eol.value.energy_recovery * m.material.value.lhv_mj_per_kg! * recovery![efficiency],
           terms: [
-            figureTerm(m.ids.mass, `M_eol(${m.materialId})`),
+            figureTerm(m.ids.mass, `${symbol}(${m.materialId})`),
             cellTerm(ctx.cell(eol, m.eol, 'energy_recovery'), `energy_recovery(${m.materialId})`),
             cellTerm(ctx.cell(ctx.project.materials, m.material, 'lhv_mj_per_kg'), `LHV(${m.materialId})`),
             cellTerm(ctx.declarationCell(['energy_recovery', efficiency]), efficiency === 'electricity_efficiency' ? 'η_el' : 'η_heat'),
@@ -62,6 +63,17 @@ export function flows(ctx: CalcContext, graph: FigureGraph, inv: Inventory, modu
       SM: { ...secondary(inv.packagingLines), formula: 'SM = Σ packaging lines G·R1', description: 'Secondary material in the packaging.' },
       MFR: { ...scrapToRecycling, formula: 'MFR = Σ process scrap sent to recycling', description: 'Process scrap leaving manufacturing for recycling.' },
     },
+    ...(packagingWaste
+      ? {
+          A5: {
+            MFR: { ...perMaterial('recycling', packagingWaste, 'M_pack'), formula: 'MFR = Σ M_pack·recycling', description: 'Packaging waste sent to recycling.' },
+            MER: { ...perMaterial('energy_recovery', packagingWaste, 'M_pack'), formula: 'MER = Σ M_pack·energy_recovery', description: 'Packaging waste sent to energy recovery.' },
+            CRU: { ...perMaterial('reuse', packagingWaste, 'M_pack'), formula: 'CRU = Σ M_pack·reuse', description: 'Packaging for re-use.' },
+            EEE: { ...exported('electricity_efficiency', packagingWaste, 'M_pack'), formula: 'EEE = Σ M_pack·energy_recovery·LHV·η_el', description: 'Electrical energy exported by the energy recovery of the packaging waste.' },
+            EET: { ...exported('heat_efficiency', packagingWaste, 'M_pack'), formula: 'EET = Σ M_pack·energy_recovery·LHV·η_heat', description: 'Thermal energy exported by the energy recovery of the packaging waste.' },
+          },
+        }
+      : {}),
     C3: {
       MFR: { ...perMaterial('recycling'), formula: 'MFR = Σ M_eol·recycling', description: 'End-of-life material sent to recycling.' },
       MER: { ...perMaterial('energy_recovery'), formula: 'MER = Σ M_eol·energy_recovery', description: 'End-of-life material sent to energy recovery.' },
@@ -122,8 +134,7 @@ export function flows(ctx: CalcContext, graph: FigureGraph, inv: Inventory, modu
     }
     return scalar(id, value, 'kg C', 'Σ m·c', `Biogenic carbon content of the ${what}.`, terms);
   };
-  const ratioId = referenceStep.co2PerC;
-  graph.add({ kind: 'scalar', id: ratioId, value: CO2_PER_C, unit: 'kg CO2 per kg C', formula: '44/12', description: 'Molar mass of CO2 over that of C (EN 16449).', terms: [] });
+  const ratioId = co2PerCStep(graph);
   const product = carbon(flowStep.biogenicCarbon('product'), inv.productLines, 'product');
   const packaging = carbon(flowStep.biogenicCarbon('packaging'), inv.packagingLines, 'packaging');
   const co2 = (id: string, of: string, what: string) => scalar(id, graph.scalar(of).value * CO2_PER_C, 'kg CO2', 'C·44/12', `Biogenic carbon of the ${what} as CO2.`, [figureTerm(of, 'C'), figureTerm(ratioId, '44/12')]);

@@ -19,7 +19,7 @@ export interface LineFlows {
   key: string;
 }
 
-/** End-of-life flows of one material of the product (role product). */
+/** End-of-life flows of one material of the product (role product), or of its packaging (M_pack). */
 export interface MaterialEol {
   materialId: string;
   material: Row<Material>;
@@ -70,22 +70,28 @@ export function inventory(ctx: CalcContext, graph: FigureGraph, product: Row<Pro
   const productLines = lines.filter((l) => l.line.role === 'product');
   const packagingLines = lines.filter((l) => l.line.role === 'packaging');
 
-  const byMaterial = new Map<string, LineFlows[]>();
-  for (const line of productLines) {
-    const list = byMaterial.get(line.line.material) ?? [];
-    list.push(line);
-    byMaterial.set(line.line.material, list);
-  }
-  const materials = [...byMaterial.entries()].map(([materialId, materialLines]): MaterialEol => {
-    const id = inventoryStep.material(materialId, 'M_eol');
-    const massKg = materialLines.reduce((total, l) => total + l.line.mass_kg, 0);
-    scalar(graph, id, massKg, 'kg', 'M_eol = Σ m', `End-of-life mass of ${materialId}: the net mass of its product lines.`, materialLines.map((l) => cellTerm(ctx.cell(bom, l.row, 'mass_kg'), `m(${l.line.line_id})`)));
-    return { materialId, material: ctx.material(materialId), eol: ctx.eolRow(product.value.eol_scenario, materialId), lines: materialLines, massKg, ids: { mass: id } };
-  });
+  const materials = byMaterial(ctx, graph, product, productLines, 'M_eol');
 
   const ids = { gross: inventoryStep.product('G'), mass: inventoryStep.product('M') };
   const grossKg = productLines.reduce((total, l) => total + l.grossKg, 0);
   scalar(graph, ids.gross, grossKg, 'kg', 'G_product = Σ G', 'Gross input of the product’s own lines (role product).', productLines.map((l) => figureTerm(l.ids.gross, `G(${l.line.line_id})`)));
   scalar(graph, ids.mass, materials.reduce((t, m) => t + m.massKg, 0), 'kg', 'M = Σ M_eol', 'Net mass of the product (role product) at end of life.', materials.map((m) => figureTerm(m.ids.mass, `M_eol(${m.materialId})`)));
   return { product, lines, productLines, packagingLines, materials, grossKg, ids };
+}
+
+/**
+ * Lines grouped by material, each with its mass and the end-of-life row of the product's
+ * scenario: the product's materials at end of life (M_eol), or its packaging (M_pack, whose
+ * waste processing is in A5 where A5 is declared).
+ */
+export function byMaterial(ctx: CalcContext, graph: FigureGraph, product: Row<Product>, lines: LineFlows[], flow: 'M_eol' | 'M_pack'): MaterialEol[] {
+  const groups = new Map<string, LineFlows[]>();
+  for (const line of lines) groups.set(line.line.material, [...(groups.get(line.line.material) ?? []), line]);
+  return [...groups.entries()].map(([materialId, materialLines]): MaterialEol => {
+    const id = inventoryStep.material(materialId, flow);
+    const massKg = materialLines.reduce((total, l) => total + l.line.mass_kg, 0);
+    const what = flow === 'M_eol' ? 'End-of-life mass' : 'Packaging waste';
+    scalar(graph, id, massKg, 'kg', `${flow} = Σ m`, `${what} of ${materialId}: the net mass of its ${flow === 'M_eol' ? 'product' : 'packaging'} lines.`, materialLines.map((l) => cellTerm(ctx.cell(ctx.project.bom, l.row, 'mass_kg'), `m(${l.line.line_id})`)));
+    return { materialId, material: ctx.material(materialId), eol: ctx.eolRow(product.value.eol_scenario, materialId), lines: materialLines, massKg, ids: { mass: id } };
+  });
 }

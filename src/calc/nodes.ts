@@ -1,5 +1,6 @@
 import { figureTerm, type Driver, type FigureGraph, type Term, type VectorNode } from '../trace/graph.ts';
-import { cutoffModuleOf, lastSegment } from '../trace/ids.ts';
+import { cutoffModuleOf, lastSegment, referenceStep } from '../trace/ids.ts';
+import { CO2_PER_C } from '../reference/constants.ts';
 import { zeros, add, type Vec } from './vector.ts';
 
 /** Adds a vector figure. */
@@ -25,3 +26,10 @@ export function useFactor(graph: FigureGraph, figure: string, factor: string, am
 
 /** One driver cell with the whole of the amount. */
 export const driver = (file: string, line: number, column: string, share = 1): Driver => ({ file, line, column, share });
+
+/** 44/12 as a reference step, made once per graph. */
+export function co2PerCStep(graph: FigureGraph): string {
+  const id = referenceStep.co2PerC;
+  if (!graph.get(id)) graph.add({ kind: 'scalar', id, value: CO2_PER_C, unit: 'kg CO2 per kg C', formula: '44/12', description: 'Molar mass of CO2 over that of C (EN 16449).', terms: [] });
+  return id;
+}

@@ -28,7 +28,7 @@ export function calculateProduct(ctx: CalcContext, rows: ProductRows): ProductRe
   const inv = inventory(ctx, graph, rows.product, rows.bom);
   const cut = cutoff(ctx, graph, inv, { activities: rows.activities, transport: rows.transport, site: rows.site });
   const modules = Object.keys(cut.modules);
-  const flowResult = flows(ctx, graph, inv, modules, modules.filter((m) => m !== 'A1-A3' && m !== 'D'));
+  const flowResult = flows(ctx, graph, inv, modules, modules.filter((m) => m !== 'A1-A3' && m !== 'D'), cut.packaging?.materials);
   const methods: ProductResult['methods'] = {};
   const chosen = reportedMethods(ctx);
   const shared = chosen.length > 0 ? cffSharedParts(ctx, graph, inv) : undefined;

@@ -23,6 +23,8 @@ export const GWP_SOURCES: Record<GwpSet, string> = {
 
 export const GREENHOUSE_GASES: readonly GreenhouseGas[] = [
   { id: 'CO2', name: 'carbon dioxide', AR6: 1, AR5: 1 },
+  // Biogenic CO2 counts in GWP-biogenic with +1 for a release and −1 for an uptake (EN 15804+A2, the −1/+1 rule).
+  { id: 'CO2-biogenic', name: 'carbon dioxide, biogenic', AR6: 1, AR5: 1 },
   { id: 'CH4-fossil', name: 'methane, fossil', AR6: 29.8, AR5: 28 },
   { id: 'CH4-nonfossil', name: 'methane, non-fossil', AR6: 27.0, AR5: 28 },
   { id: 'N2O', name: 'nitrous oxide', AR6: 273, AR5: 265 },

@@ -35,6 +35,8 @@ export interface DeclarationResultsView {
   significantFigures: number;
   /** Each life-cycle module, whether it is declared, and whether it is reported apart (module D, beyond the system boundary). */
   boundary: Array<{ code: string; stage: string; name: string; declared: boolean; apart: boolean }>;
+  /** Where the product has packaging but A5 is not declared: what is left out, said on the page. */
+  packagingNotDeclared?: string;
   modules: Array<{ code: string; moduleD: boolean }>;
   tables: ResultsTableView[];
   recycledContent: Array<{ label: string; cell: FigureCell }>;
@@ -117,6 +119,11 @@ export function declarationResultsView(ctx: CalcContext, rows: ProductRows, resu
   const tables: ResultsTableView[] = groupedTables(json.indicators, (code) => moduleCodes.map((module) => cell(cutoff.modules[module]?.[code], resultFigureId('cutoff', module, code), module === 'D')));
 
   const boundary = LIFE_CYCLE_MODULES.map((m) => ({ ...m, declared: moduleCodes.includes(m.code), apart: m.apart === true }));
+  const packagingLines = rows.bom.filter((line) => line.value.role === 'packaging');
+  const packagingNotDeclared =
+    packagingLines.length > 0 && !moduleCodes.includes('A5')
+      ? `A5 is not declared, so the end of life of this product’s packaging (${packagingLines.map((line) => `${line.value.component}, ${formatInput(line.value.mass_kg)} kg`).join('; ')}) is left out: its waste processing, its disposal and the release of the biogenic carbon it took up in A1–A3 are not in these results. Its production is in A3.`
+      : undefined;
 
   const rc = json.flows.recycled_content;
   const recycledContent = [
@@ -169,7 +176,7 @@ export function declarationResultsView(ctx: CalcContext, rows: ProductRows, resu
   const dataQuality = json.data_quality ? dataQualityView(json.data_quality, factorHref) : undefined;
   const sensitivity = json.sensitivity ? sensitivityView(json.sensitivity, digits) : undefined;
   const uncertainty = json.uncertainty ? uncertaintyView(json.uncertainty, sci) : undefined;
-  return { significantFigures: digits, boundary, modules, tables, recycledContent, biogenic, comparison, charts, processes: processModels(ctx, result, sci), headline, ...(dataQuality ? { dataQuality } : {}), ...(sensitivity ? { sensitivity } : {}), ...(uncertainty ? { uncertainty } : {}) };
+  return { significantFigures: digits, boundary, ...(packagingNotDeclared ? { packagingNotDeclared } : {}), modules, tables, recycledContent, biogenic, comparison, charts, processes: processModels(ctx, result, sci), headline, ...(dataQuality ? { dataQuality } : {}), ...(sensitivity ? { sensitivity } : {}), ...(uncertainty ? { uncertainty } : {}) };
 }
 
 function chartsOf(ctx: CalcContext, rows: ProductRows, result: ProductResult, json: ResultsSummary, code: string, sci: (v: number | null | undefined) => string): ChartView[] {

@@ -4,6 +4,8 @@ import { nearestName } from '../reference/nearest.ts';
 import { isIsoDate, report, reportAt } from './cells.ts';
 
 export const METHODS = ['cutoff', 'cff', 'eol-recycling', 'fifty-fifty'] as const;
+/** The modules a declaration may add to the mandatory A1–A3, C1–C4 and D. */
+export const OPTIONAL_MODULES = ['A4', 'A5'] as const;
 export type Method = (typeof METHODS)[number];
 
 /** The methods a declaration reports: those it names, or every one (declaration.json `methods`, default: all). */
@@ -72,6 +74,10 @@ export const declarationSchema = z
       .array(z.enum(METHODS))
       .optional()
       .meta({ description: 'Recycling-credit methods to report besides cut-off (always computed); default: all.' }),
+    declared_modules: z
+      .array(z.enum(OPTIONAL_MODULES))
+      .optional()
+      .meta({ description: 'Optional modules declared for every product besides A1–A3, C1–C4 and D: A4, A5. A product with activity rows or transport legs in A4 or A5 declares that module too. Where A5 is declared, the packaging’s end of life (waste processing, disposal, release of its biogenic carbon) is computed in A5; where it is not, check and the page say the packaging’s end of life is left out.' }),
     gwp_set: z.enum(['AR6', 'AR5']).default('AR6').meta({ description: 'GWP-100 set for direct greenhouse-gas emissions (ghg:… factors).' }),
     energy_recovery: z
       .object({

@@ -11,7 +11,8 @@
 export type ResultMethod = 'cutoff' | 'cff' | 'eol-recycling' | 'fifty-fifty';
 export type CffPart = 'material' | 'energy' | 'disposal';
 export type LineFlow = 'G' | 'R1' | 'scrap';
-export type MaterialFlow = 'M_eol' | 'M_MR_out' | 'M_MR_in' | 'M_MR_net';
+export type PackagingPart = 'transport' | 'processing' | 'energy-recovery' | 'disposal' | 'biogenic-carbon';
+export type MaterialFlow = 'M_eol' | 'M_MR_out' | 'M_MR_in' | 'M_MR_net' | 'M_pack';
 
 /** A BOM line within a product's steps: `line:<line_id>`, or `packaging:<line_id>` for packaging. */
 export const lineKey = (role: string, lineId: string): string => `${role === 'packaging' ? 'packaging' : 'line'}:${lineId}`;
@@ -36,6 +37,9 @@ export const cutoffStep = {
   material: (module: 'C2' | 'C3' | 'C4' | 'D', material: string) => `cutoff/${module}/material:${material}`,
   energyRecovery: (material: string) => `cutoff/C3/energy-recovery:${material}`,
   exportedEnergy: (material: string) => `cutoff/D/energy:${material}`,
+  /** The end of life of the packaging of one material, in A5 (transport, processing, energy recovery, disposal, biogenic carbon released). */
+  packaging: (part: PackagingPart, material: string) => `cutoff/A5/packaging-${part}:${material}`,
+  packagingEnergy: (material: string) => `cutoff/D/packaging-energy:${material}`,
   /** Sub-totals the other methods reuse. */
   part: (module: 'A3' | 'C3', part: 'activities' | 'scrap-disposal' | 'processing' | 'energy-recovery') => `cutoff/${module}/${part}`,
 };

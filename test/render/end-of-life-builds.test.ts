@@ -63,3 +63,44 @@ describe('a product whose end of life includes energy recovery', () => {
     expect(changed.stdout).toMatch(/P1: factors\.csv line 6/);
   });
 });
+
+/** A metal part in a cardboard box (0.4 kg C per kg) sent to recycling by the scenario. */
+const packed = (declaration: Record<string, unknown>) =>
+  writeFixture({
+    bom: 'product_id,line_id,component,material,role,mass_kg,source\nP1,L1,Part,m1,product,1,test\nP1,P1,Box,board,packaging,0.1,test',
+    materials: 'material,name,family,virgin,landfill,biogenic_c_kg_per_kg\nm1,Metal,metal,ev,ed,0\nboard,Cardboard,paper,board-made,ed,0.4',
+    eol: 'scenario,material,recycling,landfill,recycling_yield,transport_km,processing_factor\ns1,*,0,1,1,0,\ns1,board,1,0,0.9,0,sorting',
+    factors: 'factor_id,name,unit,dataset,GWP-total,GWP-fossil,GWP-biogenic,GWP-luluc\nev,virgin,kg,test,2,2,0,0\ned,landfill,kg,test,0.01,0.01,0,0\nboard-made,board,kg,test,-1.2,0.27,-1.467,0\nsorting,sorting,kg,test,0.02,0.02,0,0',
+    declaration: { methods: ['cutoff'], ...declaration },
+  });
+
+describe('a product with packaging, end to end', () => {
+  it('declares A5 with the packaging’s end of life and the release of its biogenic carbon, on the page and in results.json', async () => {
+    const data = await packed({ declared_modules: ['A5'] });
+    dirs.push(data);
+    const out = path.join(await tempDir(), 'out');
+    dirs.push(path.dirname(out));
+    const built = await runCli(['build', '--data', data, '--out', out, '--no-pdf']);
+    expect(built.code, built.stderr).toBe(0);
+    const results = JSON.parse(await readFile(path.join(out, 'P1', 'results.json'), 'utf8')) as { methods: { cutoff: { modules: Record<string, Record<string, number>> } } };
+    // 0.1 kg · 1 · 0.02 processing + 0.1 · 0.4 · 44/12 biogenic CO2 released (−1/+1).
+    expect(results.methods.cutoff.modules.A5!['GWP-total']).toBeCloseTo(0.002 + (0.1 * 0.4 * 44) / 12, 12);
+    expect(results.methods.cutoff.modules.A5!.MFR).toBeCloseTo(0.1, 12);
+    const page = await readFile(path.join(out, 'P1', 'index.html'), 'utf8');
+    expect(page).toContain('>A5<');
+    expect(page).not.toContain('A5 is not declared');
+  });
+
+  it('says on the page and in check what is left out where A5 is not declared', async () => {
+    const data = await packed({});
+    dirs.push(data);
+    const check = await runCli(['check', '--data', data]);
+    expect(check.stdout + check.stderr).toContain('PACKAGING_EOL_UNDECLARED');
+    const out = path.join(await tempDir(), 'out');
+    dirs.push(path.dirname(out));
+    expect((await runCli(['build', '--data', data, '--out', out, '--no-pdf'])).code).toBe(0);
+    const page = await readFile(path.join(out, 'P1', 'index.html'), 'utf8');
+    expect(page).toContain('A5 is not declared, so the end of life of this product’s packaging (Box, 0.1 kg) is left out');
+  });
+});
+

@@ -1,7 +1,8 @@
 import type { Problem, ProblemCode, Severity } from '../../problems.ts';
 import { cellProblem, type Row, type Table } from '../../schema/table.ts';
-import type { BomLine, EolRow, FactorRow, Material, Project } from '../types.ts';
-import { eolRowFor } from '../lookups.ts';
+import type { Activity, BomLine, EolRow, FactorRow, Material, Project, TransportLeg } from '../types.ts';
+import { eolRowFor, groupBy } from '../lookups.ts';
+import { declaresModule } from '../declared-modules.ts';
 
 /** The tables, and the declaration when it parsed. */
 export type CheckInput = Omit<Project, 'declaration' | 'declarationFile' | 'declarationCells'> & Partial<Pick<Project, 'declaration' | 'declarationFile'>>;
@@ -42,5 +43,12 @@ export class CheckContext {
 
   material(id: string): Row<Material> | undefined {
     return this.project.lookups.materials.get(id);
+  }
+
+  private moduleRows: { activities: Map<string, Row<Activity>[]>; transport: Map<string, Row<TransportLeg>[]> } | undefined;
+  /** Whether a product declares an optional module (src/model/declared-modules.ts). */
+  declares(productId: string, module: 'A4' | 'A5'): boolean {
+    this.moduleRows ??= { activities: groupBy(this.project.activities.rows, (row) => row.value.product_id), transport: groupBy(this.project.transport.rows, (row) => row.value.product_id) };
+    return declaresModule(this.project.declaration, { activities: this.moduleRows.activities.get(productId) ?? [], transport: this.moduleRows.transport.get(productId) ?? [], site: this.project.allocation.byProduct.get(productId) ?? [] }, module);
   }
 }

@@ -24,6 +24,16 @@ export function factorRequirements(ctx: CheckContext): void {
     if (b.scrap_rate > 0 && b.scrap_fate === 'landfill') need(b.material, 'landfill', `${where} sends its process scrap to landfill`);
     if (b.scrap_rate > 0 && b.scrap_fate === 'incineration') need(b.material, 'incineration', `${where} sends its process scrap to incineration`);
     if (b.scrap_rate > 0 && b.scrap_fate === 'recycled') need(b.material, 'eol_recycling', `${where} sends process scrap to recycling (module D)`);
+    if (b.role === 'packaging') {
+      // Packaging waste is treated in A5 where A5 is declared: landfill, incineration, energy recovery.
+      const eolRow = ctx.declares(b.product_id, 'A5') ? ctx.eolRowOf(b) : undefined;
+      if (!eolRow) continue;
+      const route = `eol.csv line ${eolRow.line} sends the packaging of bom.csv line ${line.line} (A5)`;
+      if (eolRow.value.landfill > 0) need(b.material, 'landfill', `${route} to landfill`);
+      if (eolRow.value.incineration > 0) need(b.material, 'incineration', `${route} to incineration`);
+      if (eolRow.value.energy_recovery > 0) need(b.material, 'incineration', `${route} to incineration with energy recovery`);
+      continue;
+    }
     if (b.role !== 'product') continue;
     const eolRow = ctx.eolRowOf(b);
     if (!eolRow) continue;

@@ -8,6 +8,7 @@ import { unitRules } from './units.ts';
 import { factorCompleteness } from './factor-completeness.ts';
 import { gwpConsistency } from './gwp-consistency.ts';
 import { energyRecoveryRules } from './energy-recovery.ts';
+import { packagingRules } from './packaging.ts';
 import { provenanceWarnings } from './provenance.ts';
 import { declarationRules } from './declaration.ts';
 
@@ -29,6 +30,7 @@ export function crossFileChecks(project: CheckInput): Problem[] {
   factorCompleteness(ctx);
   gwpConsistency(ctx);
   energyRecoveryRules(ctx);
+  packagingRules(ctx);
   provenanceWarnings(ctx);
   declarationRules(ctx);
   return problems;
