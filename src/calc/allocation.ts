@@ -4,7 +4,7 @@ import type { Row } from '../schema/table.ts';
 import { cellTerm, figureTerm, type FigureGraph, type Term } from '../trace/graph.ts';
 import { conversionTerm, type CalcContext, type ResolvedFactor } from './context.ts';
 import { driver, useFactor, vectorFigure } from './nodes.ts';
-import { allocationStep, cutoffStep } from '../trace/ids.ts';
+import { allocationStep, cutoffStep, plantsOutputStep } from '../trace/ids.ts';
 import { scaled } from './vector.ts';
 
 /**
@@ -26,19 +26,36 @@ export function siteFigures(ctx: CalcContext, graph: FigureGraph, module: string
       const resolved = factor(siteRow.factor);
       const conversion = conversionTerm(graph, siteRow.unit, resolved.unit);
       const share = shareFigure(ctx, graph, shared);
-      const perUnit = (siteRow.amount * shared.share) / shared.production.value.output;
+      // A parallel plant divides by the product's output at every plant; a stage by its own.
+      const output = shared.plants ? shared.plants.total : shared.production.value.output;
+      const perUnit = (siteRow.amount * shared.share) / output;
       const id = cutoffStep.site(module, shared.row.line);
       useFactor(graph, id, siteRow.factor, perUnit * conversion.factor, [[driver(site.file, shared.row.line, 'amount')]]);
-      vectorFigure(graph, id, scaled(resolved.values, perUnit * conversion.factor), `amount·share/output${conversion.terms.length ? '·(unit→factor unit)' : ''}·F`, `${siteRow.activity}: ${shared.group.site}, ${shared.group.period}, shared by ${shared.key.name}.`, [
+      const outputName = shared.plants ? 'Σ plants output' : 'output';
+      vectorFigure(graph, id, scaled(resolved.values, perUnit * conversion.factor), `amount·share/${shared.plants ? 'Σ plants output' : 'output'}${conversion.terms.length ? '·(unit→factor unit)' : ''}·F`, `${siteRow.activity}: ${shared.group.site}, ${shared.group.period}, shared by ${shared.key.name}${shared.plants ? `, one of the ${shared.plants.outputs.length} plants that make the product` : ''}.`, [
         cellTerm(ctx.cell(site, shared.row, 'amount'), 'amount'),
         cellTerm(ctx.cell(site, shared.row, 'unit'), 'unit'),
         figureTerm(share, 'share'),
-        cellTerm(ctx.cell(ctx.project.production, shared.production, 'output'), 'output'),
+        shared.plants ? figureTerm(plantsFigure(ctx, graph, shared), outputName) : cellTerm(ctx.cell(ctx.project.production, shared.production, 'output'), outputName),
         ...conversion.terms,
         resolved.term('F'),
       ]);
       return id;
     });
+}
+
+/** The product's output summed over its parallel plants, once per graph. */
+function plantsFigure(ctx: CalcContext, graph: FigureGraph, shared: AllocatedRow): string {
+  const id = plantsOutputStep(shared.production.value.product_id);
+  if (graph.get(id)) return id;
+  const production = ctx.project.production;
+  graph.add({
+    kind: 'scalar', id, value: shared.plants!.total, unit: 'declared units',
+    formula: `Σ output over the ${shared.plants!.outputs.length} parallel plants`,
+    description: `The product’s output at every site that makes the whole of it (production.csv site_role parallel): each plant’s amounts count in proportion to its share of it.`,
+    terms: shared.plants!.outputs.map((row) => cellTerm(ctx.cell(production, row, 'output'), `output[${row.value.site_id}]`)),
+  });
+  return id;
 }
 
 /** A step of a site period's key: the product's key, Σ keys or its share. */

@@ -33,7 +33,7 @@ export interface Family {
 
 /**
  * Reads families.csv: members in file order, each with its weight (the weight cell, else the
- * product's production.csv output summed over its sites), a name per family and one declared
+ * product's production.csv output, counted once: `productOutput`), a name per family and one declared
  * unit for all members (an average over metres and pieces means nothing). Unknown products
  * are reported by the reference checks and left out here.
  */
@@ -72,12 +72,25 @@ export function readFamilies(table: Table<FamilyRow>, products: Table<Product>, 
       at(row, 'weight', 'VALUE_REQUIRED', `is empty, and production.csv has no output for ${productId} to weight it by`, 'a positive weight (e.g. annual output in declared units), or rows for the product in production.csv');
       continue;
     }
+    const counted = productOutput(made);
     family.members.push({
       productId, row,
-      weight: made.reduce((sum, p) => sum + p.value.output, 0),
-      weightCells: made.map((p) => ({ file: production.file, line: p.line, column: 'output', value: p.raw.output ?? '' })),
+      weight: counted.reduce((sum, p) => sum + p.value.output, 0),
+      weightCells: counted.map((p) => ({ file: production.file, line: p.line, column: 'output', value: p.raw.output ?? '' })),
     });
   }
   for (const family of byId.values()) if (!family.name) family.name = family.id;
   return { families: [...byId.values()], problems };
+}
+
+/**
+ * The production rows that count a product's output once: the sum over its parallel plants
+ * (each makes the whole product), or — made in stages only, each stage handling the same
+ * units — the largest stage's output (the stages' outputs differ by stock and yield alone).
+ */
+export function productOutput(rows: readonly Row<ProductionRow>[]): Row<ProductionRow>[] {
+  const plants = rows.filter((row) => row.value.site_role === 'parallel');
+  if (plants.length > 0) return plants;
+  const largest = rows.reduce<Row<ProductionRow> | undefined>((best, row) => (best === undefined || row.value.output > best.value.output ? row : best), undefined);
+  return largest ? [largest] : [];
 }

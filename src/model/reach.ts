@@ -51,7 +51,8 @@ export function reachedRows(project: Project, rows: ProductRows): ReachedRows {
   // Site data: the rows shared to the product, and the production of every product of their periods (the shares rest on it).
   const siteRows = [...new Set(rows.site.map((a) => a.row))];
   const groups = [...new Set(rows.site.map((a) => a.group))];
-  const productionRows = groups.flatMap((group) => group.production);
+  // A parallel plant's per-unit amounts divide by the product's output at every plant.
+  const productionRows = [...new Set([...groups.flatMap((group) => group.production), ...rows.site.flatMap((a) => a.plants?.outputs ?? [])])];
   const massKeyed = new Set(rows.site.filter((a) => a.key.name === 'mass').flatMap((a) => a.group.production.map((p) => p.value.product_id)));
   const siteProducts = inFileOrder([...massKeyed].map((id) => index.products.get(id)));
   // The families it belongs to: its page names them.

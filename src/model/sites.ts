@@ -21,6 +21,12 @@ export type ProductionRow = RowOf<typeof productionCsv>;
  * where key is output × unit_mass_kg (mass), output (declared_unit) or the product's cell of
  * a production.csv column the row names (machine_hours). The shares of a key add up to 1,
  * so the allocated amounts of a row add up to the metered amount over the period's output.
+ *
+ * A product made at several sites: a site that is one stage the product passes through
+ * (site_role stage, the default) adds its amount per unit to the other stages'; a site that is
+ * one of several plants each making the whole product (site_role parallel) divides by the
+ * product's output at all those plants instead of its own, so each plant counts in proportion
+ * to its share of the output: amount × key_p / Σ_q key_q ÷ Σ_plants output_p.
  */
 export interface AllocationKey {
   /** mass, declared_unit, or the production.csv column. */
@@ -49,6 +55,12 @@ export interface AllocatedRow {
   key: AllocationKey;
   /** key_p / Σ keys. */
   share: number;
+  /**
+   * Where the site is one of several plants that each make the whole product (production.csv
+   * site_role parallel): the product's output at every such plant, whose sum its per-unit
+   * amounts are divided by instead of the output at this site alone.
+   */
+  plants?: { outputs: Row<ProductionRow>[]; total: number };
 }
 
 export interface SiteAllocation {
@@ -166,6 +178,15 @@ export function readSites(site: Table<SiteRow>, production: Table<ProductionRow>
       }
       byProduct.set(p.value.product_id, list);
     }
+  }
+  // Parallel plants: a product's output summed over the sites that each make the whole of it.
+  const parallel = new Map<string, Row<ProductionRow>[]>();
+  for (const row of production.rows) if (row.value.site_role === 'parallel') parallel.set(row.value.product_id, [...(parallel.get(row.value.product_id) ?? []), row]);
+  for (const [productId, list] of byProduct) {
+    const outputs = parallel.get(productId);
+    if (!outputs) continue;
+    const plants = { outputs, total: outputs.reduce((sum, row) => sum + row.value.output, 0) };
+    for (const allocated of list) if (allocated.production.value.site_role === 'parallel') allocated.plants = plants;
   }
   for (const list of byProduct.values()) list.sort((a, b) => a.row.line - b.row.line);
   return { allocation: { groups: [...groups.values()], byProduct }, problems };

@@ -85,6 +85,8 @@ export function processStepOf(step: string): { processId: string; name: string }
 
 /** Site rows shared among products (ISO 14044 §4.3.4): the key, Σ keys and share of one site, period and key. */
 export const allocationStep = (site: string, period: string, key: string, part: 'key' | 'total' | 'share') => `allocation/${site}/${period}/${key}/${part}`;
+/** A product's output summed over the parallel plants that each make the whole of it. */
+export const plantsOutputStep = (productId: string) => `allocation/parallel-plants:${productId}/output`;
 
 /** A figure id: a step, or a vector step's value for one indicator. */
 export const figureId = (step: string, indicator?: string): string => (indicator === undefined ? step : `${step}/${indicator}`);

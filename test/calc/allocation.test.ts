@@ -4,6 +4,10 @@ import path from 'node:path';
 import { compute, writeFixture } from './fixture.ts';
 import { DEMO } from '../helpers.ts';
 import { loadProject } from '../../src/model/project.ts';
+import { productOutput } from '../../src/model/families.ts';
+import { ProductPipeline } from '../../src/pipeline/product.ts';
+import { productReach } from '../../src/model/reach.ts';
+import { readsOutside } from '../../src/render/input-key.ts';
 
 /**
  * Site-level data allocated to products (ISO 14044 §4.3.4: partition by a physical
@@ -120,6 +124,51 @@ describe('other keys', () => {
   it('refuses an output of zero at its cell', async () => {
     const { problems } = await loadProject(await site({ production: 'site_id,period,product_id,output,source\nS,2025,P1,0,records\nS,2025,P2,2000,records\n' }));
     expect(problems).toContainEqual(expect.objectContaining({ severity: 'error', code: 'OUT_OF_RANGE', file: 'production.csv', line: 2, column: 'output', value: '0' }));
+  });
+});
+
+/**
+ * One product made at two sites, hand-worked (ISO 14044 §4.3.4; the amounts are per period,
+ * divided by the product's output). P1 is the only product of S1 and S2.
+ *   stages (a billet cast at S1, extruded at S2; 100 units through each):
+ *     1 000 kWh / 100 + 500 kWh / 100 = 15 kWh per unit, 7.5 kg CO2 eq.
+ *   parallel plants (the whole product pressed at S1, 60 units, and at S2, 40 units):
+ *     (600 kWh + 800 kWh) / 100 units = 14 kWh per unit = 10 kWh · 0.6 + 20 kWh · 0.4, 7 kg CO2 eq.
+ *     (read as stages it would be 600/60 + 800/40 = 30 kWh: double the output-weighted mean).
+ */
+describe('a product made at two sites: stages add, parallel plants weigh by output', async () => {
+  const twoSites = (role: string, amounts: [number, number], outputs: [number, number]) =>
+    site({
+      site: `site_id,period,module,activity,factor,amount,unit,allocation,source
+S1,2025,A3,Electricity S1,elec,${amounts[0]},kWh,declared_unit,meter
+S2,2025,A3,Electricity S2,elec,${amounts[1]},kWh,declared_unit,meter\n`,
+      production: `site_id,period,product_id,output,source,site_role
+S1,2025,P1,${outputs[0]},records,${role}
+S2,2025,P1,${outputs[1]},records,${role}\n`,
+    });
+  const siteGwp = (p: Awaited<ReturnType<typeof compute>>[number]) => (gwp(p.figures, 'cutoff/A3/site:2') ?? NaN) + (gwp(p.figures, 'cutoff/A3/site:3') ?? NaN);
+
+  it('stages: 1 000/100 + 500/100 = 15 kWh per unit (7.5 kg CO2 eq.)', async () => {
+    const [p1] = await compute(await twoSites('stage', [1000, 500], [100, 100]));
+    expect(siteGwp(p1!)).toBeCloseTo(7.5, 12);
+  });
+
+  it('parallel plants: (600 + 800)/(60 + 40) = 14 kWh per unit (7 kg CO2 eq.), with the plants’ output as a figure', async () => {
+    const [p1] = await compute(await twoSites('parallel', [600, 800], [60, 40]));
+    expect(siteGwp(p1!)).toBeCloseTo(7, 12);
+    expect(p1!.figures['allocation/parallel-plants:P1/output']?.value).toBe(100);
+    // Every output cell the figure reads is in the product's input key (build --changed).
+    const { project } = await loadProject(await twoSites('parallel', [600, 800], [60, 40]));
+    const pipeline = new ProductPipeline(project!);
+    const rows = pipeline.products()[0]!;
+    expect(readsOutside(project!, productReach(project!, rows), pipeline.calculate(rows).graph)).toBeUndefined();
+  });
+
+  it('counts a product’s output once for family weights: the sum over parallel plants, the largest stage', async () => {
+    const { project } = await loadProject(await twoSites('parallel', [600, 800], [60, 40]));
+    expect(productOutput(project!.production.rows).map((row) => row.value.output)).toEqual([60, 40]);
+    const { project: staged } = await loadProject(await twoSites('stage', [600, 800], [100, 98]));
+    expect(productOutput(staged!.production.rows).map((row) => row.value.output)).toEqual([100]);
   });
 });
 
