@@ -73,18 +73,27 @@ describe('family results: weighted mean, range, grouping tolerance (hand-worked)
 });
 
 describe('families.csv', () => {
-  it('weights a member by its production.csv output, summed over its sites, when the weight cell is empty', async () => {
+  it('weights a member by its production.csv output, counted once: summed over parallel plants, the largest of its stages', async () => {
     const dir = await demoCopy();
     dirs.push(dir);
     await editFile(path.join(dir, 'site.csv'), (t) => `${t}ashby-mill,2025,A3,"Offices, electricity",grid-electricity,50000,kWh,mass,meter\n`);
-    await editFile(path.join(dir, 'production.csv'), (t) => `${t}ashby-mill,2025,KV-EXT-6060,100000,records\nashby-mill,2025,KV-CU-BB10,400000,records\n`);
+    // Parallel plants: Norwick makes 1 200 000 m, a second press shop 100 000 m of the same profile.
+    await editFile(path.join(dir, 'production.csv'), (t) => `${t.replace('site_id,period,product_id,output,source', 'site_id,period,product_id,output,source,site_role').replace('KV-EXT-6060,1200000,Norwick production records 2025 (illustrative)', 'KV-EXT-6060,1200000,Norwick production records 2025 (illustrative),parallel')}ashby-mill,2025,KV-EXT-6060,100000,records,parallel\nashby-mill,2025,KV-CU-BB10,400000,records,stage\n`);
     const { project, problems } = await loadProject(dir);
     expect(problems.filter((p) => p.severity === 'error')).toEqual([]);
     const member = project!.families[0]!.members.find((m) => m.productId === 'KV-EXT-6060')!;
     expect(member.weight).toBe(1_200_000 + 100_000);
     expect(member.weightCells.map((c) => `${c.file}:${c.line}`)).toEqual(['production.csv:3', 'production.csv:6']);
-    // The new site's rows reach KV-EXT-6060 too: 50 000 kWh · (0.083 t / 0.483 t) / 100 000 m.
+    // The new site's rows reach KV-EXT-6060 too: 50 000 kWh · (0.083 t / 0.483 t) / 1 300 000 m (its output at both plants).
     expect(project!.allocation.byProduct.get('KV-EXT-6060')!.map((a) => a.group.site)).toEqual(['norwick-press-shop', 'norwick-press-shop', 'norwick-press-shop', 'ashby-mill']);
+    expect(project!.allocation.byProduct.get('KV-EXT-6060')!.at(-1)!.plants?.total).toBe(1_300_000);
+    // As stages (the default) the same rows count the output once: the larger stage.
+    const staged = await demoCopy();
+    dirs.push(staged);
+    await editFile(path.join(staged, 'production.csv'), (t) => `${t}ashby-mill,2025,KV-EXT-6060,100000,records\n`);
+    await editFile(path.join(staged, 'site.csv'), (t) => `${t}ashby-mill,2025,A3,"Offices, electricity",grid-electricity,50000,kWh,mass,meter\n`);
+    const { project: stages } = await loadProject(staged);
+    expect(stages!.families[0]!.members.find((m) => m.productId === 'KV-EXT-6060')!.weight).toBe(1_200_000);
   });
 
   it('refuses a member without a weight or an output, and a second name for the family', async () => {
