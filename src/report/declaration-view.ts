@@ -72,7 +72,7 @@ const GROUPS: Array<{ group: IndicatorGroup; title: string; caption: string }> =
   { group: 'additional', title: 'Additional environmental impact indicators', caption: 'EN 15804+A2 additional impact indicators.' },
   { group: 'resource', title: 'Use of resources', caption: 'Resource use; SM is the product’s own secondary material input.' },
   { group: 'waste', title: 'Waste categories', caption: 'Waste disposed of.' },
-  { group: 'output', title: 'Output flows', caption: 'CRU, MFR and MER are the product’s own mass flows, not factors.' },
+  { group: 'output', title: 'Output flows', caption: 'CRU, MFR and MER are the product’s own mass flows, EEE and EET the energy its own energy recovery exports (mass × share × heating value × efficiency); none is read from factors.' },
 ];
 
 /** Results tables in EN 15804+A2 groups: a row per indicator the results hold, its cells made by the caller. */
