@@ -52,6 +52,7 @@ export const PROBLEM_CODES = {
   SITE_NO_PRODUCTION: 'a site and period of site.csv has no production.csv rows to share its amounts among',
   PRODUCTION_UNUSED: 'production.csv rows of a site and period that site.csv has no amounts for (nothing is allocated)',
   FAMILY_INCONSISTENT: 'rows of one family in families.csv disagree: two names, or members with different declared units',
+  MANDATORY_INDICATOR_MISSING: 'an indicator EN 15804+A2 requires (core, resource use, waste, output flows) is not reported',
   PACKAGING_EOL_UNDECLARED: 'products have packaging whose end of life belongs in A5, which they do not declare (left out of the declaration)',
   BIOGENIC_RELEASE_TWICE: 'a treatment factor of packaging with biogenic carbon releases biogenic CO2 that loopsheet already books from the carbon content',
   PRODUCTION_PERIODS: 'a product has output at the same site in more than one period; a declaration rests on one',

@@ -5,11 +5,11 @@ import { columnsOf } from '../schema/csv-file.ts';
 import { declarationExample } from '../schema/declaration.ts';
 import { FACTOR_BASE_COLUMNS } from '../schema/factors.ts';
 import { columnReference } from '../schema/reference-doc.ts';
-import { INDICATORS } from '../reference/indicators.ts';
+import { INDICATORS, MANDATORY_INDICATORS } from '../reference/indicators.ts';
 import { EXIT, UsageError, type Io } from './io.ts';
 
-/** The indicator columns a new factors.csv starts with: the core set and primary energy and water. */
-const STARTER_INDICATORS = INDICATORS.filter((i) => i.group === 'core' || ['PERT', 'PENRT', 'FW'].includes(i.code)).map((i) => i.code);
+/** The indicator columns a new factors.csv starts with: every one EN 15804+A2 requires that a factor row carries (the flow indicators are computed). */
+const STARTER_INDICATORS = INDICATORS.filter((i) => MANDATORY_INDICATORS.includes(i.code) && i.basis === 'factors').map((i) => i.code);
 
 const csvLine = (cells: string[]) => cells.map((cell) => (/[",\n]/.test(cell) ? `"${cell.replace(/"/g, '""')}"` : cell)).join(',');
 

@@ -1,8 +1,11 @@
+import { readFileSync } from 'node:fs';
+import { parse } from 'csv-parse/sync';
+
 /**
- * The EN 15804:2012+A2:2019 indicator registry: codes, names, units, reporting order and
- * table group (EN 15804+A2 §7.2, tables 3–7). Units and names are written down from
- * memory of the standard; the codes are the standard's own and are the column headers
- * of `factors.csv`.
+ * The EN 15804:2012+A2:2019 indicator registry: codes, reporting order and table group (EN
+ * 15804+A2 §7.2, tables 3–7), with the names, units and UUIDs of the published list of the
+ * open ILCD+EPD format (EF 3.1 characterisation; `reference-data/ilcd-epd/`, copied
+ * unchanged). The codes are the standard's own and are the column headers of `factors.csv`.
  *
  * `basis` says where a value comes from: `factors` — characterised from factor rows;
  * `flows` — computed from the product's own mass and energy flows (SM, CRU, MFR, MER, and
@@ -17,63 +20,54 @@ export interface Indicator {
   unit: string;
   group: IndicatorGroup;
   basis: IndicatorBasis;
+  /** The indicator's UUID in the published list (the ILCD+EPD data set it is exchanged as). */
+  uuid: string;
 }
 
-/** One table of EN 15804+A2 §7.2 as [code, name, unit] rows; `flows` names those computed from the product's mass flows. */
-function table(group: IndicatorGroup, rows: ReadonlyArray<readonly [code: string, name: string, unit: string]>, flows: readonly string[] = []): Indicator[] {
-  return rows.map(([code, name, unit]) => ({ code, name, unit, group, basis: flows.includes(code) ? 'flows' : 'factors' }));
+/** Where the published list is, and its source (for the docs and the pages). */
+export const PUBLISHED_INDICATORS_FILE = 'reference-data/ilcd-epd/identifiers/EN15804+A2_EF3.1_indicators.csv';
+export const PUBLISHED_INDICATORS_SOURCE = 'ILCD+EPD published identifiers, EN 15804+A2 indicators with EF 3.1 (working group InData, Apache-2.0)';
+
+/** The published list names two indicators by their EF abbreviations; EN 15804+A2 codes them so. */
+const EN_CODES: Record<string, string> = { ADPF: 'ADP-fossil', ADPE: 'ADP-minerals&metals' };
+
+/** Code → name, unit and UUID, as the published list writes them ("Use of net fresh water (FW)", "m3"). */
+function publishedList(): Map<string, { name: string; unit: string; uuid: string }> {
+  const text = readFileSync(new URL(`../../${PUBLISHED_INDICATORS_FILE}`, import.meta.url), 'utf8');
+  const rows = parse(text, { columns: true, skip_empty_lines: true, relax_column_count: true }) as Array<Record<string, string>>;
+  const list = new Map<string, { name: string; unit: string; uuid: string }>();
+  for (const row of rows) {
+    const uuid = (row.UUID ?? '').trim();
+    const match = /^(.*)\s+\(([^()]+)\)\s*$/.exec(row['Name (en)'] ?? '');
+    if (!uuid || !match) continue;
+    const written = match[2]!.trim();
+    list.set(EN_CODES[written] ?? written, { name: match[1]!.trim(), unit: (row['Unit (en)'] ?? '').trim(), uuid });
+  }
+  return list;
+}
+const PUBLISHED = publishedList();
+
+/** One table of EN 15804+A2 §7.2, its codes in reporting order; `flows` names those computed from the product's own flows. */
+function table(group: IndicatorGroup, codes: readonly string[], flows: readonly string[] = []): Indicator[] {
+  return codes.map((code) => {
+    const entry = PUBLISHED.get(code);
+    if (!entry) throw new Error(`internal: ${code} is not in ${PUBLISHED_INDICATORS_FILE}`);
+    return { code, ...entry, group, basis: flows.includes(code) ? 'flows' : 'factors' };
+  });
 }
 
 /** In EN 15804+A2 reporting order. */
 export const INDICATORS: readonly Indicator[] = [
-  ...table('core', [
-    ['GWP-total', 'Climate change – total', 'kg CO2 eq.'],
-    ['GWP-fossil', 'Climate change – fossil', 'kg CO2 eq.'],
-    ['GWP-biogenic', 'Climate change – biogenic', 'kg CO2 eq.'],
-    ['GWP-luluc', 'Climate change – land use and land use change', 'kg CO2 eq.'],
-    ['ODP', 'Ozone depletion', 'kg CFC-11 eq.'],
-    ['AP', 'Acidification', 'mol H+ eq.'],
-    ['EP-freshwater', 'Eutrophication, freshwater', 'kg P eq.'],
-    ['EP-marine', 'Eutrophication, marine', 'kg N eq.'],
-    ['EP-terrestrial', 'Eutrophication, terrestrial', 'mol N eq.'],
-    ['POCP', 'Photochemical ozone formation', 'kg NMVOC eq.'],
-    ['ADP-minerals&metals', 'Depletion of abiotic resources – minerals and metals', 'kg Sb eq.'],
-    ['ADP-fossil', 'Depletion of abiotic resources – fossil fuels', 'MJ, net calorific value'],
-    ['WDP', 'Water use', 'm3 world eq. deprived'],
-  ]),
-  ...table('additional', [
-    ['PM', 'Particulate matter emissions', 'disease incidence'],
-    ['IRP', 'Ionising radiation, human health', 'kBq U235 eq.'],
-    ['ETP-fw', 'Ecotoxicity, freshwater', 'CTUe'],
-    ['HTP-c', 'Human toxicity, cancer effects', 'CTUh'],
-    ['HTP-nc', 'Human toxicity, non-cancer effects', 'CTUh'],
-    ['SQP', 'Land use related impacts / soil quality', 'dimensionless'],
-  ]),
-  ...table('resource', [
-    ['PERE', 'Renewable primary energy used as energy carrier', 'MJ'],
-    ['PERM', 'Renewable primary energy used as raw material', 'MJ'],
-    ['PERT', 'Total use of renewable primary energy', 'MJ'],
-    ['PENRE', 'Non-renewable primary energy used as energy carrier', 'MJ'],
-    ['PENRM', 'Non-renewable primary energy used as raw material', 'MJ'],
-    ['PENRT', 'Total use of non-renewable primary energy', 'MJ'],
-    ['SM', 'Use of secondary material', 'kg'],
-    ['RSF', 'Use of renewable secondary fuels', 'MJ'],
-    ['NRSF', 'Use of non-renewable secondary fuels', 'MJ'],
-    ['FW', 'Net use of fresh water', 'm3'],
-  ], ['SM']),
-  ...table('waste', [
-    ['HWD', 'Hazardous waste disposed', 'kg'],
-    ['NHWD', 'Non-hazardous waste disposed', 'kg'],
-    ['RWD', 'Radioactive waste disposed', 'kg'],
-  ]),
-  ...table('output', [
-    ['CRU', 'Components for re-use', 'kg'],
-    ['MFR', 'Materials for recycling', 'kg'],
-    ['MER', 'Materials for energy recovery', 'kg'],
-    ['EEE', 'Exported electrical energy', 'MJ'],
-    ['EET', 'Exported thermal energy', 'MJ'],
-  ], ['CRU', 'MFR', 'MER', 'EEE', 'EET']),
+  ...table('core', ['GWP-total', 'GWP-fossil', 'GWP-biogenic', 'GWP-luluc', 'ODP', 'AP', 'EP-freshwater', 'EP-marine', 'EP-terrestrial', 'POCP', 'ADP-minerals&metals', 'ADP-fossil', 'WDP']),
+  ...table('additional', ['PM', 'IRP', 'ETP-fw', 'HTP-c', 'HTP-nc', 'SQP']),
+  ...table('resource', ['PERE', 'PERM', 'PERT', 'PENRE', 'PENRM', 'PENRT', 'SM', 'RSF', 'NRSF', 'FW'], ['SM']),
+  ...table('waste', ['HWD', 'NHWD', 'RWD']),
+  ...table('output', ['CRU', 'MFR', 'MER', 'EEE', 'EET'], ['CRU', 'MFR', 'MER', 'EEE', 'EET']),
 ];
+
+/** The indicator tables EN 15804+A2 requires of a construction-product declaration; additional impact indicators are optional unless the PCR asks for them (field guide §2). */
+export const MANDATORY_GROUPS: readonly IndicatorGroup[] = ['core', 'resource', 'waste', 'output'];
+export const MANDATORY_INDICATORS: readonly string[] = INDICATORS.filter((indicator) => MANDATORY_GROUPS.includes(indicator.group)).map((indicator) => indicator.code);
 
 const byLowerCode = new Map(INDICATORS.map((indicator) => [indicator.code.toLowerCase(), indicator]));
 

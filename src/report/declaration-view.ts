@@ -14,6 +14,7 @@ import type { CffMethod } from '../calc/cff.ts';
 import { figureId, processStep, processStepOf } from '../trace/ids.ts';
 import { sensitivityView, type SensitivityView } from './sensitivity-view.ts';
 import { HEADLINE_INDICATOR, HEADLINE_MODULE, HEADLINE_MODULE_D } from '../reference/headline.ts';
+import { completenessText } from './completeness.ts';
 
 /**
  * What a declaration page shows of the results, formatted, every number with the link to
@@ -35,6 +36,8 @@ export interface DeclarationResultsView {
   significantFigures: number;
   /** Each life-cycle module, whether it is declared, and whether it is reported apart (module D, beyond the system boundary). */
   boundary: Array<{ code: string; stage: string; name: string; declared: boolean; apart: boolean }>;
+  /** Where a mandatory indicator is missing in a declared module: what and why, said on the page (the catalogue marks the product incomplete). */
+  incomplete?: string;
   /** Where the product has packaging but A5 is not declared: what is left out, said on the page. */
   packagingNotDeclared?: string;
   modules: Array<{ code: string; moduleD: boolean }>;
@@ -176,7 +179,8 @@ export function declarationResultsView(ctx: CalcContext, rows: ProductRows, resu
   const dataQuality = json.data_quality ? dataQualityView(json.data_quality, factorHref) : undefined;
   const sensitivity = json.sensitivity ? sensitivityView(json.sensitivity, digits) : undefined;
   const uncertainty = json.uncertainty ? uncertaintyView(json.uncertainty, sci) : undefined;
-  return { significantFigures: digits, boundary, ...(packagingNotDeclared ? { packagingNotDeclared } : {}), modules, tables, recycledContent, biogenic, comparison, charts, processes: processModels(ctx, result, sci), headline, ...(dataQuality ? { dataQuality } : {}), ...(sensitivity ? { sensitivity } : {}), ...(uncertainty ? { uncertainty } : {}) };
+  const incomplete = json.completeness ? completenessText(json.completeness) : undefined;
+  return { significantFigures: digits, boundary, ...(incomplete ? { incomplete } : {}), ...(packagingNotDeclared ? { packagingNotDeclared } : {}), modules, tables, recycledContent, biogenic, comparison, charts, processes: processModels(ctx, result, sci), headline, ...(dataQuality ? { dataQuality } : {}), ...(sensitivity ? { sensitivity } : {}), ...(uncertainty ? { uncertainty } : {}) };
 }
 
 function chartsOf(ctx: CalcContext, rows: ProductRows, result: ProductResult, json: ResultsSummary, code: string, sci: (v: number | null | undefined) => string): ChartView[] {

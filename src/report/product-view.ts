@@ -54,6 +54,8 @@ export interface CatalogueEntry {
   declaredUnit: string;
   url: string;
   headline?: DeclarationResultsView['headline'];
+  /** A mandatory indicator is missing in a declared module (the declaration page says which). */
+  incomplete: boolean;
   /** The factors.csv lines this product's figures read (the catalogue-wide reverse index). */
   factorLines: number[];
 }
@@ -64,6 +66,7 @@ export const catalogueEntry = (product: ProductView): CatalogueEntry => ({
   declaredUnit: product.declaredUnit,
   url: product.url,
   ...(product.results ? { headline: product.results.headline } : {}),
+  incomplete: product.results?.incomplete !== undefined,
   factorLines: product.audit?.inputs.find((input) => input.file === factorsCsv.file)?.rows.map((row) => row.line) ?? [],
 });
 

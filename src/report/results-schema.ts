@@ -98,6 +98,14 @@ export const resultsSchema = z
       biogenic_carbon_kg: z.strictObject({ product: maybe, packaging: maybe }),
       biogenic_co2_kg: z.strictObject({ product: maybe, packaging: maybe }),
     }),
+    completeness: z
+      .strictObject({
+        complete: z.boolean(),
+        mandatory: z.string(),
+        missing: z.array(z.strictObject({ indicator: z.string(), modules: z.array(z.string()).nullable(), reason: z.string() })),
+      })
+      .optional()
+      .describe('Whether every mandatory indicator of EN 15804+A2 (core, resource use, waste, output flows) is reported in every declared module; what is missing and why (never a silent gap). Absent in results written before it was added.'),
     data_quality: dataQuality.optional(),
     sensitivity: sensitivity.optional(),
     uncertainty: uncertainty.optional(),

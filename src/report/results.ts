@@ -8,6 +8,7 @@ import { graphJson, type GraphJson } from '../trace/graph-json.ts';
 import { figureId, resultStep, type ResultMethod } from '../trace/ids.ts';
 import { productDataQuality, type DataQualityJson } from '../calc/data-quality.ts';
 import { productSensitivity, type SensitivityJson } from '../calc/sensitivity.ts';
+import { productCompleteness, type CompletenessJson } from './completeness.ts';
 
 /**
  * The results contract (`out/<product_id>/results.json`, format 2): keys and nesting are what
@@ -38,6 +39,8 @@ export interface ResultsJson {
     biogenic_carbon_kg: { product: number | null; packaging: number | null };
     biogenic_co2_kg: { product: number | null; packaging: number | null };
   };
+  /** Whether every mandatory indicator is reported in every declared module, and what is missing and why (absent in results written before it was added). */
+  completeness?: CompletenessJson;
   /** The data quality of the cradle-to-gate result (PEF DQR, contribution-weighted); see src/report/data-quality.ts. */
   data_quality?: DataQualityJson;
   /** The ten inputs that contribute most to GWP-total A1-A3 and to D, and ±step on each; see src/report/sensitivity.ts. */
@@ -87,6 +90,7 @@ export function resultsSummary(ctx: CalcContext, result: ProductResult): Results
     };
   }
   const f = result.flows;
+  const completeness = productCompleteness(ctx, { methods });
   return {
     format: RESULTS_FORMAT,
     product_id: result.productId,
@@ -98,6 +102,7 @@ export function resultsSummary(ctx: CalcContext, result: ProductResult): Results
       biogenic_carbon_kg: { product: scalarValue(graph, f.biogenicCarbon.product), packaging: scalarValue(graph, f.biogenicCarbon.packaging) },
       biogenic_co2_kg: { product: scalarValue(graph, f.biogenicCarbon.productCo2), packaging: scalarValue(graph, f.biogenicCarbon.packagingCo2) },
     },
+    completeness,
     data_quality: productDataQuality(ctx, result),
     ...withSensitivity(ctx, result),
     ...withUncertainty(ctx, result),

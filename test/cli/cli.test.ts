@@ -105,7 +105,7 @@ describe('loopsheet explain', () => {
   it('walks a figure down to the CSV cells, with values at each step', async () => {
     const result = await runCli(['explain', 'KV-EXT-6060', 'cutoff/D/GWP-total', '--data', DEMO]);
     expect(result.code, result.stderr).toBe(0);
-    expect(result.stdout.split('\n')[0]).toMatch(/^cutoff\/D\/GWP-total = -2\.19\d* kg CO2 eq\.$/);
+    expect(result.stdout.split('\n')[0]).toMatch(/^cutoff\/D\/GWP-total = -2\.19\d* kg CO2 eqv\.$/);
     expect(result.stdout).toContain('bom.csv:3 mass_kg = "0.83"');
     expect(result.stdout).toContain('eol.csv:3 recycling = "96%"');
     expect(result.stdout).toContain('factors.csv:3 GWP-total = "11.85"  (factor al-primary-ingot)');

@@ -51,6 +51,7 @@ const cases: Case[] = [
   { code: 'UNKNOWN_REFERENCE', plant: (d) => editLine(at(d, 'bom.csv'), 3, ',al-6060,', ',al-6061,'), expected: { file: 'bom.csv', line: 3, column: 'material', value: 'al-6061', hint: 'did you mean "al-6060"?' } },
   { code: 'RECYCLED_CONTENT_SUM', plant: (d) => editLine(at(d, 'bom.csv'), 3, '30%,45%', '60%,45%'), expected: { file: 'bom.csv', line: 3, column: 'recycled_post' } },
   { code: 'EOL_SHARES_SUM', plant: (d) => editLine(at(d, 'eol.csv'), 3, '96%,0,0,4%', '96%,0,0,5%'), expected: { file: 'eol.csv', line: 3, column: 'landfill' } },
+  { code: 'MANDATORY_INDICATOR_MISSING', plant: (d) => editLine(at(d, 'factors.csv'), 2, ',RWD,', ',RWDX,'), expected: { file: 'factors.csv', line: 2, column: '(header)', value: 'RWD', severity: 'warning' } },
   { code: 'PACKAGING_EOL_UNDECLARED', plant: (d) => editFile(at(d, 'declaration.json'), (t) => t.replace('  "declared_modules": ["A5"],\n', '')), expected: { file: 'declaration.json', column: '(document)', severity: 'warning', message: expect.stringMatching(/^5 products have packaging/) } },
   { code: 'BIOGENIC_RELEASE_TWICE', plant: (d) => editLine(at(d, 'factors.csv'), 24, '0.015,0.015,0,0,', '1.65,0.015,1.635,0,'), expected: { file: 'materials.csv', line: 10, column: 'incineration', severity: 'warning' } },
   { code: 'EOL_SCENARIO_GAP', plant: (d) => editLine(at(d, 'eol.csv'), 8, 'steel-construction,zinc', 'steel-construction,tin'), expected: { file: 'products.csv', line: 5, column: 'eol_scenario' } },
@@ -60,7 +61,11 @@ const cases: Case[] = [
   { code: 'FACTOR_VALUE_MISSING', plant: async () => undefined, expected: { file: 'factors.csv', line: 23, column: 'ODP', severity: 'warning' } },
   {
     code: 'INDICATOR_NO_DATA',
-    plant: (d) => editFile(at(d, 'declaration.json'), (t) => t.replace('"gwp_set": "AR6",', '"gwp_set": "AR6",\n  "indicators": ["GWP-total", "PM"],')),
+    // The demo has a column for every indicator: this case takes PM's away and asks for it.
+    plant: async (d) => {
+      await editLine(at(d, 'factors.csv'), 2, ',PM,', ',PMX,');
+      await editFile(at(d, 'declaration.json'), (t) => t.replace('"gwp_set": "AR6",', '"gwp_set": "AR6",\n  "indicators": ["GWP-total", "PM"],'));
+    },
     expected: { file: 'declaration.json', line: 17, column: 'indicators', value: 'PM', severity: 'warning' },
   },
   {

@@ -67,7 +67,7 @@ describe('PDF in a real Chromium', async () => {
       for (const [code, value] of Object.entries(values)) expect(text, `${module} ${code}`).toContain(value === null ? 'n/a' : value.toExponential(2));
     }
     // Row by row: the GWP-total line of the printed table carries the modules in order, A1 … D.
-    const gwpLine = text.split('\n').find((line) => /^\s*GWP-total\s+kg CO2 eq\./.test(line))!;
+    const gwpLine = text.split('\n').find((line) => /^\s*GWP-total\s+kg CO2 eqv\./.test(line))!;
     expect(gwpLine.trim().split(/\s+/).slice(4)).toEqual(Object.values(modules).map((values) => values['GWP-total']!.toExponential(2)));
     expect(text).toMatch(/page 1 of \d/);
     // The draft status is in the running head of every page (pdftotext separates pages with form feeds).
@@ -110,7 +110,7 @@ describe('declaration.json report settings', () => {
     const results = JSON.parse(await readFile(path.join(out, 'KV-EXT-6060', 'results.json'), 'utf8'));
     // Four significant figures: toExponential(3) (ECMA-262 Number.prototype.toExponential).
     expect(page).toContain(`>${results.methods.cutoff.modules.A1['GWP-total'].toExponential(3)}<`);
-    expect(page).toContain('AP (mol H+ eq.)');
+    expect(page).toContain('AP (mol H+ eqv.)');
     for (const method of ['cff', 'eol-recycling', 'fifty-fifty']) expect(page).toContain(`>${results.methods[method].total.AP.toExponential(3)}<`);
   });
 });

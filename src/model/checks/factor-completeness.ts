@@ -4,6 +4,8 @@ import { findIndicator } from '../../reference/indicators.ts';
 import { indicatorValue } from '../types.ts';
 import type { CheckContext } from './context.ts';
 import { MATERIAL_FACTOR_COLUMNS } from '../../schema/materials.ts';
+import { MANDATORY_INDICATORS } from '../../reference/indicators.ts';
+import { formatCounted } from '../../format.ts';
 
 /** Factor ids the project uses, with the first place each is used. */
 function usedFactors(ctx: CheckContext): Map<string, string> {
@@ -55,6 +57,17 @@ export function factorCompleteness(ctx: CheckContext): void {
         message: `is asked for in the method comparison, but the declaration does not report ${code} from factors.csv; the comparison leaves it out`,
         expected: `an indicator reported from factors.csv (${asked.slice(0, 3).join(', ')}, …)`,
       });
+    });
+  }
+  // EN 15804+A2: every core, resource use, waste and output indicator, in every declared module.
+  const unreported = MANDATORY_INDICATORS.filter((code) => !p.indicators.includes(code));
+  if (unreported.length > 0) {
+    const byDeclaration = requested !== undefined && p.declarationFile !== undefined;
+    const where = byDeclaration ? locate(p.declarationFile!, ['indicators']) : { line: p.factors.csv.header.line, column: 1 };
+    ctx.problems.push({
+      severity: 'warning', code: 'MANDATORY_INDICATOR_MISSING', file: byDeclaration ? p.declarationFile!.file : p.factors.file, line: where.line, column: byDeclaration ? 'indicators' : '(header)', columnIndex: where.column, value: unreported.join(' '),
+      message: `${formatCounted(unreported.length, 'mandatory indicator is', 'mandatory indicators are')} not reported (${unreported.join(', ')}): ${byDeclaration ? 'declaration.json indicators leaves them out' : 'factors.csv has no column for them'}; every declaration says so and the catalogue marks it incomplete`,
+      expected: byDeclaration ? 'every core impact, resource use, waste and output indicator in indicators' : 'a column in factors.csv for each (EN 15804+A2 codes)',
     });
   }
   const used = usedFactors(ctx);
