@@ -69,6 +69,26 @@ export const INDICATORS: readonly Indicator[] = [
 export const MANDATORY_GROUPS: readonly IndicatorGroup[] = ['core', 'resource', 'waste', 'output'];
 export const MANDATORY_INDICATORS: readonly string[] = INDICATORS.filter((indicator) => MANDATORY_GROUPS.includes(indicator.group)).map((indicator) => indicator.code);
 
+/**
+ * The disclaimers EN 15804+A2 requires beside some indicators, in the wording widely
+ * reproduced in published declarations (confirm it against the standard and the PCR).
+ */
+export const DISCLAIMERS: ReadonlyArray<{ marker: string; codes: readonly string[]; text: string }> = [
+  {
+    marker: '¹',
+    codes: ['IRP'],
+    text: 'This impact category deals mainly with the eventual impact of low-dose ionising radiation on human health of the nuclear fuel cycle. It does not consider effects due to possible nuclear accidents, occupational exposure, or radioactive waste disposal in underground facilities. Potential ionising radiation from the soil, from radon and from some construction materials is not measured by this indicator either.',
+  },
+  {
+    marker: '²',
+    codes: ['ADP-minerals&metals', 'ADP-fossil', 'WDP', 'ETP-fw', 'HTP-c', 'HTP-nc', 'SQP'],
+    text: 'The results of this environmental impact indicator shall be used with care, as the uncertainties on these results are high or as there is limited experience with the indicator.',
+  },
+];
+
+/** The disclaimer EN 15804+A2 requires beside an indicator, if any. */
+export const disclaimerOf = (code: string) => DISCLAIMERS.find((disclaimer) => disclaimer.codes.includes(code));
+
 const byLowerCode = new Map(INDICATORS.map((indicator) => [indicator.code.toLowerCase(), indicator]));
 
 /** Looks an indicator up by its code, ignoring case (headers are matched case-insensitively). */

@@ -3,7 +3,7 @@ import type { ProductResult } from '../calc/product.ts';
 import type { UncertaintyJson } from '../calc/uncertainty.ts';
 import { toNullable } from '../calc/vector.ts';
 import type { ProductRows } from '../model/by-product.ts';
-import { findIndicator, type IndicatorGroup } from '../reference/indicators.ts';
+import { DISCLAIMERS, disclaimerOf, findIndicator, type IndicatorGroup } from '../reference/indicators.ts';
 import { LIFE_CYCLE_MODULES } from '../reference/modules.ts';
 import { barChart, type ChartDatum, type ChartView } from './charts.ts';
 import { dataQualityView, type DataQualityView } from './data-quality-view.ts';
@@ -78,11 +78,27 @@ const GROUPS: Array<{ group: IndicatorGroup; title: string; caption: string }> =
   { group: 'output', title: 'Output flows', caption: 'CRU, MFR and MER are the product’s own mass flows, EEE and EET the energy its own energy recovery exports (mass × share × heating value × efficiency); none is read from factors.' },
 ];
 
-/** Results tables in EN 15804+A2 groups: a row per indicator the results hold, its cells made by the caller. */
-export function groupedTables<C>(indicators: ReadonlyArray<{ code: string; name: string; unit: string }>, cells: (code: string) => C[]): Array<{ title: string; caption: string; rows: Array<{ code: string; name: string; unit: string; cells: C[] }> }> {
+/**
+ * Results tables in EN 15804+A2 groups: a row per indicator the results hold, its cells made
+ * by the caller; an indicator EN 15804+A2 requires a disclaimer for carries its marker, and
+ * the table the disclaimers of its markers.
+ */
+export function groupedTables<C>(
+  indicators: ReadonlyArray<{ code: string; name: string; unit: string }>,
+  cells: (code: string) => C[],
+): Array<{ title: string; caption: string; rows: Array<{ code: string; name: string; unit: string; marker?: string; cells: C[] }>; disclaimers: Array<{ marker: string; codes: string; text: string }> }> {
   return GROUPS.flatMap(({ group, title, caption }) => {
     const codes = indicators.filter((i) => findIndicator(i.code)?.group === group);
-    return codes.length === 0 ? [] : [{ title, caption, rows: codes.map(({ code, name, unit }) => ({ code, name, unit, cells: cells(code) })) }];
+    if (codes.length === 0) return [];
+    const rows = codes.map(({ code, name, unit }) => {
+      const disclaimer = disclaimerOf(code);
+      return { code, name, unit, ...(disclaimer ? { marker: disclaimer.marker } : {}), cells: cells(code) };
+    });
+    const disclaimers = DISCLAIMERS.flatMap((disclaimer) => {
+      const here = rows.filter((row) => disclaimer.codes.includes(row.code)).map((row) => row.code);
+      return here.length === 0 ? [] : [{ marker: disclaimer.marker, codes: here.join(', '), text: disclaimer.text }];
+    });
+    return [{ title, caption, rows, disclaimers }];
   });
 }
 

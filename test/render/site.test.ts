@@ -60,6 +60,9 @@ describe('PDF in a real Chromium', async () => {
     expect(text).toContain('Draft — not verified.');
     expect(text).toContain('Illustrative data.');
     expect(text).toContain('Copper busbar 10 × 100 mm');
+    // The disclaimers EN 15804+A2 requires beside IRP and the high-uncertainty indicators are printed.
+    expect(text.replace(/\s+/g, ' ')).toContain('shall be used with care, as the uncertainties on these results are high');
+    expect(text.replace(/\s+/g, ' ')).toContain('low-dose ionising radiation on human health of the nuclear fuel cycle');
     // The printed results table is results.json rounded to three significant figures.
     const results = JSON.parse(readFileSync(path.join(out, 'KV-CU-BB10', 'results.json'), 'utf8'));
     const modules = results.methods.cutoff.modules as Record<string, Record<string, number | null>>;
