@@ -57,10 +57,11 @@ const GROUP_TITLES: Record<string, string> = {
   flows: 'Recycled content and biogenic carbon',
   process: 'Process models (process.csv)',
   allocation: 'Site data shared among products (ISO 14044 §4.3.4)',
+  scenario: 'End-of-life scenario information (EN 15804+A2)',
 };
 
-/** Groups whose steps other pages link to by id (product flows, process models, site shares). */
-const LINKED_GROUPS = new Set(['flows', 'process', 'allocation']);
+/** Groups whose steps other pages link to by id (product flows, process models, site shares, scenario quantities). */
+const LINKED_GROUPS = new Set(['flows', 'process', 'allocation', 'scenario']);
 
 /** The vector steps whose values other pages link to, and the scalar steps of the results' flow indicators. */
 function linkedSteps(result: ProductResult, project: Project): Set<string> {
@@ -71,6 +72,9 @@ function linkedSteps(result: ProductResult, project: Project): Set<string> {
     for (const part of Object.keys(r!.parts)) linked.add(resultStep(method as ResultMethod, part));
   }
   for (const process of project.processes) linked.add(processStep.factor(process.id));
+  // The scenario tables link to each material's end-of-life mass and module D's net flows.
+  for (const scenario of result.scenarios.endOfLife) for (const id of Object.values(scenario.ids)) linked.add(id);
+  for (const d of result.scenarios.moduleD) for (const id of Object.values(d.ids)) linked.add(id);
   return linked;
 }
 

@@ -8,8 +8,8 @@ import { LIFE_CYCLE_MODULES } from '../reference/modules.ts';
 import { barChart, type ChartDatum, type ChartView } from './charts.ts';
 import { dataQualityView, type DataQualityView } from './data-quality-view.ts';
 import { factorHref, figureHref } from './figure-links.ts';
-import { formatCount, formatInput, formatScientific, formatShare, NOT_AVAILABLE } from '../format.ts';
-import { resultFigureId, type ResultsSummary } from './results.ts';
+import { formatCount, formatInput, formatScientific, formatShare, NOT_AVAILABLE, NOT_GIVEN } from '../format.ts';
+import { resultFigureId, type ResultsSummary, type ScenariosJson } from './results.ts';
 import type { CffMethod } from '../calc/cff.ts';
 import { figureId, processStep, processStepOf } from '../trace/ids.ts';
 import { sensitivityView, type SensitivityView } from './sensitivity-view.ts';
@@ -44,6 +44,8 @@ export interface DeclarationResultsView {
   tables: ResultsTableView[];
   recycledContent: Array<{ label: string; cell: FigureCell }>;
   biogenic: Array<{ label: string; carbon: FigureCell; co2: FigureCell }>;
+  /** The scenario information beside C1–C4 (A5 for the packaging) and D, every number linked to its figure. */
+  scenarios?: ScenarioTablesView;
   comparison: { indicators: Array<{ code: string; unit: string }>; rows: Array<{ method: string; name: string; rewards: string; scope: string; cells: FigureCell[] }> };
   charts: ChartView[];
   /** The declarant's own processes this product's figures rest on (process.csv). */
@@ -56,6 +58,12 @@ export interface DeclarationResultsView {
   uncertainty?: UncertaintyView;
   /** Headline figures for the catalogue. */
   headline: { a1a3: FigureCell; moduleD: FigureCell; recycledContent: FigureCell; a1a3Value: string; moduleDValue: string; recycledValue: string };
+}
+
+export interface ScenarioTablesView {
+  endOfLife: Array<{ stage: string; material: string; cells: FigureCell[]; transport: string; processing: string }>;
+  moduleD: Array<{ material: string; cells: FigureCell[]; substitutes: string }>;
+  exportedEnergy?: string;
 }
 
 export interface ProcessModelView {
@@ -196,7 +204,8 @@ export function declarationResultsView(ctx: CalcContext, rows: ProductRows, resu
   const sensitivity = json.sensitivity ? sensitivityView(json.sensitivity, digits) : undefined;
   const uncertainty = json.uncertainty ? uncertaintyView(json.uncertainty, sci) : undefined;
   const incomplete = json.completeness ? completenessText(json.completeness) : undefined;
-  return { significantFigures: digits, boundary, ...(incomplete ? { incomplete } : {}), ...(packagingNotDeclared ? { packagingNotDeclared } : {}), modules, tables, recycledContent, biogenic, comparison, charts, processes: processModels(ctx, result, sci), headline, ...(dataQuality ? { dataQuality } : {}), ...(sensitivity ? { sensitivity } : {}), ...(uncertainty ? { uncertainty } : {}) };
+  const scenarios = json.scenarios ? scenarioTables(json.scenarios, sci) : undefined;
+  return { significantFigures: digits, boundary, ...(scenarios ? { scenarios } : {}), ...(incomplete ? { incomplete } : {}), ...(packagingNotDeclared ? { packagingNotDeclared } : {}), modules, tables, recycledContent, biogenic, comparison, charts, processes: processModels(ctx, result, sci), headline, ...(dataQuality ? { dataQuality } : {}), ...(sensitivity ? { sensitivity } : {}), ...(uncertainty ? { uncertainty } : {}) };
 }
 
 function chartsOf(ctx: CalcContext, rows: ProductRows, result: ProductResult, json: ResultsSummary, code: string, sci: (v: number | null | undefined) => string): ChartView[] {
@@ -277,5 +286,30 @@ function uncertaintyView(u: UncertaintyJson, sci: (v: number | null | undefined)
         ? `No input behind these results has a gsd column, so nothing varied: the ranges equal the result (${u.fixed} inputs fixed).`
         : `${count(variedCount, 'input', 'inputs')} varied — ${count(u.varied.factors.length, 'factor row', 'factor rows')}${u.varied.factors.length ? ` (${u.varied.factors.join(', ')})` : ''}, ${count(u.varied.bom.length, 'BOM mass', 'BOM masses')}${u.varied.bom.length ? ` (bom.csv line${u.varied.bom.length === 1 ? '' : 's'} ${u.varied.bom.join(', ')})` : ''}, ${count(u.varied.activities.length, 'activity amount', 'activity amounts')}${u.varied.activities.length ? ` (activities.csv line${u.varied.activities.length === 1 ? '' : 's'} ${u.varied.activities.join(', ')})` : ''}; ${u.fixed} inputs without a gsd stayed fixed.`,
     rows: u.figures.map((f) => ({ figure: f.module === 'total' ? `${f.indicator} A1–C4 total (D not added)` : `${f.indicator} ${f.module}`, deterministic: sci(f.deterministic), median: sci(f.median), low: sci(f.p2_5), high: sci(f.p97_5), mean: sci(f.mean) })),
+  };
+}
+
+const SCENARIO_COLUMNS = ['mass_kg', 'collected_separately_kg', 'collected_with_mixed_waste_kg', 'reuse_kg', 'recycling_kg', 'energy_recovery_kg', 'incineration_kg', 'landfill_kg'] as const;
+
+/** The scenario tables of a declaration (EN 15804+A2): end of life by material, and module D's net flows and substitutions. */
+function scenarioTables(scenarios: ScenariosJson, sci: (value: number | null | undefined) => string): ScenarioTablesView {
+  const linked = (value: number | null, id: string | undefined): FigureCell => (id ? { text: sci(value), href: figureHref(id) } : { text: sci(value) });
+  const electricity = scenarios.exported_energy;
+  return {
+    endOfLife: scenarios.end_of_life.map((row) => ({
+      stage: row.stage === 'A5' ? 'A5 (packaging)' : 'C1–C4',
+      material: row.material,
+      cells: SCENARIO_COLUMNS.map((column) => linked(row[column], row.figures[column])),
+      transport: row.transport_km > 0 ? `${formatInput(row.transport_km)} km, ${row.transport_factor ?? NOT_GIVEN}` : 'none',
+      processing: row.recycling_kg > 0 ? `${row.processing_factor ?? NOT_GIVEN}; recycling yield ${formatShare(row.recycling_yield)}` : NOT_GIVEN,
+    })),
+    moduleD: scenarios.module_d.map((row) => ({
+      material: row.material,
+      cells: [linked(row.m_mr_out_kg, row.figures.m_mr_out_kg), linked(row.m_mr_in_kg, row.figures.m_mr_in_kg), linked(row.net_kg, row.figures.net_kg)],
+      substitutes: `${row.substituted_factor} (Q_out ${formatInput(row.q_out)})`,
+    })),
+    ...(electricity.electricity_factor && ((electricity.electricity_mj ?? 0) > 0 || (electricity.heat_mj ?? 0) > 0)
+      ? { exportedEnergy: `Exported energy over the declared modules: ${sci(electricity.electricity_mj)} MJ of electricity, replacing ${electricity.electricity_factor}, and ${sci(electricity.heat_mj)} MJ of heat, replacing ${electricity.heat_factor}; credited in D.` }
+      : {}),
   };
 }

@@ -98,6 +98,32 @@ export const resultsSchema = z
       biogenic_carbon_kg: z.strictObject({ product: maybe, packaging: maybe }),
       biogenic_co2_kg: z.strictObject({ product: maybe, packaging: maybe }),
     }),
+    scenarios: z
+      .strictObject({
+        end_of_life: z.array(
+          z.strictObject({
+            material: z.string(),
+            stage: z.enum(['C1-C4', 'A5']),
+            mass_kg: number,
+            collected_separately_kg: number,
+            collected_with_mixed_waste_kg: number,
+            reuse_kg: number,
+            recycling_kg: number,
+            energy_recovery_kg: number,
+            incineration_kg: number,
+            landfill_kg: number,
+            recycling_yield: number,
+            transport_km: number,
+            transport_factor: z.string().nullable(),
+            processing_factor: z.string().nullable(),
+            figures: z.record(z.string(), z.string()),
+          }),
+        ),
+        module_d: z.array(z.strictObject({ material: z.string(), m_mr_out_kg: number, m_mr_in_kg: number, net_kg: number, substituted_factor: z.string(), q_out: number, figures: z.record(z.string(), z.string()) })),
+        exported_energy: z.strictObject({ electricity_mj: maybe, heat_mj: maybe, electricity_factor: z.string().nullable(), heat_factor: z.string().nullable(), figures: z.record(z.string(), z.string()) }),
+      })
+      .optional()
+      .describe('The scenario information EN 15804+A2 asks for beside C1–C4 (A5 for the packaging) and D: per material the kg collected separately and with mixed waste, for re-use, recycling and energy recovery, incinerated and landfilled, with the transport and processing assumptions; the net secondary flows of D and what they substitute; the energy exported. figures names the figure id of each number. Absent in results written before it was added.'),
     completeness: z
       .strictObject({
         complete: z.boolean(),

@@ -39,6 +39,8 @@ export interface ResultsJson {
     biogenic_carbon_kg: { product: number | null; packaging: number | null };
     biogenic_co2_kg: { product: number | null; packaging: number | null };
   };
+  /** The scenario information beside C1–C4 (and A5 for the packaging) and D (EN 15804+A2); each number's figure id is in `figures` (absent in results written before it was added). */
+  scenarios?: ScenariosJson;
   /** Whether every mandatory indicator is reported in every declared module, and what is missing and why (absent in results written before it was added). */
   completeness?: CompletenessJson;
   /** The data quality of the cradle-to-gate result (PEF DQR, contribution-weighted); see src/report/data-quality.ts. */
@@ -103,6 +105,7 @@ export function resultsSummary(ctx: CalcContext, result: ProductResult): Results
       biogenic_co2_kg: { product: scalarValue(graph, f.biogenicCarbon.productCo2), packaging: scalarValue(graph, f.biogenicCarbon.packagingCo2) },
     },
     completeness,
+    scenarios: scenariosJson(ctx, result),
     data_quality: productDataQuality(ctx, result),
     ...withSensitivity(ctx, result),
     ...withUncertainty(ctx, result),
@@ -119,4 +122,68 @@ function withUncertainty(ctx: CalcContext, result: ProductResult): { uncertainty
   const settings = ctx.project.declaration.uncertainty;
   const uncertainty = settings ? productUncertainty(ctx, result, settings) : undefined;
   return uncertainty ? { uncertainty } : {};
+}
+
+export interface ScenariosJson {
+  end_of_life: Array<{
+    material: string;
+    stage: 'C1-C4' | 'A5';
+    mass_kg: number;
+    collected_separately_kg: number;
+    collected_with_mixed_waste_kg: number;
+    reuse_kg: number;
+    recycling_kg: number;
+    energy_recovery_kg: number;
+    incineration_kg: number;
+    landfill_kg: number;
+    recycling_yield: number;
+    transport_km: number;
+    transport_factor: string | null;
+    processing_factor: string | null;
+    figures: Record<string, string>;
+  }>;
+  module_d: Array<{ material: string; m_mr_out_kg: number; m_mr_in_kg: number; net_kg: number; substituted_factor: string; q_out: number; figures: Record<string, string> }>;
+  exported_energy: { electricity_mj: number | null; heat_mj: number | null; electricity_factor: string | null; heat_factor: string | null; figures: Record<string, string> };
+}
+
+const SCENARIO_KEYS = { mass_kg: 'mass', collected_separately_kg: 'separately', collected_with_mixed_waste_kg: 'mixed', reuse_kg: 'reuse', recycling_kg: 'recycling', energy_recovery_kg: 'energy-recovery', incineration_kg: 'incineration', landfill_kg: 'landfill' } as const;
+
+/** results.json `scenarios`: the numbers of the scenario tables, each with its figure id. */
+function scenariosJson(ctx: CalcContext, result: ProductResult): ScenariosJson {
+  const { graph } = result;
+  const value = (id: string) => graph.scalar(id).value;
+  const recovery = ctx.project.declaration.energy_recovery;
+  const totals = result.flows.totalFlows;
+  return {
+    end_of_life: result.scenarios.endOfLife.map((scenario) => {
+      const eol = scenario.eol.eol.value;
+      const figures = Object.fromEntries(Object.entries(SCENARIO_KEYS).map(([key, quantity]) => [key, scenario.ids[quantity]]));
+      return {
+        material: scenario.material,
+        stage: scenario.stage,
+        ...(Object.fromEntries(Object.entries(figures).map(([key, id]) => [key, value(id)])) as Record<keyof typeof SCENARIO_KEYS, number>),
+        recycling_yield: eol.recycling_yield,
+        transport_km: eol.transport_km,
+        transport_factor: eol.transport_factor ?? null,
+        processing_factor: eol.processing_factor ?? null,
+        figures,
+      };
+    }),
+    module_d: result.scenarios.moduleD.map((d) => ({
+      material: d.material,
+      m_mr_out_kg: value(d.ids.out),
+      m_mr_in_kg: value(d.ids.in),
+      net_kg: value(d.ids.net),
+      substituted_factor: d.substituted,
+      q_out: d.qOut,
+      figures: { m_mr_out_kg: d.ids.out, m_mr_in_kg: d.ids.in, net_kg: d.ids.net },
+    })),
+    exported_energy: {
+      electricity_mj: totals.EEE ? value(totals.EEE) : null,
+      heat_mj: totals.EET ? value(totals.EET) : null,
+      electricity_factor: recovery?.electricity_factor ?? null,
+      heat_factor: recovery?.heat_factor ?? null,
+      figures: { ...(totals.EEE ? { electricity_mj: totals.EEE } : {}), ...(totals.EET ? { heat_mj: totals.EET } : {}) },
+    },
+  };
 }

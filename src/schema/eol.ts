@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { id, optionalReference, referenceOrWildcard, quantity, reportAt, share, text } from './cells.ts';
+import { id, optionalReference, optionalShare, referenceOrWildcard, quantity, reportAt, share, text } from './cells.ts';
 import { defineCsv } from './csv-file.ts';
 
 export const EOL_SHARE_COLUMNS = ['reuse', 'recycling', 'energy_recovery', 'incineration', 'landfill'] as const;
@@ -20,6 +20,7 @@ export const eolCsv = defineCsv({
         energy_recovery: share(d, 'Share sent to incineration with energy recovery.', { default: 0 }),
         incineration: share(d, 'Share incinerated without sufficient energy recovery (disposal, C4).', { default: 0 }),
         landfill: share(d, 'Share landfilled.', { default: 0 }),
+        separate_collection: optionalShare(d, 'Share of the end-of-life mass collected separately (the rest is collected with mixed waste); empty: the shares re-used and recycled (scenario information of EN 15804+A2).'),
         recycling_yield: share(d, 'Share of the material sent to recycling that reaches the point of substitution.', { default: 1 }),
         transport_km: quantity(d, 'Distance from the site of deconstruction to waste processing (C2).', 'km', { default: 0 }),
         transport_factor: optionalReference('Factor id per tonne-kilometre for the C2 transport; required when transport_km > 0.', 'factors.csv factor_id'),
@@ -46,6 +47,7 @@ export const eolCsv = defineCsv({
     energy_recovery: '0',
     incineration: '0',
     landfill: '10%',
+    separate_collection: '90%',
     recycling_yield: '0.95',
     transport_km: '50',
     transport_factor: 'lorry-16-32t',

@@ -85,6 +85,10 @@ export function processStepOf(step: string): { processId: string; name: string }
 
 /** Site rows shared among products (ISO 14044 §4.3.4): the key, Σ keys and share of one site, period and key. */
 export const allocationStep = (site: string, period: string, key: string, part: 'key' | 'total' | 'share') => `allocation/${site}/${period}/${key}/${part}`;
+/** The quantities of a material's end-of-life scenario (EN 15804+A2 scenario information), in kg. */
+export type ScenarioQuantity = 'mass' | 'separately' | 'mixed' | 'reuse' | 'recycling' | 'energy-recovery' | 'incineration' | 'landfill';
+export const scenarioStep = (stage: 'C1-C4' | 'A5', material: string, quantity: ScenarioQuantity) => `scenario/${stage}/material:${material}/${quantity}`;
+
 /** A product's output summed over the parallel plants that each make the whole of it. */
 export const plantsOutputStep = (productId: string) => `allocation/parallel-plants:${productId}/output`;
 
