@@ -14,6 +14,8 @@ export const DECLARATION_PDF = 'declaration.pdf';
 /** The verification pack: input copies and the SHA-256 manifest of every output. */
 export const VERIFICATION_DIR = 'verification';
 export const MANIFEST_FILE = 'manifest.json';
+/** The verifier's checklist of every product, in the verification pack (beside checklist.html). */
+export const CHECKLIST_JSON = 'checklist.json';
 /** The build cache `build --changed` reads. */
 export const CACHE_FILE = '.loopsheet-cache.json';
 /** What `build --shard K/N` records for `merge`. */

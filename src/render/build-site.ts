@@ -16,7 +16,8 @@ import { PACKAGE_ROOT } from './paths.ts';
 import { ResultsWriter, writeCatalogueResults } from './results-files.ts';
 import type { HashedFile } from './verification.ts';
 import { renderSite } from './site.ts';
-import { RESULTS_JSON, RESULTS_CSV } from '../files.ts';
+import { CHECKLIST_JSON, RESULTS_JSON, RESULTS_CSV, VERIFICATION_DIR } from '../files.ts';
+import { CHECKS } from '../calc/checklist.ts';
 
 /**
  * Products per Eleventy render. Eleventy keeps every page of a run in memory; rendering the
@@ -156,6 +157,7 @@ export async function writeCatalogue(project: Project, problems: readonly Proble
   const catalogue = outcomes.map((o) => o.entry);
   const families = await writeFamilies(project, outDir, outcomes);
   await renderSite(buildSiteView(project, problems, { products: [], catalogue, pdfs: options.pdfs, inputs: options.inputs, families }), outDir);
+  await writeChecklist(outDir, catalogue);
   await writeBuildCache(outDir, options.context, outcomes);
   return { warnings: families.flatMap((family) => family.warnings), families: families.map((family) => ({ id: family.id, name: family.name })) };
 }
@@ -234,4 +236,11 @@ function runWorker(dataDir: string, outDir: string, task: WorkerTask, name: stri
     // The task goes over IPC: a long list of indices would not fit on a command line.
     child.send(task);
   });
+}
+
+/** verification/checklist.json: the checks, and each product's status per check (each product's results.json has the detail). */
+async function writeChecklist(outDir: string, catalogue: readonly CatalogueEntry[]): Promise<void> {
+  const checklist = { checks: CHECKS, products: catalogue.map((entry) => ({ product_id: entry.id, checks: Object.fromEntries(entry.checks.map((check) => [check.id, check.status])) })) };
+  await mkdir(path.join(outDir, VERIFICATION_DIR), { recursive: true });
+  await writeFile(path.join(outDir, VERIFICATION_DIR, CHECKLIST_JSON), `${JSON.stringify(checklist, null, 1)}\n`);
 }

@@ -5,7 +5,7 @@ import type { SiteView } from '../report/site-view.ts';
 import { ELEVENTY_CONFIG, TEMPLATES_DIR } from './paths.ts';
 
 /** The templates of the catalogue-wide pages, written by the last render of a build only. */
-const CATALOGUE_TEMPLATES = ['index.njk', 'factors.njk', 'verification.njk'];
+const CATALOGUE_TEMPLATES = ['index.njk', 'factors.njk', 'verification.njk', 'checklist.njk'];
 
 /**
  * Renders the HTML pages with Eleventy: one template per page kind, paginated over products.

@@ -3,7 +3,7 @@ import { inputTables } from '../model/reach.ts';
 import type { Row } from '../schema/table.ts';
 import type { ProductResult } from '../calc/product.ts';
 import type { FigureGraph, FigureNode, Term } from '../trace/graph.ts';
-import { processStep, resultStep, stepGroup, type ResultMethod } from '../trace/ids.ts';
+import { cutoffStep, inventoryStep, processStep, resultStep, stepGroup, type ResultMethod } from '../trace/ids.ts';
 import { fragment, inputAnchor } from './figure-links.ts';
 import { formatFigure as show } from '../format.ts';
 import { physicalLines } from './written.ts';
@@ -75,6 +75,10 @@ function linkedSteps(result: ProductResult, project: Project): Set<string> {
   // The scenario tables link to each material's end-of-life mass and module D's net flows.
   for (const scenario of result.scenarios.endOfLife) for (const id of Object.values(scenario.ids)) linked.add(id);
   for (const d of result.scenarios.moduleD) for (const id of Object.values(d.ids)) linked.add(id);
+  // The verifier's checklist links to the product's mass and the release of its packaging's biogenic carbon.
+  linked.add(inventoryStep.product('G'));
+  linked.add(inventoryStep.product('M'));
+  for (const m of result.cutoff.packaging?.materials ?? []) linked.add(cutoffStep.packaging('biogenic-carbon', m.materialId));
   return linked;
 }
 

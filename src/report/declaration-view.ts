@@ -44,6 +44,8 @@ export interface DeclarationResultsView {
   tables: ResultsTableView[];
   recycledContent: Array<{ label: string; cell: FigureCell }>;
   biogenic: Array<{ label: string; carbon: FigureCell; co2: FigureCell }>;
+  /** The verifier's checklist for this product: status, what was found, evidence linked, source. */
+  checklist: Array<{ id: string; title: string; status: string; detail: string; evidence: FigureCell[]; source: string }>;
   /** The scenario information beside C1–C4 (A5 for the packaging) and D, every number linked to its figure. */
   scenarios?: ScenarioTablesView;
   comparison: { indicators: Array<{ code: string; unit: string }>; rows: Array<{ method: string; name: string; rewards: string; scope: string; cells: FigureCell[] }> };
@@ -205,7 +207,8 @@ export function declarationResultsView(ctx: CalcContext, rows: ProductRows, resu
   const uncertainty = json.uncertainty ? uncertaintyView(json.uncertainty, sci) : undefined;
   const incomplete = json.completeness ? completenessText(json.completeness) : undefined;
   const scenarios = json.scenarios ? scenarioTables(json.scenarios, sci) : undefined;
-  return { significantFigures: digits, boundary, ...(scenarios ? { scenarios } : {}), ...(incomplete ? { incomplete } : {}), ...(packagingNotDeclared ? { packagingNotDeclared } : {}), modules, tables, recycledContent, biogenic, comparison, charts, processes: processModels(ctx, result, sci), headline, ...(dataQuality ? { dataQuality } : {}), ...(sensitivity ? { sensitivity } : {}), ...(uncertainty ? { uncertainty } : {}) };
+  const checklist = (json.checklist?.items ?? []).map((item) => ({ id: item.id, title: item.title, status: item.status, detail: item.detail, source: item.source, evidence: item.figures.map((id) => ({ text: id, href: figureHref(id) })) }));
+  return { significantFigures: digits, boundary, checklist, ...(scenarios ? { scenarios } : {}), ...(incomplete ? { incomplete } : {}), ...(packagingNotDeclared ? { packagingNotDeclared } : {}), modules, tables, recycledContent, biogenic, comparison, charts, processes: processModels(ctx, result, sci), headline, ...(dataQuality ? { dataQuality } : {}), ...(sensitivity ? { sensitivity } : {}), ...(uncertainty ? { uncertainty } : {}) };
 }
 
 function chartsOf(ctx: CalcContext, rows: ProductRows, result: ProductResult, json: ResultsSummary, code: string, sci: (v: number | null | undefined) => string): ChartView[] {

@@ -56,6 +56,8 @@ export interface CatalogueEntry {
   headline?: DeclarationResultsView['headline'];
   /** A mandatory indicator is missing in a declared module (the declaration page says which). */
   incomplete: boolean;
+  /** The verifier's checklist, a status per check (the declaration page has the detail). */
+  checks: Array<{ id: string; status: string }>;
   /** The factors.csv lines this product's figures read (the catalogue-wide reverse index). */
   factorLines: number[];
 }
@@ -67,6 +69,7 @@ export const catalogueEntry = (product: ProductView): CatalogueEntry => ({
   url: product.url,
   ...(product.results ? { headline: product.results.headline } : {}),
   incomplete: product.results?.incomplete !== undefined,
+  checks: (product.results?.checklist ?? []).map((item) => ({ id: item.id, status: item.status })),
   factorLines: product.audit?.inputs.find((input) => input.file === factorsCsv.file)?.rows.map((row) => row.line) ?? [],
 });
 

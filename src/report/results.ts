@@ -9,6 +9,7 @@ import { figureId, resultStep, type ResultMethod } from '../trace/ids.ts';
 import { productDataQuality, type DataQualityJson } from '../calc/data-quality.ts';
 import { productSensitivity, type SensitivityJson } from '../calc/sensitivity.ts';
 import { productCompleteness, type CompletenessJson } from './completeness.ts';
+import { productChecklist, type ChecklistJson } from '../calc/checklist.ts';
 
 /**
  * The results contract (`out/<product_id>/results.json`, format 2): keys and nesting are what
@@ -41,6 +42,8 @@ export interface ResultsJson {
   };
   /** The scenario information beside C1–C4 (and A5 for the packaging) and D (EN 15804+A2); each number's figure id is in `figures` (absent in results written before it was added). */
   scenarios?: ScenariosJson;
+  /** The checks a verifier makes first, answered for this product (absent in results written before it was added). */
+  checklist?: ChecklistJson;
   /** Whether every mandatory indicator is reported in every declared module, and what is missing and why (absent in results written before it was added). */
   completeness?: CompletenessJson;
   /** The data quality of the cradle-to-gate result (PEF DQR, contribution-weighted); see src/report/data-quality.ts. */
@@ -105,6 +108,7 @@ export function resultsSummary(ctx: CalcContext, result: ProductResult): Results
       biogenic_co2_kg: { product: scalarValue(graph, f.biogenicCarbon.productCo2), packaging: scalarValue(graph, f.biogenicCarbon.packagingCo2) },
     },
     completeness,
+    checklist: productChecklist(ctx, result, modules, completeness.missing),
     scenarios: scenariosJson(ctx, result),
     data_quality: productDataQuality(ctx, result),
     ...withSensitivity(ctx, result),

@@ -13,6 +13,7 @@ import { productView, type CatalogueEntry, type ProductReport, type ProductView 
 import type { TableView } from './table-view.ts';
 import { datasetCounts, factorQualityTable } from './verification-view.ts';
 import { formatCounted } from '../format.ts';
+import { CHECKS } from '../calc/checklist.ts';
 
 export type { CatalogueEntry, ProductReport, ProductView } from './product-view.ts';
 export { catalogueEntry } from './product-view.ts';
@@ -72,6 +73,8 @@ export interface SiteView {
   headlineHeads: { indicator: string; a1a3: string; d: string };
   warnings: string[];
   indicators: Array<{ code: string; name: string; unit: string }>;
+  /** The verifier's checklist over the catalogue: the checks, and how many products hold, warn or fail. */
+  checklist: { checks: typeof CHECKS; summary: string };
 }
 
 export const CAUTIONS = [
@@ -111,6 +114,7 @@ export function buildSiteView(project: Project, problems: readonly Problem[], op
     familiesCount: formatCounted(catalogue ? (options.families ?? []).length : 0, 'family', 'families'),
     productsCount: formatCounted(catalogue?.length ?? 0, 'product', 'products'),
     headlineHeads: headlineHeads(),
+    checklist: { checks: CHECKS, summary: catalogue ? checklistSummary(catalogue) : '' },
     verification: { inputs: [...(options.inputs ?? [])], datasets: catalogue ? datasetCounts(project) : [], factorQuality: catalogue ? factorQualityTable(project, catalogue) : { title: '', caption: '', headers: [], rows: [], empty: '' } },
     factors: catalogue ? factorTable(project, project.factors.rows, catalogue) : { title: '', caption: '', headers: [], rows: [], empty: '' },
     // Family spreads are known once every member is computed: the catalogue render adds them.
@@ -161,4 +165,11 @@ export function siteContext(project: Project, pdfs: boolean): SiteContext {
 function headlineHeads(): SiteView['headlineHeads'] {
   const unit = findIndicator(HEADLINE_INDICATOR)!.unit;
   return { indicator: HEADLINE_INDICATOR, a1a3: `${HEADLINE_INDICATOR} ${HEADLINE_MODULE} (${unit})`, d: `Module ${HEADLINE_MODULE_D} ${HEADLINE_INDICATOR} (${unit})` };
+}
+
+/** How many products' checks fail or warn, in a sentence. */
+function checklistSummary(catalogue: readonly CatalogueEntry[]): string {
+  const failing = catalogue.filter((entry) => entry.checks.some((check) => check.status === 'fails')).length;
+  const warning = catalogue.filter((entry) => !entry.checks.some((check) => check.status === 'fails') && entry.checks.some((check) => check.status === 'warning')).length;
+  return `${formatCounted(failing, 'product fails', 'products fail')} a check, ${formatCounted(warning, 'more has', 'more have')} a warning.`;
 }
