@@ -3,6 +3,8 @@ import { DISCLAIMERS, MANDATORY_INDICATORS } from '../reference/indicators.ts';
 import { LIFE_CYCLE_MODULES } from '../reference/modules.ts';
 import { cutoffStep, flowStep, inventoryStep } from '../trace/ids.ts';
 import type { CalcContext } from './context.ts';
+import { expandedUses } from './contributions.ts';
+import { findGas } from '../reference/ghg.ts';
 import type { ProductResult } from './product.ts';
 
 /**
@@ -20,6 +22,8 @@ export interface ChecklistItem {
   detail: string;
   /** Figure ids (of this product's graph) that are the evidence. */
   figures: string[];
+  /** Input rows that are the evidence, where no figure is (excluded.csv). */
+  rows?: Array<{ file: string; line: number }>;
   source: string;
 }
 
@@ -35,6 +39,8 @@ export const CHECKS: ReadonlyArray<{ id: string; title: string; source: string }
   { id: 'module-d-net', title: 'Module D on net flows only', source: 'EN 15804+A2 Annex D' },
   { id: 'mandatory', title: 'Mandatory modules and indicators present, undeclared ones marked', source: 'EN 15804+A2 (mandatory modules and indicators)' },
   { id: 'disclaimers', title: 'Disclaimers printed beside the indicators that need them', source: 'EN 15804+A2 (notes to the indicator tables)' },
+  { id: 'data-age', title: 'Data age: specific data at most 5, generic at most 10 years older than the reference year', source: 'common practice (programme rules on data quality)' },
+  { id: 'cut-off', title: 'Cut-off rule: each flow left out at most 1 %, all of a module at most 5 %', source: 'EN 15804+A2 (cut-off criteria, of the mass and of the primary energy of a unit process)' },
   { id: 'validity', title: 'Validity at most five years from issue', source: 'EN 15804+A2 / ISO 14025 practice' },
 ];
 
@@ -46,9 +52,9 @@ export function productChecklist(ctx: CalcContext, result: ProductResult, module
   const project = ctx.project;
   const declaration = project.declaration;
   const items: ChecklistItem[] = [];
-  const add = (id: string, status: CheckStatus, detail: string, figures: string[] = []) => {
+  const add = (id: string, status: CheckStatus, detail: string, figures: string[] = [], rows: Array<{ file: string; line: number }> = []) => {
     const check = CHECKS.find((c) => c.id === id)!;
-    items.push({ id, title: check.title, status, detail, figures, source: check.source });
+    items.push({ id, title: check.title, status, detail, figures, ...(rows.length > 0 ? { rows } : {}), source: check.source });
   };
 
   // Mass balance: every kg of gross input leaves as product, packaging or process scrap; the product's net mass is its declared unit's.
@@ -125,6 +131,67 @@ export function productChecklist(ctx: CalcContext, result: ProductResult, module
   // Disclaimers: printed beside every reported indicator that needs one.
   const needing = DISCLAIMERS.flatMap((d) => d.codes.filter((code) => project.indicators.includes(code)));
   add('disclaimers', 'holds', needing.length === 0 ? 'No reported indicator needs a disclaimer.' : `Printed under the results tables, marked beside ${needing.join(', ')} (on the page and in the PDF).`);
+
+  // Data age: the factors behind the figures and the product's own activities, against the reference year.
+  const year = declaration.reference_year;
+  const uses = expandedUses(ctx, graph, Object.keys(modules).filter((m) => m !== 'A1-A3'));
+  const tooOld: string[] = [];
+  const undated = new Set<string>();
+  const seen = new Set<string>();
+  for (const use of uses) {
+    if (!seen.has(use.factor) && !findGas(use.factor)) {
+      seen.add(use.factor);
+      const row = ctx.factorRow(use.factor).value;
+      const limit = row.data_type === 'specific' ? 5 : 10;
+      if (row.reference_year === null) undated.add(`factor ${use.factor}`);
+      else if (year - row.reference_year > limit) tooOld.push(`factor ${use.factor} (${row.reference_year}, ${row.data_type ?? 'generic'}: ${year - row.reference_year} years)`);
+    }
+    for (const group of use.drivers) {
+      for (const driver of group) {
+        if (driver.file !== project.activities.file) continue;
+        const key = `activities.csv line ${driver.line}`;
+        if (seen.has(key)) continue;
+        seen.add(key);
+        const activity = project.lookups.byLine.activities.get(driver.line)?.value;
+        if (!activity) continue;
+        if (activity.reference_year === null) undated.add(key);
+        else if (year - activity.reference_year > 5) tooOld.push(`${key} (${activity.reference_year}, specific: ${year - activity.reference_year} years)`);
+      }
+    }
+  }
+  add(
+    'data-age',
+    tooOld.length > 0 ? 'fails' : undated.size > 0 ? 'warning' : 'holds',
+    tooOld.length > 0
+      ? `Older than allowed for reference year ${year}: ${tooOld.join('; ')}.`
+      : undated.size > 0
+        ? `${formatCounted(undated.size, 'input behind the figures gives', 'inputs behind the figures give')} no reference_year (${[...undated].slice(0, 5).join(', ')}${undated.size > 5 ? ', …' : ''}), so its age cannot be checked.`
+        : `Every factor and activity behind the figures is within its limit of reference year ${year} (specific 5, generic or not stated 10 years).`,
+  );
+
+  // Cut-off: the flows excluded.csv lists for this product (and for every product), against 1 % each and 5 % per module.
+  const left = [...(project.lookups.excluded.get(result.productId) ?? []), ...(project.lookups.excluded.get('*') ?? [])];
+  const rowsOf = left.map((row) => ({ file: project.excluded.file, line: row.line }));
+  if (project.excluded.written.length === 0) {
+    add('cut-off', 'warning', 'No flows are listed as left out (excluded.csv): the declaration should state the flows it leaves out under the cut-off rule, or that it leaves none out.');
+  } else if (left.length === 0) {
+    add('cut-off', 'holds', 'excluded.csv lists no flow left out of this product.');
+  } else {
+    const over: string[] = [];
+    for (const row of left) {
+      for (const [column, words] of [['mass_share', 'of the mass'], ['energy_share', 'of the primary energy']] as const) {
+        const value = row.value[column];
+        if (value !== undefined && value > 0.01) over.push(`${row.value.flow} (${row.value.module}) carries ${formatSignificant(value * 100, 3)} % ${words}`);
+      }
+    }
+    for (const module of [...new Set(left.map((row) => row.value.module))]) {
+      for (const [column, words] of [['mass_share', 'mass'], ['energy_share', 'primary energy']] as const) {
+        const sum = left.filter((row) => row.value.module === module).reduce((total, row) => total + (row.value[column] ?? 0), 0);
+        if (sum > 0.05) over.push(`the flows left out of ${module} carry ${formatSignificant(sum * 100, 3)} % of its ${words} together`);
+      }
+    }
+    add('cut-off', over.length > 0 ? 'fails' : 'holds', over.length > 0 ? `${over.join('; ')} (limits: 1 % each, 5 % per module).` : `${formatCounted(left.length, 'flow is', 'flows are')} left out (excluded.csv), each within 1 % and together within 5 % per module.`, [], rowsOf);
+  }
 
   // Validity.
   const issued = new Date(`${declaration.issued}T00:00:00Z`);

@@ -1,6 +1,6 @@
 import type { Row, Table } from '../schema/table.ts';
 import type { ProcessDefinition, ProcessRow } from './processes.ts';
-import type { Activity, BomLine, EolRow, FactorRow, Material, Product, TransportLeg } from './rows.ts';
+import type { Activity, BomLine, EolRow, ExcludedFlow, FactorRow, Material, Product, TransportLeg } from './rows.ts';
 import type { SiteRow } from './sites.ts';
 
 /**
@@ -22,6 +22,8 @@ export interface ProjectLookups {
   processRows: Map<string, Row<ProcessRow>[]>;
   /** Validated processes by process_id. */
   processes: Map<string, ProcessDefinition>;
+  /** excluded.csv rows by product_id (`*` for every product). */
+  excluded: Map<string, Row<ExcludedFlow>[]>;
   /** The rows of a product's own files by start line (how a contribution names its input). */
   byLine: {
     bom: Map<number, Row<BomLine>>;
@@ -42,6 +44,7 @@ export interface LookupTables {
   activities: Table<Activity>;
   transport: Table<TransportLeg>;
   site: Table<SiteRow>;
+  excluded: Table<ExcludedFlow>;
 }
 
 const byLine = <T>(table: Table<T>): Map<number, Row<T>> => new Map(table.rows.map((row) => [row.line, row]));
@@ -56,6 +59,7 @@ export function projectLookups(tables: LookupTables): ProjectLookups {
     eolRows: new Map([...scenarios].map(([scenario, rows]) => [scenario, new Map(rows.map((row) => [row.value.material, row]))])),
     processRows: groupBy(tables.process.rows, (row) => row.value.process_id),
     processes: new Map(tables.processes.map((process) => [process.id, process])),
+    excluded: groupBy(tables.excluded.rows, (row) => row.value.product_id),
     byLine: { bom: byLine(tables.bom), activities: byLine(tables.activities), transport: byLine(tables.transport), site: byLine(tables.site) },
   };
 }

@@ -4,7 +4,7 @@ import { readText } from '../load/text.ts';
 import { jsonCells, loadJson, locate, jsonPath, type JsonFile } from '../load/json.ts';
 import { sortProblems, type Problem } from '../problems.ts';
 import { FACTOR_INDICATOR_CODES, INDICATORS, findIndicator, inReportingOrder } from '../reference/indicators.ts';
-import { CSV_FILES, DECLARATION_FILE, productsCsv, bomCsv, materialsCsv, eolCsv, activitiesCsv, transportCsv, factorsCsv, processCsv, siteCsv, productionCsv, familiesCsv } from '../schema/index.ts';
+import { CSV_FILES, DECLARATION_FILE, productsCsv, bomCsv, materialsCsv, eolCsv, activitiesCsv, transportCsv, factorsCsv, processCsv, siteCsv, productionCsv, familiesCsv, excludedCsv } from '../schema/index.ts';
 import { readFamilies } from './families.ts';
 import { readSites } from './sites.ts';
 import { columnsOf } from '../schema/csv-file.ts';
@@ -89,6 +89,7 @@ export async function loadProject(dirArgument: string): Promise<ProjectLoad> {
   const sitesRead = site && production && products ? readSites(site, production, products) : undefined;
   if (sitesRead) problems.push(...sitesRead.problems);
   const familyRows = tableOf(familiesCsv);
+  const excluded = tableOf(excludedCsv);
   const familiesRead = familyRows && products && production ? readFamilies(familyRows, products, production) : undefined;
   if (familiesRead) problems.push(...familiesRead.problems);
 
@@ -97,10 +98,10 @@ export async function loadProject(dirArgument: string): Promise<ProjectLoad> {
   const flowIndicators = INDICATORS.filter((i) => i.basis === 'flows').map((i) => i.code);
   const indicators = declaration?.indicators ? inReportingOrder(declaration.indicators) : inReportingOrder([...factorIndicators, ...flowIndicators]);
 
-  if (products && bom && materials && eol && activities && transport && factors && process && processRead && site && production && sitesRead && familyRows && familiesRead) {
+  if (products && bom && materials && eol && activities && transport && factors && process && processRead && site && production && sitesRead && familyRows && familiesRead && excluded) {
     const processes = processRead.processes;
-    const lookups = projectLookups({ products, materials, eol, factors, process, processes, bom, activities, transport, site });
-    const tables = { dir, indicators, factorIndicators, products, bom, materials, eol, activities, transport, factors, process, processes, site, production, allocation: sitesRead.allocation, familyRows, families: familiesRead.families, lookups };
+    const lookups = projectLookups({ products, materials, eol, factors, process, processes, bom, activities, transport, site, excluded });
+    const tables = { dir, indicators, factorIndicators, products, bom, materials, eol, activities, transport, factors, process, processes, site, production, allocation: sitesRead.allocation, familyRows, families: familiesRead.families, excluded, lookups };
     // Cross-file rules run even when declaration.json is broken, so one run shows every problem.
     problems.push(...crossFileChecks({ ...tables, declaration, declarationFile }));
     const sorted = sortProblems(problems);

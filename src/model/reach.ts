@@ -63,7 +63,7 @@ export function reachedRows(project: Project, rows: ProductRows): ReachedRows {
 
 /** The project's input tables by file name. */
 export function inputTables(project: Project): Map<string, Table<unknown>> {
-  const list: Array<Table<unknown>> = [project.products, project.bom, project.materials, project.eol, project.activities, project.transport, project.factors, project.process, project.site, project.production, project.familyRows];
+  const list: Array<Table<unknown>> = [project.products, project.bom, project.materials, project.eol, project.activities, project.transport, project.factors, project.process, project.site, project.production, project.familyRows, project.excluded];
   return new Map(list.map((table) => [table.file, table]));
 }
 
@@ -97,6 +97,8 @@ export function productReach(project: Project, rows: ProductRows): Map<string, S
   // Mass keys read every product's unit mass of the period.
   addRows(project.products, shown.siteProducts);
   addRows(project.familyRows, shown.familyRows);
+  // The verifier's checklist reads the flows left out of this product, and of every product (*).
+  addRows(project.excluded, [...(project.lookups.excluded.get(rows.product.value.product_id) ?? []), ...(project.lookups.excluded.get('*') ?? [])]);
   // A process's flows are charged with factors of their own (electricity, alumina, reagents),
   // which may in turn be processes.
   const seen = new Set<string>();

@@ -1,5 +1,5 @@
 import type { RowOf } from '../schema/csv-file.ts';
-import type { productsCsv, bomCsv, materialsCsv, eolCsv, activitiesCsv, transportCsv, factorsCsv } from '../schema/index.ts';
+import type { productsCsv, bomCsv, materialsCsv, eolCsv, activitiesCsv, transportCsv, factorsCsv, excludedCsv } from '../schema/index.ts';
 
 /** Typed rows of each input file, inferred from the zod schemas (never written twice). */
 export type Product = RowOf<typeof productsCsv>;
@@ -9,6 +9,7 @@ export type EolRow = RowOf<typeof eolCsv>;
 export type Activity = RowOf<typeof activitiesCsv>;
 export type TransportLeg = RowOf<typeof transportCsv>;
 export type FactorRow = RowOf<typeof factorsCsv>;
+export type ExcludedFlow = RowOf<typeof excludedCsv>;
 
 /** A factor row's value for an indicator: a number, or null where the cell is empty ("not available"). */
 export function indicatorValue(factor: FactorRow, code: string): number | null {

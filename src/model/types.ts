@@ -1,4 +1,4 @@
-import type { Product, BomLine, Material, EolRow, Activity, TransportLeg, FactorRow } from './rows.ts';
+import type { Product, BomLine, Material, EolRow, Activity, TransportLeg, FactorRow, ExcludedFlow } from './rows.ts';
 import type { Declaration } from '../schema/declaration.ts';
 import type { JsonCell, JsonFile } from '../load/json.ts';
 import type { Table } from '../schema/table.ts';
@@ -43,6 +43,8 @@ export interface Project {
   familyRows: Table<FamilyRow>;
   /** Its families, members weighted. */
   families: Family[];
+  /** excluded.csv (optional): flows left out under the cut-off rule. */
+  excluded: Table<ExcludedFlow>;
   /** Rows by id, built once (src/model/lookups.ts). */
   lookups: ProjectLookups;
 }

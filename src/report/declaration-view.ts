@@ -207,7 +207,7 @@ export function declarationResultsView(ctx: CalcContext, rows: ProductRows, resu
   const uncertainty = json.uncertainty ? uncertaintyView(json.uncertainty, sci) : undefined;
   const incomplete = json.completeness ? completenessText(json.completeness) : undefined;
   const scenarios = json.scenarios ? scenarioTables(json.scenarios, sci) : undefined;
-  const checklist = (json.checklist?.items ?? []).map((item) => ({ id: item.id, title: item.title, status: item.status, detail: item.detail, source: item.source, evidence: item.figures.map((id) => ({ text: id, href: figureHref(id) })) }));
+  const checklist = (json.checklist?.items ?? []).map((item) => ({ id: item.id, title: item.title, status: item.status, detail: item.detail, source: item.source, evidence: [...item.figures.map((id): FigureCell => ({ text: id, href: figureHref(id) })), ...(item.rows ?? []).map((row): FigureCell => ({ text: `${row.file} line ${row.line}` }))] }));
   return { significantFigures: digits, boundary, checklist, ...(scenarios ? { scenarios } : {}), ...(incomplete ? { incomplete } : {}), ...(packagingNotDeclared ? { packagingNotDeclared } : {}), modules, tables, recycledContent, biogenic, comparison, charts, processes: processModels(ctx, result, sci), headline, ...(dataQuality ? { dataQuality } : {}), ...(sensitivity ? { sensitivity } : {}), ...(uncertainty ? { uncertainty } : {}) };
 }
 

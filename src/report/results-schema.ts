@@ -101,11 +101,11 @@ export const resultsSchema = z
     checklist: z
       .strictObject({
         items: z.array(
-          z.strictObject({ id: z.string(), title: z.string(), status: z.enum(['holds', 'warning', 'fails']), detail: z.string(), figures: z.array(z.string()), source: z.string() }),
+          z.strictObject({ id: z.string(), title: z.string(), status: z.enum(['holds', 'warning', 'fails']), detail: z.string(), figures: z.array(z.string()), rows: z.array(z.strictObject({ file: z.string(), line: z.number().int() })).optional(), source: z.string() }),
         ),
       })
       .optional()
-      .describe('The checks a verifier makes first (mass balance, GWP sum, biogenic carbon, module D on net flows, mandatory modules and indicators, disclaimers, validity), each with its status, what was found, the figure ids that are the evidence and its source. Absent in results written before it was added.'),
+      .describe('The checks a verifier makes first (mass balance, GWP sum, biogenic carbon, module D on net flows, mandatory modules and indicators, disclaimers, data age, the cut-off rule, validity), each with its status, what was found, the figure ids that are the evidence and its source. Absent in results written before it was added.'),
     scenarios: z
       .strictObject({
         end_of_life: z.array(

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { choice, gsdCell, quantity, reference, requiredText, text, unitCell } from './cells.ts';
+import { choice, gsdCell, quantity, reference, requiredText, text, unitCell, yearCell } from './cells.ts';
 import { defineCsv } from './csv-file.ts';
 
 export const ACTIVITY_MODULES = ['A1', 'A2', 'A3', 'A4', 'A5', 'C1', 'C2', 'C3', 'C4'] as const;
@@ -19,6 +19,7 @@ export const activitiesCsv = defineCsv({
       unit: unitCell('Unit of the amount; must convert to the factor’s unit (kWh ↔ MJ ↔ GJ, g ↔ kg ↔ t, L ↔ m3).'),
       source: text('Where the figure comes from (meter, allocation sheet).'),
       gsd: gsdCell(d, 'Uncertainty of amount for an uncertainty run: geometric standard deviation of a lognormal whose median is amount; empty: fixed.'),
+      reference_year: yearCell('The year the amount represents (your own data: the verifier’s checklist allows at most 5 years before declaration.json reference_year, common practice); empty: not given.'),
     }),
   example: {
     product_id: 'EXT-6060-40',

@@ -309,3 +309,18 @@ export function optionalShare(dialect: Dialect, description: string) {
     { description, kind: 'share', required: false, unit: 'share (0–1 or %)' },
   );
 }
+
+/** A calendar year the data represent (1900–2100), or empty: not given. */
+export function yearCell(description: string) {
+  const expected = 'a year such as 2024, or empty for "not given"';
+  return withMeta(
+    cell().transform((raw, ctx): number | null => {
+      if (isBlank(raw)) return null;
+      if (!/^\s*\d{4}\s*$/.test(raw)) return report(ctx, 'NOT_A_NUMBER', `expected ${expected}`, expected);
+      const year = Number(raw.trim());
+      if (year < 1900 || year > 2100) return report(ctx, 'OUT_OF_RANGE', 'is outside 1900–2100', expected);
+      return year;
+    }),
+    { description, kind: 'number', required: false, unit: 'year' },
+  );
+}

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { gsdCell, id, optionalChoice, optionalQuantity, pedigreeScore, requiredText, text, unitCell } from './cells.ts';
+import { gsdCell, id, optionalChoice, optionalQuantity, pedigreeScore, requiredText, text, unitCell, yearCell } from './cells.ts';
 import { defineCsv } from './csv-file.ts';
 import { INDICATORS } from '../reference/indicators.ts';
 import type { Dialect } from './numbers.ts';
@@ -19,6 +19,7 @@ function baseShape(d: Dialect) {
     p: pedigreeScore('Precision, 1 (best) to 5; empty: not scored.'),
     gsd: gsdCell(d, 'Uncertainty of the row’s values for an uncertainty run: geometric standard deviation of a lognormal whose median is each value (one draw scales every indicator of the row); empty: fixed.'),
     data_type: optionalChoice('specific (your own or a supplier’s data) or generic (database data); empty: not stated.', ['specific', 'generic']),
+    reference_year: yearCell('The year the row’s data represent; the verifier’s checklist holds it to declaration.json reference_year (specific data at most 5, generic at most 10 years older: common practice); empty: not given.'),
   };
 }
 

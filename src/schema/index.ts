@@ -10,9 +10,10 @@ import { processCsv } from './process.ts';
 import { siteCsv } from './site.ts';
 import { productionCsv } from './production.ts';
 import { familiesCsv } from './families.ts';
+import { excludedCsv } from './excluded.ts';
 
 export const DECLARATION_FILE = 'declaration.json';
 
-export const CSV_FILES = [productsCsv, bomCsv, materialsCsv, eolCsv, activitiesCsv, transportCsv, factorsCsv, processCsv, siteCsv, productionCsv, familiesCsv] as const;
+export const CSV_FILES = [productsCsv, bomCsv, materialsCsv, eolCsv, activitiesCsv, transportCsv, factorsCsv, processCsv, siteCsv, productionCsv, familiesCsv, excludedCsv] as const;
 
-export { productsCsv, bomCsv, materialsCsv, eolCsv, activitiesCsv, transportCsv, factorsCsv, processCsv, siteCsv, productionCsv, familiesCsv };
+export { productsCsv, bomCsv, materialsCsv, eolCsv, activitiesCsv, transportCsv, factorsCsv, processCsv, siteCsv, productionCsv, familiesCsv, excludedCsv };

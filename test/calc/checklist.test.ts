@@ -1,4 +1,6 @@
 import { describe, expect, it } from 'vitest';
+import { writeFile } from 'node:fs/promises';
+import path from 'node:path';
 import { compute, writeFixture } from './fixture.ts';
 import { DEMO } from '../helpers.ts';
 
@@ -46,4 +48,42 @@ describe('the verifier’s checklist, answered per product', async () => {
   it('fails a validity longer than five years from issue (EN 15804+A2 / ISO 14025 practice)', () => {
     expect(statusOf(odd!.results, 'validity').status).toBe('fails');
   });
+
+  it('holds the data’s age to the reference year: specific at most 5, generic at most 10 years older (common practice)', async () => {
+    const dir = await writeFixture({
+      bom: 'product_id,line_id,component,material,role,mass_kg,source\nP1,L1,Part,m1,product,1,test',
+      materials: 'material,name,family,virgin,landfill\nm1,Metal,metal,ev,ed',
+      eol: 'scenario,material,recycling,landfill,recycling_yield,transport_km\ns1,*,0,1,1,0',
+      activities: 'product_id,module,activity,factor,amount,unit,source,reference_year\nP1,A3,Press,elec,1,kWh,meter,2019',
+      factors: 'factor_id,name,unit,dataset,GWP-total,data_type,reference_year\nev,virgin,kg,test,2,generic,2016\ned,landfill,kg,test,0.01,generic,\nelec,electricity,kWh,test,0.5,specific,2024',
+      declaration: { methods: ['cutoff'], reference_year: 2025 },
+    });
+    const [aged] = await compute(dir);
+    const age = statusOf(aged!.results, 'data-age');
+    // ev: 2025 − 2016 = 9 ≤ 10 (generic); the press: 2025 − 2019 = 6 > 5 (own data, specific).
+    expect(age.status).toBe('fails');
+    expect(age.detail).toContain('activities.csv line 2 (2019, specific: 6 years)');
+    expect(age.detail).not.toContain('factor ev');
+  });
+
+  it('holds the flows left out to 1 % each and 5 % per module (EN 15804+A2 cut-off), and warns when none are listed', async () => {
+    const files = {
+      bom: 'product_id,line_id,component,material,role,mass_kg,source\nP1,L1,Part,m1,product,1,test',
+      materials: 'material,name,family,virgin,landfill\nm1,Metal,metal,ev,ed',
+      eol: 'scenario,material,recycling,landfill,recycling_yield,transport_km\ns1,*,0,1,1,0',
+      factors: 'factor_id,name,unit,dataset,GWP-total\nev,virgin,kg,test,2\ned,landfill,kg,test,0.01',
+      declaration: { methods: ['cutoff'] },
+    };
+    const [unlisted] = await compute(await writeFixture(files));
+    expect(statusOf(unlisted!.results, 'cut-off').status).toBe('warning');
+    const dir = await writeFixture(files);
+    // 0.8 % + 0.9 % + 3.5 % = 5.2 % of A3's mass together; the last is 3.5 % on its own.
+    await writeFile(path.join(dir, 'excluded.csv'), 'product_id,module,flow,mass_share,energy_share,source\nP1,A3,Oil,0.8%,,log\n*,A3,Gloves,0.9%,,log\nP1,A3,Packing tape,3.5%,,log\n');
+    const [listed] = await compute(dir);
+    const cut = statusOf(listed!.results, 'cut-off');
+    expect(cut.status).toBe('fails');
+    expect(cut.detail).toContain('Packing tape (A3) carries 3.5 % of the mass');
+    expect(cut.detail).toContain('the flows left out of A3 carry 5.2 % of its mass together');
+  });
 });
+

@@ -126,7 +126,7 @@ describe('loopsheet init', () => {
     const dir = path.join(await scratch(), 'my-project');
     const result = await runCli(['init', dir]);
     expect(result.code).toBe(0);
-    expect((await readdir(dir)).sort()).toEqual(['README.md', 'activities.csv', 'bom.csv', 'declaration.json', 'eol.csv', 'factors.csv', 'families.csv', 'materials.csv', 'process.csv', 'production.csv', 'products.csv', 'site.csv', 'transport.csv']);
+    expect((await readdir(dir)).sort()).toEqual(['README.md', 'activities.csv', 'bom.csv', 'declaration.json', 'eol.csv', 'excluded.csv', 'factors.csv', 'families.csv', 'materials.csv', 'process.csv', 'production.csv', 'products.csv', 'site.csv', 'transport.csv']);
     const bom = await readFile(path.join(dir, 'bom.csv'), 'utf8');
     expect(bom.split('\n')[2]).toBe('product_id,line_id,component,material,role,mass_kg,recycled_pre,recycled_post,scrap_rate,scrap_fate,source,gsd');
     expect(bom.split('\n')[3]).toMatch(/^# EXT-6060-40,L1,/);

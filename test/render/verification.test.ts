@@ -27,7 +27,7 @@ describe('the verification pack', () => {
 
     // Checked against node:crypto over the files on disk, not against the tool's own hashing.
     const sha = (bytes: Buffer) => createHash('sha256').update(bytes).digest('hex');
-    const inputFiles = ['declaration.json', 'products.csv', 'bom.csv', 'materials.csv', 'eol.csv', 'activities.csv', 'transport.csv', 'factors.csv', 'process.csv', 'site.csv', 'production.csv', 'families.csv'];
+    const inputFiles = ['declaration.json', 'products.csv', 'bom.csv', 'materials.csv', 'eol.csv', 'activities.csv', 'transport.csv', 'factors.csv', 'process.csv', 'site.csv', 'production.csv', 'families.csv', 'excluded.csv'];
     expect(manifest.inputs.map((i) => i.file).sort()).toEqual([...inputFiles].sort());
     for (const input of manifest.inputs) {
       const original = await readFile(path.join(DEMO, input.file));

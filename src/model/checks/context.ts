@@ -23,7 +23,7 @@ export class CheckContext {
   /** The project's table read from a file (by its name in src/schema), if the project has that file. */
   table(file: string): AnyTable | undefined {
     const p = this.project;
-    return [p.products, p.bom, p.materials, p.eol, p.activities, p.transport, p.factors, p.process, p.site, p.production, p.familyRows].find((table) => table.file === file);
+    return [p.products, p.bom, p.materials, p.eol, p.activities, p.transport, p.factors, p.process, p.site, p.production, p.familyRows, p.excluded].find((table) => table.file === file);
   }
 
   /** Ids written in a table's column, valid rows or not, so one bad cell elsewhere in a row does not make references to it dangle. */

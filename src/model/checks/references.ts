@@ -65,6 +65,7 @@ export function references(ctx: CheckContext): void {
   for (const row of p.site.rows) factorColumn(p.site, row, row.value.factor);
   for (const row of p.production.rows) check(p.production, row, 'product_id', row.value.product_id, productIds, 'product_id in products.csv');
   for (const row of p.familyRows.rows) check(p.familyRows, row, 'product_id', row.value.product_id, productIds, 'product_id in products.csv');
+  for (const row of p.excluded.rows) if (row.value.product_id !== '*') check(p.excluded, row, 'product_id', row.value.product_id, productIds, 'product_id in products.csv (or *)');
   const linesByProduct = new Map<string, Set<string>>();
   for (const row of p.bom.written) {
     const product = (row.raw.product_id ?? '').trim();
