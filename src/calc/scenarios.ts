@@ -15,8 +15,8 @@ export interface EndOfLifeScenario {
   /** Where its end of life is declared: the product's C1–C4, or A5 for the packaging. */
   stage: 'C1-C4' | 'A5';
   eol: MaterialEol;
-  /** The figure id of each quantity (kg), the mass included. */
-  ids: Record<ScenarioQuantity, string>;
+  /** The figure id of each quantity (kg), the mass included; a route the scenario gives no share is 0 and has none. */
+  ids: Partial<Record<ScenarioQuantity, string>>;
 }
 
 export interface ModuleDScenario {
@@ -51,16 +51,18 @@ function endOfLife(ctx: CalcContext, graph: FigureGraph, waste: MaterialEol, sta
     return id(quantity);
   };
   const what = stage === 'A5' ? `${waste.materialId} packaging` : `${waste.materialId} at end of life`;
-  const ids = { mass: waste.ids.mass } as Record<ScenarioQuantity, string>;
+  const ids: Partial<Record<ScenarioQuantity, string>> = { mass: waste.ids.mass };
   for (const [quantity, column, words] of SHARES) {
+    // A route with no share is 0 kg, read from its empty or zero cell: no figure of its own.
+    if (!(eol[column] > 0)) continue;
     ids[quantity] = scalar(quantity, waste.massKg * eol[column], `${symbol}·${column}`, `Kilograms of ${what} ${words}.`, [massTerm, cellTerm(ctx.cell(eolTable, waste.eol, column), column)]);
   }
   // Collected separately: as written, else what is re-used and recycled.
   const written = eol.separate_collection;
   const separateShare = written ?? eol.reuse + eol.recycling;
   const shareTerms = written !== undefined ? [cellTerm(ctx.cell(eolTable, waste.eol, 'separate_collection'), 'separate_collection')] : [cellTerm(ctx.cell(eolTable, waste.eol, 'reuse'), 'reuse'), cellTerm(ctx.cell(eolTable, waste.eol, 'recycling'), 'recycling')];
-  ids.separately = scalar('separately', waste.massKg * separateShare, written !== undefined ? `${symbol}·separate_collection` : `${symbol}·(reuse + recycling)`, `Kilograms of ${what} collected separately${written === undefined ? ' (eol.csv gives no separate_collection: what is re-used and recycled)' : ''}.`, [massTerm, ...shareTerms]);
-  ids.mixed = scalar('mixed', waste.massKg * (1 - separateShare), `${symbol} − collected separately`, `Kilograms of ${what} collected with mixed waste.`, [massTerm, figureTerm(ids.separately, 'separately')]);
+  if (separateShare > 0) ids.separately = scalar('separately', waste.massKg * separateShare, written !== undefined ? `${symbol}·separate_collection` : `${symbol}·(reuse + recycling)`, `Kilograms of ${what} collected separately${written === undefined ? ' (eol.csv gives no separate_collection: what is re-used and recycled)' : ''}.`, [massTerm, ...shareTerms]);
+  if (separateShare < 1) ids.mixed = scalar('mixed', waste.massKg * (1 - separateShare), `${symbol} − collected separately`, `Kilograms of ${what} collected with mixed waste.`, [massTerm, ...(ids.separately ? [figureTerm(ids.separately, 'separately')] : [])]);
   return { material: waste.materialId, stage, eol: waste, ids };
 }
 

@@ -73,7 +73,7 @@ function linkedSteps(result: ProductResult, project: Project): Set<string> {
   }
   for (const process of project.processes) linked.add(processStep.factor(process.id));
   // The scenario tables link to each material's end-of-life mass and module D's net flows.
-  for (const scenario of result.scenarios.endOfLife) for (const id of Object.values(scenario.ids)) linked.add(id);
+  for (const scenario of result.scenarios.endOfLife) for (const id of Object.values(scenario.ids)) if (id) linked.add(id);
   for (const d of result.scenarios.moduleD) for (const id of Object.values(d.ids)) linked.add(id);
   // The verifier's checklist links to the product's mass and the release of its packaging's biogenic carbon.
   linked.add(inventoryStep.product('G'));

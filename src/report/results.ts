@@ -161,11 +161,12 @@ function scenariosJson(ctx: CalcContext, result: ProductResult): ScenariosJson {
   return {
     end_of_life: result.scenarios.endOfLife.map((scenario) => {
       const eol = scenario.eol.eol.value;
-      const figures = Object.fromEntries(Object.entries(SCENARIO_KEYS).map(([key, quantity]) => [key, scenario.ids[quantity]]));
+      // A quantity without a figure is a route the scenario gives no share: 0 kg.
+      const figures = Object.fromEntries(Object.entries(SCENARIO_KEYS).flatMap(([key, quantity]) => (scenario.ids[quantity] ? [[key, scenario.ids[quantity]!]] : [])));
       return {
         material: scenario.material,
         stage: scenario.stage,
-        ...(Object.fromEntries(Object.entries(figures).map(([key, id]) => [key, value(id)])) as Record<keyof typeof SCENARIO_KEYS, number>),
+        ...(Object.fromEntries(Object.keys(SCENARIO_KEYS).map((key) => [key, figures[key] ? value(figures[key]) : 0])) as Record<keyof typeof SCENARIO_KEYS, number>),
         recycling_yield: eol.recycling_yield,
         transport_km: eol.transport_km,
         transport_factor: eol.transport_factor ?? null,
