@@ -9,7 +9,7 @@ import type { Inventory, LineFlows, MaterialEol } from './inventory.ts';
 import { driver, sumFigure, useFactor, vectorFigure } from './nodes.ts';
 import { bomCsv } from '../schema/bom.ts';
 import { addScaled, scaled, zeros } from './vector.ts';
-import { packagingEndOfLife, type PackagingEndOfLife } from './packaging.ts';
+import { exportedEnergyCredit, packagingEndOfLife, type PackagingEndOfLife } from './packaging.ts';
 import { declaresModule } from '../model/declared-modules.ts';
 
 /** Modules in EN 15804+A2 order. A4 and A5 appear only when the product has rows for them. */
@@ -297,34 +297,9 @@ function moduleD(ctx: CalcContext, graph: FigureGraph, materialEol: MaterialEol,
     ]);
     ids.push(id);
   }
-  const energy = ctx.project.declaration.energy_recovery;
-  const lhv = material.lhv_mj_per_kg;
-  if (eol.energy_recovery > 0 && lhv !== null && lhv > 0 && energy) {
-    const mj = materialEol.massKg * eol.energy_recovery * lhv;
-    const elec = factor(energy.electricity_factor);
-    const heat = factor(energy.heat_factor);
-    const toElec = conversionTerm(graph, 'MJ', elec.unit);
-    const toHeat = conversionTerm(graph, 'MJ', heat.unit);
-    const values = scaled(elec.values, -mj * energy.electricity_efficiency * toElec.factor);
-    addScaled(values, heat.values, -mj * energy.heat_efficiency * toHeat.factor);
-    const id = cutoffStep.exportedEnergy(materialEol.materialId);
-    const burnt = [materialEol.lines.map((l) => bomMass(l, l.line.mass_kg / materialEol.massKg))];
-    useFactor(graph, id, energy.electricity_factor, -mj * energy.electricity_efficiency * toElec.factor, burnt);
-    useFactor(graph, id, energy.heat_factor, -mj * energy.heat_efficiency * toHeat.factor, burnt);
-    const declarationCell = (column: string) => cellTerm(ctx.declarationCell(['energy_recovery', column]), column);
-    vectorFigure(graph, id, values, '−M_eol·energy_recovery·LHV·(η_el·E_el + η_heat·E_heat)', `Electricity and heat exported from incinerating ${materialEol.materialId}, replacing the declared substituted energy.`, [
-      figureTerm(materialEol.ids.mass, 'M_eol'),
-      eolCell('energy_recovery'),
-      cellTerm(ctx.cell(ctx.project.materials, materialEol.material, 'lhv_mj_per_kg'), 'LHV'),
-      declarationCell('electricity_efficiency'),
-      declarationCell('heat_efficiency'),
-      ...toElec.terms,
-      ...toHeat.terms,
-      elec.term('E_el'),
-      heat.term('E_heat'),
-    ]);
-    ids.push(id);
-  }
+  const burnt = [materialEol.lines.map((l) => bomMass(l, l.line.mass_kg / materialEol.massKg))];
+  const exported = exportedEnergyCredit(ctx, graph, cutoffStep.exportedEnergy(materialEol.materialId), materialEol, 'M_eol', materialEol.materialId, factor, burnt);
+  if (exported) ids.push(exported);
   return ids;
 }
 

@@ -86,14 +86,20 @@ export function packagingEndOfLife(ctx: CalcContext, graph: FigureGraph, inv: In
         gas.term('GWP'),
       ]);
     }
-    const exported = exportedEnergyCredit(ctx, graph, waste, factor, drivers);
+    const exported = exportedEnergyCredit(ctx, graph, cutoffStep.packagingEnergy(waste.materialId), waste, 'M_pack', `the ${waste.materialId} packaging`, factor, drivers);
     if (exported) d.push(exported);
   }
   return { materials, a5, d };
 }
 
-/** Module D: the electricity and heat the packaging's energy recovery exports, replacing the declared substituted energy. */
-function exportedEnergyCredit(ctx: CalcContext, graph: FigureGraph, waste: MaterialEol, factor: (id: string) => ResolvedFactor, drivers: ReturnType<typeof packagingMass>[][]): string | undefined {
+/**
+ * Module D: the electricity and heat that incinerating a material with energy recovery
+ * exports, −M·energy_recovery·LHV·(η_el·E_el + η_heat·E_heat), replacing the substituted
+ * energy declaration.json names. For the product's materials at end of life (M_eol) and for
+ * its packaging (M_pack); none where the material has no heating value or the declaration no
+ * energy_recovery.
+ */
+export function exportedEnergyCredit(ctx: CalcContext, graph: FigureGraph, id: string, waste: MaterialEol, symbol: 'M_eol' | 'M_pack', what: string, factor: (id: string) => ResolvedFactor, drivers: ReturnType<typeof driver>[][]): string | undefined {
   const energy = ctx.project.declaration.energy_recovery;
   const lhv = waste.material.value.lhv_mj_per_kg;
   const eol = waste.eol.value;
@@ -105,12 +111,11 @@ function exportedEnergyCredit(ctx: CalcContext, graph: FigureGraph, waste: Mater
   const toHeat = conversionTerm(graph, 'MJ', heat.unit);
   const values = scaled(elec.values, -mj * energy.electricity_efficiency * toElec.factor);
   addScaled(values, heat.values, -mj * energy.heat_efficiency * toHeat.factor);
-  const id = cutoffStep.packagingEnergy(waste.materialId);
   useFactor(graph, id, energy.electricity_factor, -mj * energy.electricity_efficiency * toElec.factor, drivers);
   useFactor(graph, id, energy.heat_factor, -mj * energy.heat_efficiency * toHeat.factor, drivers);
   const declarationCell = (column: string) => cellTerm(ctx.declarationCell(['energy_recovery', column]), column);
-  vectorFigure(graph, id, values, '−M_pack·energy_recovery·LHV·(η_el·E_el + η_heat·E_heat)', `Electricity and heat exported from incinerating the ${waste.materialId} packaging, replacing the declared substituted energy.`, [
-    figureTerm(waste.ids.mass, 'M_pack'),
+  vectorFigure(graph, id, values, `−${symbol}·energy_recovery·LHV·(η_el·E_el + η_heat·E_heat)`, `Electricity and heat exported from incinerating ${what}, replacing the declared substituted energy.`, [
+    figureTerm(waste.ids.mass, symbol),
     cellTerm(ctx.cell(ctx.project.eol, waste.eol, 'energy_recovery'), 'energy_recovery'),
     cellTerm(ctx.cell(ctx.project.materials, waste.material, 'lhv_mj_per_kg'), 'LHV'),
     declarationCell('electricity_efficiency'),

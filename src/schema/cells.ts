@@ -251,20 +251,25 @@ export function gsdCell(dialect: Dialect, description: string) {
   );
 }
 
-/** A pedigree score: a whole number from 1 (best) to 5, or empty (not scored, never guessed). */
-export function pedigreeScore(description: string) {
-  const expected = 'a whole number from 1 (best) to 5, or empty for "not scored"';
+/** An optional whole number within a range (a score, a year); empty is null, never 0. */
+function optionalWholeNumber(description: string, range: { min: number; max: number; expected: string; unit: string }) {
   return withMeta(
     cell().transform((raw, ctx): number | null => {
       if (isBlank(raw)) return null;
+      if (!/^\s*\d+\s*$/.test(raw)) return report(ctx, 'NOT_A_NUMBER', `expected ${range.expected}`, range.expected);
       const value = Number(raw.trim());
-      if (!/^\s*\d+\s*$/.test(raw)) return report(ctx, 'NOT_A_NUMBER', `expected ${expected}`, expected);
-      if (value < 1 || value > 5) return report(ctx, 'OUT_OF_RANGE', 'is outside 1–5', expected);
+      if (value < range.min || value > range.max) return report(ctx, 'OUT_OF_RANGE', `is outside ${range.min}–${range.max}`, range.expected);
       return value;
     }),
-    { description, kind: 'number', required: false, unit: 'score 1–5' },
+    { description, kind: 'number', required: false, unit: range.unit },
   );
 }
+
+/** A pedigree score: a whole number from 1 (best) to 5, or empty (not scored, never guessed). */
+export const pedigreeScore = (description: string) => optionalWholeNumber(description, { min: 1, max: 5, expected: 'a whole number from 1 (best) to 5, or empty for "not scored"', unit: 'score 1–5' });
+
+/** A calendar year the data represent (1900–2100), or empty: not given. */
+export const yearCell = (description: string) => optionalWholeNumber(description, { min: 1900, max: 2100, expected: 'a year such as 2024, or empty for "not given"', unit: 'year' });
 
 /** A unit from the unit registry, optionally of one dimension. Returns the canonical spelling. */
 export function unitCell(description: string, dimension?: Dimension) {
@@ -307,20 +312,5 @@ export function optionalShare(dialect: Dialect, description: string) {
       return parseShare(raw, dialect, false, expected, ctx);
     }),
     { description, kind: 'share', required: false, unit: 'share (0–1 or %)' },
-  );
-}
-
-/** A calendar year the data represent (1900–2100), or empty: not given. */
-export function yearCell(description: string) {
-  const expected = 'a year such as 2024, or empty for "not given"';
-  return withMeta(
-    cell().transform((raw, ctx): number | null => {
-      if (isBlank(raw)) return null;
-      if (!/^\s*\d{4}\s*$/.test(raw)) return report(ctx, 'NOT_A_NUMBER', `expected ${expected}`, expected);
-      const year = Number(raw.trim());
-      if (year < 1900 || year > 2100) return report(ctx, 'OUT_OF_RANGE', 'is outside 1900–2100', expected);
-      return year;
-    }),
-    { description, kind: 'number', required: false, unit: 'year' },
   );
 }
