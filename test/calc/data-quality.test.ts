@@ -15,7 +15,7 @@ import { dqrRating } from '../../src/reference/dqr.ts';
  *   DQR = (2·1.5 + 0.5·3.5) / (2 + 0.5) = 4.75 / 2.5 = 1.9 → very good
  *   scored share = 2.5 / 2.55; specific share (ev is supplier-specific) = 2 / 2.55
  */
-const fixture = (scores: { ev?: string; elec?: string } = {}) =>
+const fixture = (scores: { ev?: string; elec?: string } = {}, replace: { activities?: string; factors?: string } = {}) =>
   writeFixture({
     bom: `product_id,line_id,component,material,role,mass_kg,recycled_pre,recycled_post,scrap_rate,scrap_fate,source
 P1,L1,Part,m1,product,1,0,0,0,recycled,test`,
@@ -23,10 +23,14 @@ P1,L1,Part,m1,product,1,0,0,0,recycled,test`,
 m1,Metal,metal,ev,ed`,
     eol: `scenario,material,recycling,landfill,recycling_yield,transport_km
 s1,*,0,1,1,0`,
-    activities: `product_id,module,activity,factor,amount,unit,source
+    activities:
+      replace.activities ??
+      `product_id,module,activity,factor,amount,unit,source
 P1,A3,Press,elec,1,kWh,test
 P1,A3,Lights,elec2,0.1,kWh,test`,
-    factors: `factor_id,name,unit,dataset,GWP-total,ter,ger,tir,p,data_type
+    factors:
+      replace.factors ??
+      `factor_id,name,unit,dataset,GWP-total,ter,ger,tir,p,data_type
 ev,virgin,kg,test,2,${scores.ev ?? '1,2,1,2,specific'}
 ed,landfill,kg,test,0.1,2,2,2,2,generic
 elec,electricity,kWh,test,0.5,${scores.elec ?? '4,3,3,4,generic'}
@@ -78,17 +82,12 @@ describe('data quality (PEF DQR), hand-worked', async () => {
   });
 
   it('gives no rating to an indicator whose result is not available (a factor behind it has no value)', async () => {
-    const dir = await writeFixture({
-      bom: `product_id,line_id,component,material,role,mass_kg,recycled_pre,recycled_post,scrap_rate,scrap_fate,source
-P1,L1,Part,m1,product,1,0,0,0,recycled,test`,
-      materials: `material,name,family,virgin,landfill
-m1,Metal,metal,ev,ed`,
-      eol: `scenario,material,recycling,landfill,recycling_yield,transport_km
-s1,*,0,1,1,0`,
+    // No activities; ev has no AP, so AP of A1-A3 is not available.
+    const dir = await fixture({}, {
+      activities: 'product_id,module,activity,factor,amount,unit,source',
       factors: `factor_id,name,unit,dataset,GWP-total,AP,ter,ger,tir,p,data_type
 ev,virgin,kg,test,2,,1,2,1,2,specific
 ed,landfill,kg,test,0.1,0.001,2,2,2,2,generic`,
-      declaration: { methods: ['cutoff'] },
     });
     const [product] = await compute(dir);
     expect(product!.results.methods.cutoff.modules['A1-A3']!.AP).toBeNull();
