@@ -2,7 +2,6 @@ import type { Project, Material, EolRow, FactorRow } from '../model/types.ts';
 import { indicatorValue } from '../model/types.ts';
 import type { Row, Table } from '../schema/table.ts';
 import { findGas, GWP_SOURCES, type GwpSet } from '../reference/ghg.ts';
-import { findIndicator } from '../reference/indicators.ts';
 import { conversionFactor } from '../reference/units.ts';
 import { jsonPath } from '../load/json.ts';
 import { cellTerm, factorTerm, figureTerm, type CellRef, type FigureGraph, type Term } from '../trace/graph.ts';
@@ -38,8 +37,8 @@ export class CalcContext {
   private readonly factors = new Map<string, ResolvedFactor>();
 
   constructor(readonly project: Project) {
-    this.indicators = project.indicators.filter((code) => findIndicator(code)?.basis === 'factors');
-    this.flowIndicators = project.indicators.filter((code) => findIndicator(code)?.basis === 'flows');
+    this.indicators = project.indicators.filter((code) => project.indicatorSet.find(code)?.basis === 'factors');
+    this.flowIndicators = project.indicators.filter((code) => project.indicatorSet.find(code)?.basis === 'flows');
     this.gwpSet = project.declaration.gwp_set;
   }
 

@@ -3,7 +3,7 @@ import { readCsvText } from '../load/csv.ts';
 import { readText } from '../load/text.ts';
 import { jsonCells, loadJson, locate, jsonPath, type JsonFile } from '../load/json.ts';
 import { sortProblems, type Problem } from '../problems.ts';
-import { FACTOR_INDICATOR_CODES, INDICATORS, findIndicator, inReportingOrder } from '../reference/indicators.ts';
+import { FACTOR_INDICATOR_CODES, INDICATORS, IndicatorSet, findIndicator } from '../reference/indicators.ts';
 import { CSV_FILES, DECLARATION_FILE, productsCsv, bomCsv, materialsCsv, eolCsv, activitiesCsv, transportCsv, factorsCsv, processCsv, siteCsv, productionCsv, familiesCsv, excludedCsv } from '../schema/index.ts';
 import { readFamilies } from './families.ts';
 import { readSites } from './sites.ts';
@@ -11,7 +11,9 @@ import { columnsOf } from '../schema/csv-file.ts';
 import { readProcesses } from './processes.ts';
 import { declarationSchema, DECLARATION_KEYS, type Declaration } from '../schema/declaration.ts';
 import { describeIssue } from '../schema/issues.ts';
-import { tableReader, indicatorHeaderName, type Table, type TableOptions, type TableReader } from '../schema/table.ts';
+import { cellProblem, tableReader, indicatorHeaderName, type Table, type TableOptions, type TableReader } from '../schema/table.ts';
+import { optionalQuantity } from '../schema/cells.ts';
+import type { FactorRow } from './rows.ts';
 import type { CsvFileSchema, RowOf } from '../schema/csv-file.ts';
 import { nearestName } from '../reference/nearest.ts';
 import { crossFileChecks } from './checks/index.ts';
@@ -76,10 +78,13 @@ export async function loadProject(dirArgument: string): Promise<ProjectLoad> {
   const eol = tableOf(eolCsv);
   const activities = tableOf(activitiesCsv);
   const transport = tableOf(transportCsv);
+  // The registry's indicators and the programme's own (declaration.json extra_indicators), read from factors.csv columns of their code.
+  const indicatorSet = new IndicatorSet(declaration?.extra_indicators ?? []);
   const factors = tableOf(factorsCsv, {
-    canonicalName: indicatorHeaderName,
+    canonicalName: (header) => indicatorHeaderName(header) ?? indicatorSet.find(header)?.code,
     ignored: (name: string) => (findIndicator(name)?.basis === 'flows' ? `${name} ${FLOW_COLUMN_REASON}` : undefined),
   });
+  if (factors) problems.push(...readExtraIndicators(factors, indicatorSet.extraCodes));
 
   const process = tableOf(processCsv);
   const processRead = process ? readProcesses(process) : undefined;
@@ -93,15 +98,17 @@ export async function loadProject(dirArgument: string): Promise<ProjectLoad> {
   const familiesRead = familyRows && products && production ? readFamilies(familyRows, products, production) : undefined;
   if (familiesRead) problems.push(...familiesRead.problems);
 
-  const factorIndicators = factors ? inReportingOrder(Object.keys(factors.columns).filter((name) => FACTOR_INDICATOR_CODES.includes(name))) : [];
+  const factorIndicators = factors ? indicatorSet.inReportingOrder(Object.keys(factors.columns).filter((name) => FACTOR_INDICATOR_CODES.includes(name) || indicatorSet.extraCodes.includes(name))) : [];
   // Default: every indicator factors.csv has a column for, and the flow indicators, which come from the product's own mass flows.
+  // A programme's own indicators are reported wherever factors.csv has their column.
   const flowIndicators = INDICATORS.filter((i) => i.basis === 'flows').map((i) => i.code);
-  const indicators = declaration?.indicators ? inReportingOrder(declaration.indicators) : inReportingOrder([...factorIndicators, ...flowIndicators]);
+  const extras = indicatorSet.extraCodes.filter((code) => factorIndicators.includes(code));
+  const indicators = declaration?.indicators ? indicatorSet.inReportingOrder([...declaration.indicators, ...extras]) : indicatorSet.inReportingOrder([...factorIndicators, ...flowIndicators]);
 
   if (products && bom && materials && eol && activities && transport && factors && process && processRead && site && production && sitesRead && familyRows && familiesRead && excluded) {
     const processes = processRead.processes;
     const lookups = projectLookups({ products, materials, eol, factors, process, processes, bom, activities, transport, site, excluded });
-    const tables = { dir, indicators, factorIndicators, products, bom, materials, eol, activities, transport, factors, process, processes, site, production, allocation: sitesRead.allocation, familyRows, families: familiesRead.families, excluded, lookups };
+    const tables = { dir, indicators, factorIndicators, products, bom, materials, eol, activities, transport, factors, process, processes, site, production, allocation: sitesRead.allocation, familyRows, families: familiesRead.families, excluded, lookups, indicatorSet };
     // Cross-file rules run even when declaration.json is broken, so one run shows every problem.
     problems.push(...crossFileChecks({ ...tables, declaration, declarationFile }));
     const sorted = sortProblems(problems);
@@ -160,5 +167,27 @@ function unknownKeys(json: JsonFile): Problem[] {
     }
   };
   visit(json.value, [], '');
+  return problems;
+}
+
+/**
+ * The values of a programme's own indicators: factors.csv cells of their columns, read as
+ * every indicator cell is (a number, empty for not available), into each row's values.
+ */
+function readExtraIndicators(factors: Table<FactorRow>, codes: readonly string[]): Problem[] {
+  const problems: Problem[] = [];
+  const present = codes.filter((code) => factors.columns[code] !== undefined);
+  if (present.length === 0) return problems;
+  const cell = optionalQuantity({ decimalComma: factors.delimiter === ';' }, 'A programme’s own indicator.', 'its unit per row unit', { signed: true });
+  for (const row of factors.rows) {
+    for (const code of present) {
+      const parsed = cell.safeParse(row.raw[code]);
+      if (parsed.success) (row.value as unknown as Record<string, number | null>)[code] = parsed.data;
+      else {
+        const issue = describeIssue(parsed.error.issues[0]!);
+        problems.push(cellProblem(factors, row, code, 'error', issue.code, issue.message, issue.expected ? { expected: issue.expected } : {}));
+      }
+    }
+  }
   return problems;
 }

@@ -6,6 +6,7 @@ import type { ProcessDefinition, ProcessRow } from './processes.ts';
 import type { ProductionRow, SiteAllocation, SiteRow } from './sites.ts';
 import type { Family, FamilyRow } from './families.ts';
 import type { ProjectLookups } from './lookups.ts';
+import type { IndicatorSet } from '../reference/indicators.ts';
 
 // The row types live in rows.ts (sites.ts and families.ts use them without importing this file back).
 export type { Product, BomLine, Material, EolRow, Activity, TransportLeg, FactorRow } from './rows.ts';
@@ -47,4 +48,6 @@ export interface Project {
   excluded: Table<ExcludedFlow>;
   /** Rows by id, built once (src/model/lookups.ts). */
   lookups: ProjectLookups;
+  /** The indicators of this project: EN 15804+A2's and the programme's own (declaration.json extra_indicators). */
+  indicatorSet: IndicatorSet;
 }

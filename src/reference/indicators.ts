@@ -11,7 +11,7 @@ import { parse } from 'csv-parse/sync';
  * `flows` — computed from the product's own mass and energy flows (SM, CRU, MFR, MER, and
  * EEE, EET from its own energy recovery), never read from a factor table.
  */
-export type IndicatorGroup = 'core' | 'additional' | 'resource' | 'waste' | 'output';
+export type IndicatorGroup = 'core' | 'additional' | 'resource' | 'waste' | 'output' | 'programme';
 export type IndicatorBasis = 'factors' | 'flows';
 
 export interface Indicator {
@@ -20,8 +20,8 @@ export interface Indicator {
   unit: string;
   group: IndicatorGroup;
   basis: IndicatorBasis;
-  /** The indicator's UUID in the published list (the ILCD+EPD data set it is exchanged as). */
-  uuid: string;
+  /** The indicator's UUID in the published list (the ILCD+EPD data set it is exchanged as); none for a programme's own. */
+  uuid?: string;
 }
 
 /** Where the published list is, and its source (for the docs and the pages). */
@@ -100,6 +100,40 @@ export const INDICATOR_CODES: readonly string[] = INDICATORS.map((indicator) => 
 
 /** Codes whose values come from factor rows, in reporting order. */
 export const FACTOR_INDICATOR_CODES: readonly string[] = INDICATORS.filter((i) => i.basis === 'factors').map((i) => i.code);
+
+/**
+ * The indicators of one project: the registry, then a programme's own indicators that
+ * declaration.json declares (`extra_indicators`, e.g. GWP-GHG), read from factors.csv columns
+ * of their code and reported after the registry's, in a table of their own.
+ */
+export class IndicatorSet {
+  private readonly extras: ReadonlyMap<string, Indicator>;
+  constructor(extras: ReadonlyArray<{ code: string; name: string; unit: string }> = []) {
+    this.extras = new Map(extras.map((extra) => [extra.code.toLowerCase(), { code: extra.code, name: extra.name, unit: extra.unit, group: 'programme', basis: 'factors' }]));
+  }
+
+  /** A code's indicator, whatever the case of the code. */
+  find(code: string): Indicator | undefined {
+    return findIndicator(code) ?? this.extras.get(code.trim().toLowerCase());
+  }
+
+  /** Every code of the set, registry first. */
+  get codes(): string[] {
+    return [...INDICATOR_CODES, ...[...this.extras.values()].map((indicator) => indicator.code)];
+  }
+
+  /** The programme's own codes. */
+  get extraCodes(): string[] {
+    return [...this.extras.values()].map((indicator) => indicator.code);
+  }
+
+  /** Codes in reporting order: EN 15804+A2's, then the programme's in the order declared. */
+  inReportingOrder(codes: Iterable<string>): string[] {
+    const order = this.codes;
+    const position = new Map(order.map((code, index) => [code, index]));
+    return [...new Set(codes)].sort((a, b) => (position.get(a) ?? Infinity) - (position.get(b) ?? Infinity));
+  }
+}
 
 /** Sorts codes into EN 15804+A2 reporting order. */
 export function inReportingOrder(codes: Iterable<string>): string[] {

@@ -85,6 +85,7 @@ const GROUPS: Array<{ group: IndicatorGroup; title: string; caption: string }> =
   { group: 'additional', title: 'Additional environmental impact indicators', caption: 'EN 15804+A2 additional impact indicators.' },
   { group: 'resource', title: 'Use of resources', caption: 'Resource use; SM is the product’s own secondary material input.' },
   { group: 'waste', title: 'Waste categories', caption: 'Waste disposed of.' },
+  { group: 'programme', title: 'Indicators of the programme', caption: 'Indicators the programme operator asks for beyond EN 15804+A2 (declaration.json extra_indicators), from factors.csv columns of their codes.' },
   { group: 'output', title: 'Output flows', caption: 'CRU, MFR and MER are the product’s own mass flows, EEE and EET the energy its own energy recovery exports (mass × share × heating value × efficiency); none is read from factors.' },
 ];
 
@@ -98,7 +99,8 @@ export function groupedTables<C>(
   cells: (code: string) => C[],
 ): Array<{ title: string; caption: string; rows: Array<{ code: string; name: string; unit: string; marker?: string; cells: C[] }>; disclaimers: Array<{ marker: string; codes: string; text: string }> }> {
   return GROUPS.flatMap(({ group, title, caption }) => {
-    const codes = indicators.filter((i) => findIndicator(i.code)?.group === group);
+    // A code outside the registry is a programme's own indicator (declaration.json extra_indicators).
+    const codes = indicators.filter((i) => (findIndicator(i.code)?.group ?? 'programme') === group);
     if (codes.length === 0) return [];
     const rows = codes.map(({ code, name, unit }) => {
       const disclaimer = disclaimerOf(code);
@@ -212,7 +214,7 @@ export function declarationResultsView(ctx: CalcContext, rows: ProductRows, resu
 }
 
 function chartsOf(ctx: CalcContext, rows: ProductRows, result: ProductResult, json: ResultsSummary, code: string, sci: (v: number | null | undefined) => string): ChartView[] {
-  const unit = findIndicator(code)!.unit;
+  const unit = ctx.project.indicatorSet.find(code)!.unit;
   const { graph } = result;
   const index = ctx.indicators.indexOf(code);
   const valueOf = (id: string): number => graph.vector(id).values[index]!;
@@ -264,7 +266,7 @@ function processModels(ctx: CalcContext, result: ProductResult, sci: (v: number 
       kind: definition.kind,
       description: factorNode.description,
       steps: stepsOf.get(definition.id) ?? [],
-      factor: ctx.indicators.map((code, i) => ({ code, unit: `${findIndicator(code)!.unit} per kg`, cell: { text: sci(toNullable(factorNode.values[i]!)), href: figureHref(figureId(factorNode.id, code)) } })),
+      factor: ctx.indicators.map((code, i) => ({ code, unit: `${ctx.project.indicatorSet.find(code)!.unit} per kg`, cell: { text: sci(toNullable(factorNode.values[i]!)), href: figureHref(figureId(factorNode.id, code)) } })),
     });
   }
   return views;

@@ -67,7 +67,7 @@ export function familyView(project: Project, results: FamilyResults, names: Read
     audit.push({
       id,
       label: `${code}, ${module}, ${method === 'cutoff' ? 'cut-off' : method}`,
-      unit: findIndicator(code)?.unit ?? '',
+      unit: results.indicators.find((i) => i.code === code)?.unit ?? '',
       mean: sci(stat.mean),
       terms: results.members.map((m) => ({
         product: m.product_id,

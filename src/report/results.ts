@@ -2,7 +2,7 @@ import type { CalcContext } from '../calc/context.ts';
 import type { ProductResult } from '../calc/product.ts';
 import { productUncertainty, type UncertaintyJson } from '../calc/uncertainty.ts';
 import { toNullable } from '../calc/vector.ts';
-import { findIndicator, type IndicatorBasis } from '../reference/indicators.ts';
+import type { IndicatorBasis } from '../reference/indicators.ts';
 import type { FigureGraph } from '../trace/graph.ts';
 import { graphJson, type GraphJson } from '../trace/graph-json.ts';
 import { figureId, resultStep, type ResultMethod } from '../trace/ids.ts';
@@ -63,7 +63,7 @@ export const resultFigureId = (method: ResultMethod, key: string, code: string):
 
 export function indicatorList(ctx: CalcContext): ResultsJson['indicators'] {
   return [...ctx.indicators, ...ctx.flowIndicators].map((code) => {
-    const indicator = findIndicator(code)!;
+    const indicator = ctx.project.indicatorSet.find(code)!;
     return { code, unit: indicator.unit, name: indicator.name, basis: indicator.basis };
   });
 }

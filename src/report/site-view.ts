@@ -153,7 +153,7 @@ export function siteContext(project: Project, pdfs: boolean): SiteContext {
     pdfs,
     methodology: methodology(project),
     indicators: project.indicators.map((code) => {
-      const indicator = findIndicator(code)!;
+      const indicator = project.indicatorSet.find(code)!;
       return { code, name: indicator.name, unit: indicator.unit };
     }),
   };

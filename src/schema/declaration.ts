@@ -70,6 +70,20 @@ export const declarationSchema = z
       .array(indicatorCode)
       .optional()
       .meta({ description: 'Indicator codes to report; default: every code present in factors.csv, in EN 15804+A2 order.' }),
+    extra_indicators: z
+      .array(
+        z.object({
+          code: z
+            .string()
+            .regex(/^[A-Za-z][A-Za-z0-9&+.-]*$/)
+            .refine((code) => findIndicator(code) === undefined, { params: { problem: 'DUPLICATE_ID', expected: 'a code that is not an EN 15804+A2 indicator' }, message: 'is an EN 15804+A2 indicator already' })
+            .meta({ description: 'Its code, the header of its factors.csv column (e.g. GWP-GHG).' }),
+          name: nonEmpty('Its name, as the programme writes it.'),
+          unit: nonEmpty('Its unit per declared unit (e.g. kg CO2 eqv.).'),
+        }),
+      )
+      .optional()
+      .meta({ description: 'A programme operator’s own indicators beyond EN 15804+A2 (e.g. GWP-GHG): each read from a factors.csv column of its code and reported after the EN 15804+A2 indicators, in a table of its own.' }),
     methods: z
       .array(z.enum(METHODS))
       .optional()

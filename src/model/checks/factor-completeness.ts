@@ -1,6 +1,5 @@
 import { locate } from '../../load/json.ts';
 import { parameterMeta } from '../../schema/process-kinds.ts';
-import { findIndicator } from '../../reference/indicators.ts';
 import { indicatorValue } from '../types.ts';
 import type { CheckContext } from './context.ts';
 import { MATERIAL_FACTOR_COLUMNS } from '../../schema/materials.ts';
@@ -33,7 +32,7 @@ function usedFactors(ctx: CheckContext): Map<string, string> {
 export function factorCompleteness(ctx: CheckContext): void {
   const p = ctx.project;
   const present = new Set(p.factorIndicators);
-  const asked = p.indicators.filter((code) => findIndicator(code)?.basis === 'factors');
+  const asked = p.indicators.filter((code) => p.indicatorSet.find(code)?.basis === 'factors');
   const requested = p.declaration?.indicators;
   if (requested && p.declarationFile) {
     for (const code of asked) {
@@ -46,6 +45,16 @@ export function factorCompleteness(ctx: CheckContext): void {
       });
     }
   }
+  // A programme's own indicator needs a column of its code.
+  (p.declaration?.extra_indicators ?? []).forEach((extra, index) => {
+    if (present.has(extra.code) || !p.declarationFile) return;
+    const where = locate(p.declarationFile, ['extra_indicators', index, 'code']);
+    ctx.problems.push({
+      severity: 'warning', code: 'INDICATOR_NO_DATA', file: p.declarationFile.file, line: where.line, column: `extra_indicators[${index}].code`, columnIndex: where.column, value: extra.code,
+      message: `is declared, but factors.csv has no ${extra.code} column; it is not reported`,
+      expected: `a ${extra.code} column in factors.csv`,
+    });
+  });
   // The method comparison can only show indicators the declaration computes from factors.
   const compared = p.declaration?.report.compare_indicators ?? [];
   if (p.declarationFile) {
