@@ -6,8 +6,7 @@ import { cellTerm, figureTerm, type FigureGraph, type Term } from '../trace/grap
 import { cutoffModuleOf, cutoffStep, inventoryStep, type MaterialFlow } from '../trace/ids.ts';
 import { conversionTerm, type CalcContext, type ResolvedFactor } from './context.ts';
 import type { Inventory, LineFlows, MaterialEol } from './inventory.ts';
-import { driver, sumFigure, useFactor, vectorFigure } from './nodes.ts';
-import { bomCsv } from '../schema/bom.ts';
+import { bomMass, driver, sumFigure, useFactor, vectorFigure } from './nodes.ts';
 import { addScaled, scaled, zeros } from './vector.ts';
 import { exportedEnergyCredit, packagingEndOfLife, type PackagingEndOfLife } from './packaging.ts';
 import { declaresModule } from '../model/declared-modules.ts';
@@ -304,5 +303,3 @@ function moduleD(ctx: CalcContext, graph: FigureGraph, materialEol: MaterialEol,
 }
 
 
-/** A BOM line's mass cell as a driver. */
-const bomMass = (line: LineFlows, share = 1) => driver(bomCsv.file, line.row.line, 'mass_kg', share);

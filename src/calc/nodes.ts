@@ -1,6 +1,7 @@
 import { figureTerm, type Driver, type FigureGraph, type Term, type VectorNode } from '../trace/graph.ts';
 import { cutoffModuleOf, lastSegment, referenceStep } from '../trace/ids.ts';
 import { CO2_PER_C } from '../reference/constants.ts';
+import { bomCsv } from '../schema/bom.ts';
 import { zeros, add, type Vec } from './vector.ts';
 
 /** Adds a vector figure. */
@@ -33,3 +34,6 @@ export function co2PerCStep(graph: FigureGraph): string {
   if (!graph.get(id)) graph.add({ kind: 'scalar', id, value: CO2_PER_C, unit: 'kg CO2 per kg C', formula: '44/12', description: 'Molar mass of CO2 over that of C (EN 16449).', terms: [] });
   return id;
 }
+
+/** A BOM line's mass cell as a driver, with the share of the amount it drives. */
+export const bomMass = (line: { row: { line: number } }, share = 1): Driver => driver(bomCsv.file, line.row.line, 'mass_kg', share);

@@ -1,10 +1,9 @@
 import { CO2_PER_C } from '../reference/constants.ts';
-import { bomCsv } from '../schema/bom.ts';
-import { cellTerm, figureTerm, type FigureGraph, type Term } from '../trace/graph.ts';
+import { cellTerm, figureTerm, type Driver, type FigureGraph, type Term } from '../trace/graph.ts';
 import { cutoffStep } from '../trace/ids.ts';
 import { conversionTerm, type CalcContext, type ResolvedFactor } from './context.ts';
-import { byMaterial, type Inventory, type LineFlows, type MaterialEol } from './inventory.ts';
-import { co2PerCStep, driver, useFactor, vectorFigure } from './nodes.ts';
+import { byMaterial, type Inventory, type MaterialEol } from './inventory.ts';
+import { bomMass, co2PerCStep, useFactor, vectorFigure } from './nodes.ts';
 import { addScaled, scaled, zeros } from './vector.ts';
 
 /** The built-in factor the release of biogenic carbon is charged with (GWP-biogenic +1 per kg CO2). */
@@ -18,8 +17,6 @@ export interface PackagingEndOfLife {
   /** Module D figures: the energy its energy recovery exports, replacing the declared substituted energy. */
   d: string[];
 }
-
-const packagingMass = (line: LineFlows, share: number) => driver(bomCsv.file, line.row.line, 'mass_kg', share);
 
 /**
  * The packaging's end of life, in A5 (EN 15804+A2: the waste processing of the packaging
@@ -41,7 +38,7 @@ export function packagingEndOfLife(ctx: CalcContext, graph: FigureGraph, inv: In
     const eolCell = (column: string) => cellTerm(ctx.cell(ctx.project.eol, waste.eol, column), column);
     const materialCell = (column: string, symbol: string) => cellTerm(ctx.cell(ctx.project.materials, waste.material, column), symbol);
     const massTerm = figureTerm(waste.ids.mass, 'M_pack');
-    const drivers = [waste.lines.map((l) => packagingMass(l, l.line.mass_kg / waste.massKg))];
+    const drivers = [waste.lines.map((l) => bomMass(l, l.line.mass_kg / waste.massKg))];
     const charge = (id: string, factorId: string, amount: number, formula: string, description: string, terms: Term[]) => {
       const resolved = factor(factorId);
       useFactor(graph, id, factorId, amount, drivers);
@@ -99,7 +96,7 @@ export function packagingEndOfLife(ctx: CalcContext, graph: FigureGraph, inv: In
  * its packaging (M_pack); none where the material has no heating value or the declaration no
  * energy_recovery.
  */
-export function exportedEnergyCredit(ctx: CalcContext, graph: FigureGraph, id: string, waste: MaterialEol, symbol: 'M_eol' | 'M_pack', what: string, factor: (id: string) => ResolvedFactor, drivers: ReturnType<typeof driver>[][]): string | undefined {
+export function exportedEnergyCredit(ctx: CalcContext, graph: FigureGraph, id: string, waste: MaterialEol, symbol: 'M_eol' | 'M_pack', what: string, factor: (id: string) => ResolvedFactor, drivers: Driver[][]): string | undefined {
   const energy = ctx.project.declaration.energy_recovery;
   const lhv = waste.material.value.lhv_mj_per_kg;
   const eol = waste.eol.value;

@@ -98,11 +98,12 @@ export async function loadProject(dirArgument: string): Promise<ProjectLoad> {
   const familiesRead = familyRows && products && production ? readFamilies(familyRows, products, production) : undefined;
   if (familiesRead) problems.push(...familiesRead.problems);
 
-  const factorIndicators = factors ? indicatorSet.inReportingOrder(Object.keys(factors.columns).filter((name) => FACTOR_INDICATOR_CODES.includes(name) || indicatorSet.extraCodes.includes(name))) : [];
+  const extraCodes = indicatorSet.extraCodes;
+  const factorIndicators = factors ? indicatorSet.inReportingOrder(Object.keys(factors.columns).filter((name) => FACTOR_INDICATOR_CODES.includes(name) || extraCodes.includes(name))) : [];
   // Default: every indicator factors.csv has a column for, and the flow indicators, which come from the product's own mass flows.
   // A programme's own indicators are reported wherever factors.csv has their column.
   const flowIndicators = INDICATORS.filter((i) => i.basis === 'flows').map((i) => i.code);
-  const extras = indicatorSet.extraCodes.filter((code) => factorIndicators.includes(code));
+  const extras = extraCodes.filter((code) => factorIndicators.includes(code));
   const indicators = declaration?.indicators ? indicatorSet.inReportingOrder([...declaration.indicators, ...extras]) : indicatorSet.inReportingOrder([...factorIndicators, ...flowIndicators]);
 
   if (products && bom && materials && eol && activities && transport && factors && process && processRead && site && production && sitesRead && familyRows && familiesRead && excluded) {

@@ -24,9 +24,8 @@ export interface Indicator {
   uuid?: string;
 }
 
-/** Where the published list is, and its source (for the docs and the pages). */
+/** Where the published list is. */
 export const PUBLISHED_INDICATORS_FILE = 'reference-data/ilcd-epd/identifiers/EN15804+A2_EF3.1_indicators.csv';
-export const PUBLISHED_INDICATORS_SOURCE = 'ILCD+EPD published identifiers, EN 15804+A2 indicators with EF 3.1 (working group InData, Apache-2.0)';
 
 /** The published list names two indicators by their EF abbreviations; EN 15804+A2 codes them so. */
 const EN_CODES: Record<string, string> = { ADPF: 'ADP-fossil', ADPE: 'ADP-minerals&metals' };
@@ -133,10 +132,4 @@ export class IndicatorSet {
     const position = new Map(order.map((code, index) => [code, index]));
     return [...new Set(codes)].sort((a, b) => (position.get(a) ?? Infinity) - (position.get(b) ?? Infinity));
   }
-}
-
-/** Sorts codes into EN 15804+A2 reporting order. */
-export function inReportingOrder(codes: Iterable<string>): string[] {
-  const position = new Map(INDICATORS.map((indicator, index) => [indicator.code, index]));
-  return [...new Set(codes)].sort((a, b) => (position.get(a) ?? Infinity) - (position.get(b) ?? Infinity));
 }

@@ -3,7 +3,7 @@ import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { parse } from 'csv-parse/sync';
 import { ROOT } from '../helpers.ts';
-import { INDICATORS, findIndicator, inReportingOrder } from '../../src/reference/indicators.ts';
+import { INDICATORS, IndicatorSet, findIndicator } from '../../src/reference/indicators.ts';
 import { GREENHOUSE_GASES, findGas } from '../../src/reference/ghg.ts';
 
 describe('EN 15804+A2 indicator registry', () => {
@@ -41,7 +41,9 @@ describe('EN 15804+A2 indicator registry', () => {
   });
 
   it('sorts into reporting order and matches codes case-insensitively', () => {
-    expect(inReportingOrder(['PENRT', 'AP', 'GWP-total'])).toEqual(['GWP-total', 'AP', 'PENRT']);
+    expect(new IndicatorSet().inReportingOrder(['PENRT', 'AP', 'GWP-total'])).toEqual(['GWP-total', 'AP', 'PENRT']);
+    // A programme's own indicator comes after EN 15804+A2's.
+    expect(new IndicatorSet([{ code: 'GWP-GHG', name: 'GHG', unit: 'kg CO2 eqv.' }]).inReportingOrder(['GWP-GHG', 'PENRT', 'AP'])).toEqual(['AP', 'PENRT', 'GWP-GHG']);
     expect(findIndicator('gwp-TOTAL')?.code).toBe('GWP-total');
   });
 });
