@@ -20,3 +20,16 @@ export const CHECKLIST_JSON = 'checklist.json';
 export const CACHE_FILE = '.loopsheet-cache.json';
 /** What `build --shard K/N` records for `merge`. */
 export const SHARD_RECORD = 'loopsheet-shard.json';
+/** The catalogue's folders: the factor table, the families' declarations, the stylesheet and scripts. */
+export const FACTORS_DIR = 'factors';
+export const FAMILIES_DIR = 'families';
+export const ASSETS_DIR = 'assets';
+/** Marks a folder as loopsheet output, so a build only ever replaces its own output. */
+export const OUTPUT_MARKER = '.loopsheet-output';
+
+/**
+ * Every name a build writes at the top of the output folder. A product's folder sits beside
+ * them, so no product id may equal one (in any letter case: Windows and macOS do not tell
+ * `Factors` from `factors`).
+ */
+export const TOP_LEVEL_NAMES: readonly string[] = [DECLARATION_PAGE, RESULTS_JSON, RESULTS_CSV, VERIFICATION_DIR, FACTORS_DIR, FAMILIES_DIR, ASSETS_DIR, CACHE_FILE, SHARD_RECORD, OUTPUT_MARKER];

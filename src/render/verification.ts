@@ -4,8 +4,7 @@ import { copyFile, mkdir, readdir, readFile, stat, writeFile } from 'node:fs/pro
 import path from 'node:path';
 import { CSV_FILES, DECLARATION_FILE } from '../schema/index.ts';
 import { TOOL_NAME, TOOL_VERSION } from '../reference/tool.ts';
-import { CACHE_FILE } from '../files.ts';
-import { OUTPUT_MARKER } from './output.ts';
+import { CACHE_FILE, OUTPUT_MARKER } from '../files.ts';
 
 /**
  * The verification pack, `out/verification/`: a copy of every input file, and

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { TOP_LEVEL_NAMES } from '../files.ts';
 import type { ProblemCode } from '../problems.ts';
 import { nearestName } from '../reference/nearest.ts';
 import { canonicalUnit, KNOWN_UNITS, unitsOf, dimensionOf, type Dimension } from '../reference/units.ts';
@@ -71,38 +72,70 @@ export function requiredText(description: string) {
 }
 
 const ID = /^[A-Za-z0-9][A-Za-z0-9._:+\-/]*$/;
-/** Product ids name output folders, so they stay to characters safe in any path. */
+/** Ids that name output folders stay to characters safe in any path on any system. */
 const PATH_SAFE_ID = /^[A-Za-z0-9][A-Za-z0-9._-]*$/;
+/** Longest id: long enough for any catalogue number, short of any file system's name limit. */
+export const MAX_ID_LENGTH = 200;
+/** Longest id that names a folder: its files' paths must stay within every system's limits. */
+export const MAX_PATH_ID_LENGTH = 100;
+/** Names Windows keeps for devices, with or without an extension (`nul`, `con.txt`). */
+const DEVICE_NAME = /^(?:con|prn|aux|nul|com[0-9¹²³]|lpt[0-9¹²³])(?:\..*)?$/i;
+const RESERVED = new Set(TOP_LEVEL_NAMES.map((name) => name.toLowerCase()));
 
-function idCell(description: string, kind: 'id' | 'reference', pattern: RegExp, expected: string, references?: string) {
+const ID_EXPECTED = 'an identifier: letters, digits and . _ - : + / , starting with a letter or digit';
+const PATH_ID_EXPECTED = `an identifier of letters, digits, ".", "_" and "-", starting with a letter or digit, at most ${MAX_PATH_ID_LENGTH} characters (it names a folder in the output)`;
+
+/** Checks an id's text; an issue and false when it is not one. `names` says where it becomes a folder name. */
+function checkId(value: string, pattern: RegExp, expected: string, ctx: Ctx, names: 'folder' | 'none'): boolean {
+  const limit = names === 'folder' ? MAX_PATH_ID_LENGTH : MAX_ID_LENGTH;
+  if (value.length > limit) {
+    report(ctx, 'ID_TOO_LONG', `is ${value.length} characters long; an identifier has at most ${limit}`, expected);
+    return false;
+  }
+  if (!pattern.test(value)) {
+    report(ctx, 'BAD_ID', 'is not a valid identifier', expected);
+    return false;
+  }
+  if (names === 'folder') {
+    if (value.endsWith('.')) {
+      report(ctx, 'BAD_ID', 'ends in "." (Windows drops it from a folder name)', expected);
+      return false;
+    }
+    if (RESERVED.has(value.toLowerCase()) || DEVICE_NAME.test(value)) {
+      const why = DEVICE_NAME.test(value) ? 'is a device name on Windows' : 'is the name of a file or folder the build writes beside the products';
+      report(ctx, 'ID_RESERVED', `${why}, so it cannot name this folder`, expected, `choose another id; reserved: ${TOP_LEVEL_NAMES.join(', ')} and Windows device names (con, nul, com1, …)`);
+      return false;
+    }
+  }
+  return true;
+}
+
+function idCell(description: string, kind: 'id' | 'reference', pattern: RegExp, expected: string, names: 'folder' | 'none', references?: string) {
   return withMeta(
     cell().transform((raw, ctx): string => {
       if (isBlank(raw)) return report(ctx, 'VALUE_REQUIRED', 'is empty', expected);
       const value = raw.trim();
-      if (!pattern.test(value)) return report(ctx, 'BAD_ID', 'is not a valid identifier', expected);
-      return value;
+      return checkId(value, pattern, expected, ctx, names) ? value : z.NEVER;
     }),
-    { description, kind, required: true, ...(references ? { references } : {}) },
+    { description, kind, required: true, ...(names === 'folder' ? { path: true } : {}), ...(references ? { references } : {}) },
   );
 }
 
-export const id = (description: string) =>
-  idCell(description, 'id', ID, 'an identifier: letters, digits and . _ - : + / , starting with a letter or digit');
-export const productId = (description: string) =>
-  idCell(description, 'id', PATH_SAFE_ID, 'an identifier of letters, digits, ".", "_" and "-", starting with a letter or digit (it names a folder in the output)');
+export const id = (description: string) => idCell(description, 'id', ID, ID_EXPECTED, 'none');
+/** An id that names a folder in the output (products, families): a single safe path segment. */
+export const folderId = (description: string) => idCell(description, 'id', PATH_SAFE_ID, PATH_ID_EXPECTED, 'folder');
 /** A reference that may also be `*`, "every other" (eol.csv material). */
 export const referenceOrWildcard = (description: string, references: string) =>
-  idCell(description, 'reference', /^(?:\*|[A-Za-z0-9][A-Za-z0-9._:+\-/]*)$/, `the id of a row in ${references}, or *`, references);
+  idCell(description, 'reference', /^(?:\*|[A-Za-z0-9][A-Za-z0-9._:+\-/]*)$/, `the id of a row in ${references}, or *`, 'none', references);
 export const reference = (description: string, references: string) =>
-  idCell(description, 'reference', ID, `the id of a row in ${references}`, references);
+  idCell(description, 'reference', ID, `the id of a row in ${references}`, 'none', references);
 
 export function optionalReference(description: string, references: string) {
   return withMeta(
     cell().transform((raw, ctx): string | undefined => {
       if (isBlank(raw)) return undefined;
       const value = raw.trim();
-      if (!ID.test(value)) return report(ctx, 'BAD_ID', 'is not a valid identifier', `the id of a row in ${references}`);
-      return value;
+      return checkId(value, ID, `the id of a row in ${references}`, ctx, 'none') ? value : z.NEVER;
     }),
     { description, kind: 'reference', required: false, references },
   );

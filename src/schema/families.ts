@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { id, optionalQuantity, reference, text } from './cells.ts';
+import { folderId, optionalQuantity, reference, text } from './cells.ts';
 import { defineCsv } from './csv-file.ts';
 
 /**
@@ -13,7 +13,7 @@ export const familiesCsv = defineCsv({
   optional: true,
   row: (d) =>
     z.object({
-      family_id: id('Your name for the family; names its folder under families/ in the output.'),
+      family_id: folderId('Your name for the family; names its folder under families/ in the output.'),
       name: text('The family’s name as published (give it on the first row; later rows may leave it empty).'),
       product_id: reference('A member of the family.', 'products.csv product_id'),
       weight: optionalQuantity(d, 'The member’s weight in the average, e.g. its annual output in declared units; empty: its output in production.csv.', 'declared units (or any common basis)', { positive: true }),

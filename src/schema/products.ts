@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { productId, requiredText, text, quantity, reference } from './cells.ts';
+import { folderId, requiredText, text, quantity, reference } from './cells.ts';
 import { defineCsv } from './csv-file.ts';
 
 export const productsCsv = defineCsv({
@@ -9,7 +9,7 @@ export const productsCsv = defineCsv({
   needsRows: true,
   row: (d) =>
     z.object({
-      product_id: productId('Identifier of the product; names its folder in the output.'),
+      product_id: folderId('Identifier of the product; names its folder in the output.'),
       name: requiredText('Product name as it appears on the declaration.'),
       declared_unit: requiredText('The declared unit in words, e.g. "1 kg", "1 m", "1 piece".'),
       unit_mass_kg: quantity(d, 'Mass of one declared unit without packaging.', 'kg', { positive: true }),

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import type { z } from 'zod';
-import { choice, gsdCell, id, isIsoDate, optionalQuantity, pedigreeScore, productId, quantity, share, unitCell } from '../../src/schema/cells.ts';
+import { choice, gsdCell, id, isIsoDate, optionalQuantity, pedigreeScore, folderId, quantity, share, unitCell } from '../../src/schema/cells.ts';
 import { describeIssue } from '../../src/schema/issues.ts';
 
 const point = { decimalComma: false };
@@ -49,12 +49,22 @@ describe('cell schemas: one CSV cell into a typed value or a located problem', (
     expect(problemOf(role, 'packagign')).toMatchObject({ code: 'BAD_CHOICE', hint: 'did you mean "packaging"?' });
   });
 
-  it('keeps product ids to characters safe in a path, and ids to their own alphabet', () => {
-    expect(productId('Product.').parse('KV-EXT-6060')).toBe('KV-EXT-6060');
-    expect(problemOf(productId('Product.'), 'a/b')?.code).toBe('BAD_ID');
-    expect(problemOf(productId('Product.'), '../x')?.code).toBe('BAD_ID');
+  it('keeps ids that name folders to one safe path segment the build does not write itself', () => {
+    const folder = folderId('Product.');
+    expect(folder.parse('KV-EXT-6060')).toBe('KV-EXT-6060');
+    for (const hostile of ['a/b', '../x', '..', '.hidden', 'a\\b', 'a b', 'a:b', 'dot.']) expect(problemOf(folder, hostile)?.code, hostile).toBe('BAD_ID');
+    // Names the build writes beside the products (src/files.ts), in any case.
+    for (const reserved of ['results.json', 'RESULTS.CSV', 'verification', 'factors', 'Families', 'assets', 'index.html']) expect(problemOf(folder, reserved)?.code, reserved).toBe('ID_RESERVED');
+    // Windows device names, with or without an extension (Microsoft, "Naming Files, Paths, and Namespaces").
+    for (const device of ['con', 'NUL', 'aux.txt', 'com1', 'LPT9']) expect(problemOf(folder, device)?.code, device).toBe('ID_RESERVED');
+    expect(folder.parse('console')).toBe('console');
+    // 255 bytes is the longest name ext4, NTFS and APFS take; a folder id stops well short.
+    expect(problemOf(folder, 'a'.repeat(101))).toMatchObject({ code: 'ID_TOO_LONG' });
+    expect(folder.parse('a'.repeat(100))).toHaveLength(100);
+    expect(problemOf(folder, 'a'.repeat(5000))?.message).toMatch(/5000 characters long; an identifier has at most 100/);
     expect(id('Line.').parse('L1:a/b')).toBe('L1:a/b');
     expect(problemOf(id('Line.'), 'L 1')?.code).toBe('BAD_ID');
+    expect(problemOf(id('Line.'), 'x'.repeat(201))?.code).toBe('ID_TOO_LONG');
   });
 
   it('gives a unit its canonical spelling and refuses one of another dimension', () => {

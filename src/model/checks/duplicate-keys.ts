@@ -28,3 +28,26 @@ export function duplicateKeys(ctx: CheckContext): void {
     }
   }
 }
+
+/**
+ * Ids that name output folders (products, families) must differ in more than letter case:
+ * Windows and macOS would write `KV-1` and `kv-1` into one folder.
+ */
+export function caseClashes(ctx: CheckContext): void {
+  for (const schema of CSV_FILES) {
+    const table = ctx.table(schema.file);
+    if (!table) continue;
+    for (const column of columnsOf(schema).filter((info) => info.path === true)) {
+      const first = new Map<string, { spelling: string; line: number }>();
+      for (const row of table.written) {
+        const value = (row.raw[column.name] ?? '').trim();
+        if (value === '') continue;
+        const seen = first.get(value.toLowerCase());
+        if (!seen) first.set(value.toLowerCase(), { spelling: value, line: row.line });
+        else if (seen.spelling !== value) {
+          ctx.at(table, row.line, row.raw, column.name, 'error', 'ID_CASE_CLASH', `differs only in letter case from ${seen.spelling} on line ${seen.line}; both would name one folder on Windows and macOS`, { expected: 'an id that differs from the others in more than letter case' });
+        }
+      }
+    }
+  }
+}

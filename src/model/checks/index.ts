@@ -1,6 +1,6 @@
 import type { Problem } from '../../problems.ts';
 import { CheckContext, type CheckInput } from './context.ts';
-import { duplicateKeys } from './duplicate-keys.ts';
+import { caseClashes, duplicateKeys } from './duplicate-keys.ts';
 import { references } from './references.ts';
 import { productRules } from './product-rules.ts';
 import { factorRequirements } from './factor-requirements.ts';
@@ -23,6 +23,7 @@ export function crossFileChecks(project: CheckInput): Problem[] {
   const problems: Problem[] = [];
   const ctx = new CheckContext(project, problems);
   duplicateKeys(ctx);
+  caseClashes(ctx);
   references(ctx);
   productRules(ctx);
   factorRequirements(ctx);
