@@ -14,8 +14,14 @@ import { fileURLToPath } from 'node:url';
 const NODE_FLAGS = ['--max-semi-space-size=64'];
 
 if (!process.execArgv.some((flag) => flag.startsWith('--max-semi-space-size')) && process.env.LOOPSHEET_NO_REEXEC !== '1') {
-  const child = spawn(process.execPath, [...NODE_FLAGS, ...process.execArgv, fileURLToPath(import.meta.url), ...process.argv.slice(2)], { stdio: 'inherit' });
-  for (const signal of ['SIGINT', 'SIGTERM']) process.on(signal, () => child.kill(signal));
+  // The IPC channel is how the child knows this launcher is alive: killed even by SIGKILL,
+  // the channel closes and the child stops (src/cli/interrupt.ts).
+  const child = spawn(process.execPath, [...NODE_FLAGS, ...process.execArgv, fileURLToPath(import.meta.url), ...process.argv.slice(2)], {
+    stdio: ['inherit', 'inherit', 'inherit', 'ipc'],
+    env: { ...process.env, LOOPSHEET_LAUNCHED: '1' },
+  });
+  // A signal to this launcher is passed on; the child reports it and exits with 128 + its number.
+  for (const signal of ['SIGINT', 'SIGTERM', 'SIGHUP']) process.on(signal, () => child.kill(signal));
   child.on('exit', (code, signal) => {
     if (signal) process.kill(process.pid, signal);
     else process.exit(code ?? 3);
@@ -30,6 +36,8 @@ if (!process.execArgv.some((flag) => flag.startsWith('--max-semi-space-size')) &
       throw error;
     });
   }
-  const { main } = await import('../src/cli/main.ts');
+  const { main, processIo } = await import('../src/cli/main.ts');
+  const { stopOnSignals } = await import('../src/cli/interrupt.ts');
+  stopOnSignals(process.argv[2] ?? '', processIo);
   process.exitCode = await main(process.argv.slice(2));
 }

@@ -3,7 +3,7 @@ import { hasErrors } from '../problems.ts';
 import { findBrowser } from '../render/browser.ts';
 import { buildSite } from '../render/build-site.ts';
 import { keptHashes, readPreviousBuild } from '../render/incremental.ts';
-import { checkOutputDir, withStagedOutput } from '../render/output.ts';
+import { checkOutputDir, recoverInterrupted, withStagedOutput } from '../render/output.ts';
 import { declarationPdfJobs, familyPdfJobs, printPdfs } from '../render/pdf.ts';
 import { shardOf, writeShardRecord, type ShardSpec } from '../render/shards.ts';
 import { copyInputs, hashInputs, writeManifest, type HashedFile } from '../render/verification.ts';
@@ -31,6 +31,7 @@ const LISTED = 20;
 export async function runBuild(options: BuildOptions, io: Io): Promise<number> {
   if (options.shard && options.changed) throw new UsageError('--changed and --shard do not go together: a shard build is joined by merge, which builds nothing');
   const progress = createProgress(io);
+  for (const line of recoverInterrupted(options.out)) io.err(line);
   await checkOutputDir(options.out, options.data);
   progress.phase('load and validate');
   const { project, problems } = await loadProject(options.data);

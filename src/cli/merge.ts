@@ -5,7 +5,7 @@ import { findBrowser } from '../render/browser.ts';
 import { writeCatalogue } from '../render/build-site.ts';
 import { familyPdfJobs, printPdfs } from '../render/pdf.ts';
 import { keepProduct } from '../render/incremental.ts';
-import { checkOutputDir, withStagedOutput } from '../render/output.ts';
+import { checkOutputDir, recoverInterrupted, withStagedOutput } from '../render/output.ts';
 import { readShardRecords } from '../render/shards.ts';
 import { VERIFICATION_DIR } from '../files.ts';
 import { copyInputs, hashInputs, writeManifest, type HashedFile } from '../render/verification.ts';
@@ -25,6 +25,7 @@ export async function runMerge(options: { dirs: string[]; out: string }, io: Io)
   const inputsDir = path.join(records[0]!.dir, VERIFICATION_DIR, 'inputs');
   const inputs = await hashInputs(inputsDir);
   if (JSON.stringify(inputs) !== JSON.stringify(records[0]!.inputs)) throw new UsageError(`${inputsDir}: the input copies no longer match the shard's record`);
+  for (const line of recoverInterrupted(options.out)) io.err(line);
   await checkOutputDir(options.out, inputsDir);
   const { project, problems } = await loadProject(inputsDir);
   if (!project || hasErrors(problems)) {

@@ -1,4 +1,5 @@
 import { fork } from 'node:child_process';
+import { onInterrupt } from './cleanup.ts';
 import { mkdir, writeFile } from 'node:fs/promises';
 import os from 'node:os';
 import path from 'node:path';
@@ -216,6 +217,10 @@ function runWorker(dataDir: string, outDir: string, task: WorkerTask, name: stri
       execArgv: ['--max-semi-space-size=64'],
       stdio: ['ignore', 'ignore', 'inherit', 'ipc'],
     });
+    const forget = onInterrupt(() => {
+      child.kill('SIGKILL');
+      return undefined;
+    });
     const outcomes: ProductOutcome[] = [];
     let done = false;
     let failure: string | undefined;
@@ -230,6 +235,7 @@ function runWorker(dataDir: string, outDir: string, task: WorkerTask, name: stri
     });
     child.on('error', reject);
     child.on('exit', (code) => {
+      forget();
       if (done && code === 0) resolve(outcomes);
       else reject(new Error(`shard worker ${name} failed${failure ? `: ${failure}` : ` (exit ${code})`}`));
     });

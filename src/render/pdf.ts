@@ -3,6 +3,7 @@ import path from 'node:path';
 import { pathToFileURL } from 'node:url';
 import type { Browser, Page } from 'puppeteer';
 import { CHROMIUM_ARGS, type FoundBrowser } from './browser.ts';
+import { onInterrupt } from './cleanup.ts';
 import type { Project } from '../model/types.ts';
 import { DECLARATION_PAGE, DECLARATION_PDF } from '../files.ts';
 
@@ -80,6 +81,16 @@ export async function printPdfs(browserInfo: FoundBrowser, buildDir: string, job
     headless: true,
     args: CHROMIUM_ARGS,
     userDataDir: undefined,
+    // Over a pipe, the browser sees its end close when this process dies, however it dies,
+    // and quits: it never outlives the build. Stops by signal are the CLI's (src/cli/interrupt.ts).
+    pipe: true,
+    handleSIGINT: false,
+    handleSIGTERM: false,
+    handleSIGHUP: false,
+  });
+  const forget = onInterrupt(() => {
+    killBrowser(browser);
+    return undefined;
   });
   const root = pathToFileURL(path.resolve(buildDir)).href + '/';
   try {
@@ -94,7 +105,19 @@ export async function printPdfs(browserInfo: FoundBrowser, buildDir: string, job
     };
     await Promise.all(Array.from({ length: Math.min(PAGE_POOL, jobs.length) }, worker));
   } finally {
+    forget();
     await browser.close();
+  }
+}
+
+/** Kills the browser and every process it started (puppeteer starts it as a process group of its own). */
+function killBrowser(browser: Browser): void {
+  const child = browser.process();
+  if (!child?.pid) return;
+  try {
+    process.kill(-child.pid, 'SIGKILL');
+  } catch {
+    child.kill('SIGKILL');
   }
 }
 

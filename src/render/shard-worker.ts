@@ -9,6 +9,9 @@ import { buildShard, type WorkerMessage, type WorkerTask } from './build-site.ts
 const send = (message: WorkerMessage): Promise<void> => new Promise((resolve, reject) => process.send!(message, undefined, {}, (error) => (error ? reject(error) : resolve())));
 const task = new Promise<WorkerTask>((resolve) => process.once('message', (message) => resolve(message as WorkerTask)));
 
+// The build that started this worker has gone (killed, or stopped by a signal): so does the worker.
+process.on('disconnect', () => process.exit(1));
+
 const [dataDir, outDir] = process.argv.slice(2);
 try {
   const [{ project, problems }, { shards, pdfs, context, uncertainty }] = await Promise.all([loadProject(dataDir!), task]);
