@@ -81,7 +81,7 @@ export function readCsvText(file: string, original: string, sink: CsvSink): CsvR
       relax_quotes: false,
       skip_records_with_error: true,
       on_skip: (error: CsvError | undefined) => {
-        if (error) problems.push(csvSyntaxProblem(file, error));
+        if (error) problems.push(csvSyntaxProblem(file, error, text, delimiter));
       },
       // Each record is handled here and dropped (returning nothing keeps it out of csv-parse's result).
       on_record: (fields: string[], context: { lines: number }) => {
@@ -100,9 +100,13 @@ export function readCsvText(file: string, original: string, sink: CsvSink): CsvR
       },
     });
   } catch (error) {
-    if (error instanceof CsvError) return { ok: false, problems: [...problems, csvSyntaxProblem(file, error)] };
+    if (error instanceof CsvError) return { ok: false, problems: [...problems, csvSyntaxProblem(file, error, text, delimiter)] };
     throw error;
   }
+  // An unclosed quote swallows the rest of the file into one field: the records after it are
+  // lost, and every check of them would blame something else. The file is not used.
+  const unclosed = problems.find((problem) => problem.cause === 'CSV_QUOTE_NOT_CLOSED');
+  if (unclosed) return { ok: false, problems: [...problems.filter((problem) => problem.code !== 'CSV_SYNTAX' || problem === unclosed)] };
   if (!source) {
     return { ok: false, problems: [...problems, { severity: 'error', code: 'COLUMN_MISSING', file, line: 1, message: `${file} has no header row`, expected: 'a header row naming the columns' }] };
   }
@@ -116,7 +120,60 @@ export function parseCsvText(file: string, original: string): CsvLoad {
   return read.ok ? { ok: true, csv: { ...read.source, records }, problems: read.problems } : read;
 }
 
-function csvSyntaxProblem(file: string, error: CsvError): Problem {
+/**
+ * The line of the quote that opens a field and is never closed, read as RFC 4180 writes
+ * fields (a quote opens a field only at its start; "" inside is a quote); comment lines are
+ * skipped as the parser skips them. Undefined when every quote closes.
+ */
+export function unclosedQuoteLine(text: string, delimiter: ',' | ';'): number | undefined {
+  let line = 1;
+  let openedOn: number | undefined;
+  let atFieldStart = true;
+  let atLineStart = true;
+  for (let i = 0; i < text.length; i++) {
+    const char = text[i];
+    if (openedOn !== undefined) {
+      if (char === '\n') line++;
+      else if (char === '"') {
+        if (text[i + 1] === '"') i++;
+        else openedOn = undefined;
+      }
+      continue;
+    }
+    if (char === '\n') {
+      line++;
+      atFieldStart = atLineStart = true;
+      continue;
+    }
+    if (atLineStart && char === '#') {
+      const end = text.indexOf('\n', i);
+      if (end === -1) break;
+      i = end - 1;
+      continue;
+    }
+    atLineStart = false;
+    if (char === delimiter) atFieldStart = true;
+    else if (char === '"' && atFieldStart) {
+      openedOn = line;
+      atFieldStart = false;
+    } else atFieldStart = false;
+  }
+  return openedOn;
+}
+
+function csvSyntaxProblem(file: string, error: CsvError, text: string, delimiter: ',' | ';'): Problem {
+  const opened = error.code === 'CSV_QUOTE_NOT_CLOSED' ? unclosedQuoteLine(text, delimiter) : undefined;
+  if (opened !== undefined) {
+    return {
+      severity: 'error',
+      code: 'CSV_SYNTAX',
+      file,
+      line: opened,
+      message: `a quoted field opened on this line is never closed, so the rest of the file would be read into it (csv-parse ${error.code})`,
+      cause: error.code,
+      expected: 'a closing quote at the end of the field ("…"), "" for a quote inside',
+    };
+  }
   const lines = (error as CsvError & { lines?: number }).lines;
   const messages: Record<string, string> = {
     CSV_QUOTE_NOT_CLOSED: 'a quoted field is never closed',

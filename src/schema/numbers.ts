@@ -9,17 +9,34 @@ export interface Dialect {
   decimalComma: boolean;
 }
 
-export type NumberRead = { ok: true; value: number } | { ok: false; code: 'NOT_A_NUMBER' | 'THOUSANDS_SEPARATOR'; reason: string };
+export type NumberRead = { ok: true; value: number } | { ok: false; code: 'NOT_A_NUMBER' | 'THOUSANDS_SEPARATOR' | 'OUT_OF_RANGE'; reason: string };
 
-const PLAIN = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/;
+/*
+ * Every pattern is linear in the length of the text: no two parts of one can match the same
+ * characters, so a long cell of digits fails in one pass, never by backtracking.
+ */
+const PLAIN = /^[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?$/;
 const DECIMAL_COMMA = /^[+-]?\d*,\d+(?:[eE][+-]?\d+)?$/;
 const DOT_GROUPS = /^[+-]?[1-9]\d{0,2}(?:\.\d{3})+$/;
 const COMMA_GROUPS = /^[+-]?[1-9]\d{0,2}(?:,\d{3})+(?:\.\d+)?$/;
+/** Groups of three, then a decimal part (`1.234,5`, `1,234.56`); \d+ stops at the next separator, so a failure backtracks once per group. */
 const MIXED = /^[+-]?\d{1,3}(?:[.,]\d{3})+[.,]\d+$/;
 const SPACE_OR_APOSTROPHE_GROUPS = /^[+-]?\d{1,3}(?:[ \u00a0\u202f'’]\d{3})+(?:[.,]\d+)?$/;
 
+/** Longest number cell read: 64 characters hold any double in full (17 significant digits and an exponent) many times over. */
+export const MAX_NUMBER_LENGTH = 64;
+
 export function readNumber(written: string, dialect: Dialect): NumberRead {
   const text = written.trim();
+  if (text.length > MAX_NUMBER_LENGTH) return { ok: false, code: 'NOT_A_NUMBER', reason: `${text.length} characters long; a number has at most ${MAX_NUMBER_LENGTH}` };
+  const read = readWritten(text, dialect);
+  // 1e309 is beyond the largest double (about 1.8E+308): JavaScript reads it as Infinity,
+  // which no result can carry (results.json has no Infinity, and null means "not available").
+  if (read.ok && !Number.isFinite(read.value)) return { ok: false, code: 'OUT_OF_RANGE', reason: 'beyond the largest number a result can hold (about 1.8E+308)' };
+  return read;
+}
+
+function readWritten(text: string, dialect: Dialect): NumberRead {
   if (SPACE_OR_APOSTROPHE_GROUPS.test(text) || MIXED.test(text)) {
     return { ok: false, code: 'THOUSANDS_SEPARATOR', reason: 'thousands separators are not accepted' };
   }
@@ -46,8 +63,8 @@ export function readNumber(written: string, dialect: Dialect): NumberRead {
 /** A share as a fraction (`0.35`) or a percentage (`35%`, `35 %`). */
 export function readShare(written: string, dialect: Dialect): NumberRead {
   const text = written.trim();
-  const percent = /^(.*?)\s*%$/.exec(text);
-  const read = readNumber(percent ? (percent[1] ?? '') : text, dialect);
+  const percent = text.endsWith('%');
+  const read = readNumber(percent ? text.slice(0, -1) : text, dialect);
   if (!read.ok) return read;
   return { ok: true, value: percent ? read.value / 100 : read.value };
 }

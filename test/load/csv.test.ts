@@ -60,9 +60,25 @@ describe('CSV dialects', () => {
     expect(problems).toEqual([expect.objectContaining({ severity: 'warning', code: 'COLUMN_UNKNOWN', line: 1, columnIndex: 11, hint: 'did you mean "source"?' })]);
   });
 
-  it('reports an unclosed quote as CSV_SYNTAX with its line, and keeps csv-parse’s own code as data', () => {
+  it('reports an unclosed quote once, on the line where it opens, and keeps csv-parse’s own code as data', () => {
     const load = parseCsvText('bom.csv', `${HEADER}\nP1,L1,"Billet,al,product,1,0,0,0,recycled,x\n`);
     expect(load.problems).toEqual([expect.objectContaining({ code: 'CSV_SYNTAX', file: 'bom.csv', line: 2, cause: 'CSV_QUOTE_NOT_CLOSED' })]);
+    // Rows after it, a quoted line break, an escaped quote and a quote in a comment before it: still its own line, once, and the file is not used.
+    const rows = Array.from({ length: 12 }, (_, k) => `P${k},L1,Blank,al,product,1,0,0,0,recycled,x`);
+    const text = [`# a "comment`, HEADER, `P1,L1,"two\nlines",al,product,1,0,0,0,recycled,"say ""hi"""`, `P2,L1,Blank,al,product,1,0,0,0,recycled,"Mill report`, ...rows, ''].join('\n');
+    const later = parseCsvText('bom.csv', text);
+    expect(later.ok).toBe(false);
+    expect(later.problems).toEqual([expect.objectContaining({ code: 'CSV_SYNTAX', line: 5, message: expect.stringMatching(/opened on this line is never closed/) })]);
+  });
+
+  it('names the line and byte of the first byte that is not UTF-8', async () => {
+    const dir = await tempDir();
+    // "Stahlträger" with ä saved as Windows-1252 (0xE4) on line 3.
+    await writeFile(path.join(dir, 'products.csv'), Buffer.concat([Buffer.from('product_id,name\nP0,Blech ä\nP1,Stahltr'), Buffer.from([0xe4]), Buffer.from('ger\n')]));
+    const read = await readText(dir, 'products.csv');
+    expect(read.ok).toBe(false);
+    if (!read.ok) expect(read.problem).toMatchObject({ code: 'FILE_UNREADABLE', line: 3, columnIndex: 11, value: '0xE4', message: expect.stringMatching(/byte 11 of line 3 \(0xE4, byte 39 of the file\)/) });
+    await removeDir(dir);
   });
 
   it('applies defaults to empty optional cells and reads an empty factor cell as null, never 0', () => {
