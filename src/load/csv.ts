@@ -51,6 +51,23 @@ export function detectDelimiter(text: string): ',' | ';' {
   return ',';
 }
 
+/** Longest cell read: a long citation in a source column fits; a megabyte of text is not data. */
+export const MAX_CELL_LENGTH = 10_000;
+
+function cellTooLong(file: string, line: number, index: number, field: string, column: string | undefined): Problem {
+  return {
+    severity: 'error',
+    code: 'CELL_TOO_LONG',
+    file,
+    line,
+    ...(column ? { column } : {}),
+    columnIndex: index + 1,
+    value: `${field.slice(0, 40)}…`,
+    message: `a cell of ${field.length} characters; a cell has at most ${MAX_CELL_LENGTH}`,
+    expected: `at most ${MAX_CELL_LENGTH} characters`,
+  };
+}
+
 const countNewlines = (field: string): number => {
   let n = 0;
   for (let i = field.indexOf('\n'); i !== -1; i = field.indexOf('\n', i + 1)) n++;
@@ -69,6 +86,7 @@ export function readCsvText(file: string, original: string, sink: CsvSink): CsvR
   const text = original.replace(/\r\n?/g, '\n');
   const delimiter = detectDelimiter(text);
   const problems: Problem[] = [];
+  const tooLong: Problem[] = [];
   let source: CsvSource | undefined;
   let take: ((record: CsvRecord) => void) | undefined;
   try {
@@ -90,6 +108,11 @@ export function readCsvText(file: string, original: string, sink: CsvSink): CsvR
         const lineEnd = context.lines;
         let line = lineEnd;
         for (const field of fields) line -= countNewlines(field);
+        const long = fields.findIndex((field) => field.length > MAX_CELL_LENGTH);
+        if (long >= 0) {
+          tooLong.push(cellTooLong(file, line, long, fields[long]!, source?.header.names[long]));
+          return undefined;
+        }
         if (!take) {
           source = { file, delimiter, header: { names: fields.map((name) => name.trim()), line }, text };
           take = sink(source);
@@ -103,10 +126,15 @@ export function readCsvText(file: string, original: string, sink: CsvSink): CsvR
     if (error instanceof CsvError) return { ok: false, problems: [...problems, csvSyntaxProblem(file, error, text, delimiter)] };
     throw error;
   }
+  // A cell too long for any column is not data; the file is not used, so nothing downstream blames its row's absence.
+  if (tooLong.length > 0) return { ok: false, problems: [...problems, ...tooLong] };
   // An unclosed quote swallows the rest of the file into one field: the records after it are
   // lost, and every check of them would blame something else. The file is not used.
+  // (Where the quotes all close as RFC 4180 reads them, csv-parse's own problems stand.)
   const unclosed = problems.find((problem) => problem.cause === 'CSV_QUOTE_NOT_CLOSED');
-  if (unclosed) return { ok: false, problems: [...problems.filter((problem) => problem.code !== 'CSV_SYNTAX' || problem === unclosed)] };
+  if (unclosed && unclosedQuoteLine(text, delimiter) !== undefined) {
+    return { ok: false, problems: problems.filter((problem) => problem.code !== 'CSV_SYNTAX' || problem === unclosed) };
+  }
   if (!source) {
     return { ok: false, problems: [...problems, { severity: 'error', code: 'COLUMN_MISSING', file, line: 1, message: `${file} has no header row`, expected: 'a header row naming the columns' }] };
   }

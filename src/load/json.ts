@@ -1,4 +1,4 @@
-import { findNodeAtLocation, getNodeValue, parseTree, printParseErrorCode, type Node, type ParseError } from 'jsonc-parser';
+import { createScanner, findNodeAtLocation, getNodeValue, parseTree, printParseErrorCode, type Node, type ParseError } from 'jsonc-parser';
 import type { Problem } from '../problems.ts';
 import { readText } from './text.ts';
 
@@ -48,7 +48,30 @@ const JSON_ERRORS: Record<string, string> = {
   InvalidCharacter: 'a character that JSON does not allow in a string',
 };
 
+/** Deepest nesting read: declaration.json needs 3 levels; the parser and the checks recurse once per level. */
+export const MAX_JSON_DEPTH = 64;
+
+/** jsonc-parser's SyntaxKind values (a const enum its types declare and its code inlines). */
+const TOKEN = { OpenBrace: 1, CloseBrace: 2, OpenBracket: 3, CloseBracket: 4, EOF: 17 } as const;
+
+/** The offset of the first `{` or `[` nested deeper than the limit, found with the scanner (which does not recurse). */
+function tooDeepAt(text: string): number | undefined {
+  const scanner = createScanner(text, true);
+  let depth = 0;
+  for (let token: number = scanner.scan(); token !== TOKEN.EOF; token = scanner.scan()) {
+    if (token === TOKEN.OpenBrace || token === TOKEN.OpenBracket) {
+      if (++depth > MAX_JSON_DEPTH) return scanner.getTokenOffset();
+    } else if (token === TOKEN.CloseBrace || token === TOKEN.CloseBracket) depth--;
+  }
+  return undefined;
+}
+
 export function parseJsonText(file: string, text: string, bytes: Buffer = Buffer.from(text)): JsonLoad {
+  const deep = tooDeepAt(text);
+  if (deep !== undefined) {
+    const at = lineAndColumn(text, deep);
+    return { ok: false, problems: [{ severity: 'error', code: 'JSON_NESTING', file, line: at.line, columnIndex: at.column, value: text.slice(deep, deep + 20), message: `nested deeper than ${MAX_JSON_DEPTH} levels here`, expected: `objects and arrays nested at most ${MAX_JSON_DEPTH} deep (declaration.json needs 3)` }] };
+  }
   const errors: ParseError[] = [];
   const root = parseTree(text, errors, { disallowComments: true, allowTrailingComma: false, allowEmptyContent: false });
   if (errors.length > 0 || root === undefined) {

@@ -5,7 +5,7 @@ import os from 'node:os';
 import path from 'node:path';
 import { rowsByProduct, type ProductRows } from '../model/by-product.ts';
 import type { Project } from '../model/types.ts';
-import type { Problem } from '../problems.ts';
+import { ToolError, type Problem } from '../problems.ts';
 import type { ResultsSummary } from '../report/results.ts';
 import { familyResults, familyResultsCsv } from '../report/families.ts';
 import { familyDir, familyView, type FamilyView } from '../report/family-view.ts';
@@ -208,7 +208,7 @@ export interface WorkerTask {
 }
 
 /** A worker sends each shard's outcomes as soon as the shard is built, and keeps none: its memory does not grow with the shards it builds. */
-export type WorkerMessage = { kind: 'shard'; outcomes: ProductOutcome[] } | { kind: 'done'; peakRssMb: number } | { kind: 'failed'; message: string };
+export type WorkerMessage = { kind: 'shard'; outcomes: ProductOutcome[] } | { kind: 'done'; peakRssMb: number } | { kind: 'failed'; message: string; input: boolean };
 
 /** A shard worker: a process of its own that loads the project and builds the shards it is given. */
 function runWorker(dataDir: string, outDir: string, task: WorkerTask, name: string, progress: (count: number) => void, onEnd?: (peakRssMb: number) => void): Promise<ProductOutcome[]> {
@@ -223,7 +223,7 @@ function runWorker(dataDir: string, outDir: string, task: WorkerTask, name: stri
     });
     const outcomes: ProductOutcome[] = [];
     let done = false;
-    let failure: string | undefined;
+    let failure: { message: string; input: boolean } | undefined;
     child.on('message', (message: WorkerMessage) => {
       if (message.kind === 'shard') {
         outcomes.push(...message.outcomes);
@@ -231,13 +231,14 @@ function runWorker(dataDir: string, outDir: string, task: WorkerTask, name: stri
       } else if (message.kind === 'done') {
         done = true;
         onEnd?.(message.peakRssMb);
-      } else failure = message.message;
+      } else failure = { message: message.message, input: message.input };
     });
     child.on('error', reject);
     child.on('exit', (code) => {
       forget();
       if (done && code === 0) resolve(outcomes);
-      else reject(new Error(`shard worker ${name} failed${failure ? `: ${failure}` : ` (exit ${code})`}`));
+      else if (failure?.input) reject(new ToolError('input', failure.message));
+      else reject(new Error(`shard worker ${name} failed${failure ? `: ${failure.message}` : ` (exit ${code})`}`));
     });
     // The task goes over IPC: a long list of indices would not fit on a command line.
     child.send(task);

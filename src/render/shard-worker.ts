@@ -3,7 +3,7 @@
 // outcomes back.
 import { rowsByProduct } from '../model/by-product.ts';
 import { loadProject } from '../model/project.ts';
-import { hasErrors } from '../problems.ts';
+import { hasErrors, ToolError } from '../problems.ts';
 import { buildShard, type WorkerMessage, type WorkerTask } from './build-site.ts';
 
 const send = (message: WorkerMessage): Promise<void> => new Promise((resolve, reject) => process.send!(message, undefined, {}, (error) => (error ? reject(error) : resolve())));
@@ -25,6 +25,6 @@ try {
   await send({ kind: 'done', peakRssMb: process.resourceUsage().maxRSS / 1024 });
   process.exit(0);
 } catch (error) {
-  await send({ kind: 'failed', message: (error as Error).message });
+  await send({ kind: 'failed', message: (error as Error).message, input: error instanceof ToolError && error.kind === 'input' });
   process.exit(1);
 }

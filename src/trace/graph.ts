@@ -1,3 +1,4 @@
+import { ToolError } from '../problems.ts';
 /**
  * The figure graph: every reported number is a figure with a stable id, a formula, its
  * value and its terms — other figures or input cells. A node is either a vector (one
@@ -105,6 +106,16 @@ export class FigureGraph {
   ) {}
 
   add<N extends FigureNode>(node: N): N {
+    // Finite inputs can still overflow (1E+200 kg × 1E+200 kg CO2 eqv./kg): no figure may be
+    // infinite, because no output can carry it (results.json has no Infinity).
+    const values = node.kind === 'vector' ? node.values : [node.value];
+    for (let k = 0; k < values.length; k++) {
+      const value = values[k]!;
+      if (value === Infinity || value === -Infinity) {
+        const what = node.kind === 'vector' ? ` for ${this.indicators[k] ?? `indicator ${k + 1}`}` : '';
+        throw new ToolError('input', `figure ${node.id} is ${value > 0 ? '' : '-'}infinite${what}: its inputs are too large for a number to hold (the largest is about 1.8E+308); check the units and magnitudes of the cells it reads`);
+      }
+    }
     const size = this.nodes.size;
     this.nodes.set(node.id, node);
     if (this.nodes.size === size) throw new Error(`figure ${node.id} defined twice`);

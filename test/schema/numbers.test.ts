@@ -50,6 +50,20 @@ describe('numbers as users write them', () => {
     expect(readNumber(written, semicolon)).toMatchObject({ ok: false, code: 'NOT_A_NUMBER' });
   });
 
+  it('refuses a number beyond the largest double, which JavaScript would read as Infinity (IEEE 754 binary64: about 1.797E+308)', () => {
+    expect(Number('1e309')).toBe(Infinity);
+    for (const written of ['1e309', '-1e309', '1,8e308']) expect(readNumber(written, semicolon)).toMatchObject({ ok: false, code: 'OUT_OF_RANGE' });
+    expect(readNumber('1.7e308', comma)).toEqual({ ok: true, value: 1.7e308 });
+  });
+
+  it('refuses cells too long to be a number, and a long cell of digits or spaces is read in one pass', () => {
+    expect(readNumber('1'.repeat(1_000_000), comma)).toMatchObject({ ok: false, code: 'NOT_A_NUMBER', reason: expect.stringMatching(/1000000 characters long; a number has at most 64/) });
+    expect(readShare(`${' '.repeat(300_000)}x%`, comma)).toMatchObject({ ok: false, code: 'NOT_A_NUMBER' });
+    expect(readShare(`1${' '.repeat(300_000)}%`, comma)).toEqual({ ok: true, value: 0.01 });
+    // The longest number read in full: 17 significant digits and an exponent fit many times over.
+    expect(readNumber(`0.${'0'.repeat(40)}12345678901234567`, comma)).toMatchObject({ ok: true });
+  });
+
   it('says why a decimal comma fails in a comma-separated file', () => {
     expect(readNumber('0,35', comma)).toMatchObject({ ok: false, code: 'NOT_A_NUMBER', reason: expect.stringMatching(/semicolon/) });
   });
