@@ -52,3 +52,14 @@ export function formatScientific(value: number, significant = 3): string {
 export function formatShare(value: number): string {
   return `${Number((value * 100).toFixed(3))} %`;
 }
+
+/**
+ * Text for a terminal, with control characters shown, not obeyed: input text (a column name,
+ * an id in a message) may hold escape sequences that would recolour, move or clear the
+ * user's terminal, or a carriage return that hides what came before. Line breaks and tabs
+ * stay; every other C0 and C1 control and DEL is written as `\u001b` (the JSON escape, so
+ * `check --json` stays valid JSON). Applied to everything the CLI writes (src/cli/main.ts `processIo`).
+ */
+export function showControls(text: string): string {
+  return text.replace(/[\u0000-\u0008\u000b-\u001f\u007f-\u009f]/g, (char) => `\\u${char.charCodeAt(0).toString(16).padStart(4, '0')}`);
+}

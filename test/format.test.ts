@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { formatCount, formatFigure, formatFixed, formatInput, formatSignificant, NOT_AVAILABLE } from '../src/format.ts';
+import { formatCount, formatFigure, formatFixed, formatInput, formatSignificant, NOT_AVAILABLE, showControls } from '../src/format.ts';
 
 /**
  * The one number formatter against ECMA-262 itself: six significant figures are what
@@ -51,5 +51,14 @@ describe('formatInput', () => {
   it('writes a count with thousands separated by commas, as Intl.NumberFormat with the en locale does (ECMA-402), without depending on the ICU data installed', () => {
     const reference = new Intl.NumberFormat('en', { useGrouping: true, maximumFractionDigits: 0 });
     for (const value of [0, 7, 999, 1000, 12345, 100000, 1234567, 1000000000]) expect(formatCount(value)).toBe(reference.format(value));
+  });
+});
+
+describe('showControls', () => {
+  it('shows C0 and C1 controls and DEL as JSON escapes, keeps line breaks, tabs and other text (Unicode C0/C1 control ranges; ECMA-404 \\u escapes)', () => {
+    expect(showControls('a\u001b[2Jb\rc\u009bd\u007f\n\tä€')).toBe('a\\u001b[2Jb\\u000dc\\u009bd\\u007f\n\tä€');
+    // Escaped text inside a JSON string still parses to the original.
+    const json = JSON.stringify({ column: 'x\u009by' });
+    expect(JSON.parse(showControls(json))).toEqual({ column: 'x\u009by' });
   });
 });

@@ -1,6 +1,7 @@
 import { parseArgs, type ParseArgsConfig } from 'node:util';
 import { EXIT, UsageError, type Io } from './io.ts';
 import { ToolError } from '../problems.ts';
+import { showControls } from '../format.ts';
 
 interface Command {
   summary: string;
@@ -211,9 +212,10 @@ Run "loopsheet COMMAND --help" for a command's options.
 Exit codes: 0 ok, 1 input errors, 2 usage errors, 3 internal failure.`;
 }
 
+/** Everything a command writes goes through here, with control characters from input text shown as escapes (`showControls`). */
 export const processIo: Io = {
-  out: (text) => void process.stdout.write(text.endsWith('\n') ? text : `${text}\n`),
-  err: (text) => void process.stderr.write(text.endsWith('\n') ? text : `${text}\n`),
+  out: (text) => void process.stdout.write(showControls(text.endsWith('\n') ? text : `${text}\n`)),
+  err: (text) => void process.stderr.write(showControls(text.endsWith('\n') ? text : `${text}\n`)),
   isTty: Boolean(process.stderr.isTTY) && process.env.CI !== 'true',
 };
 

@@ -99,6 +99,21 @@ describe('loopsheet check', () => {
       expect(result.stderr).toContain(`error ${file}: ${file} is missing from the data folder [FILE_MISSING]`);
     }
   });
+
+  it('prints escape sequences from input text as escapes, never raw to the terminal (ECMA-48 CSI and OSC)', async () => {
+    const data = await demoCopy();
+    cleanup.push(path.dirname(data));
+    await editLine(path.join(data, 'bom.csv'), 2, 'mass_kg', 'mass\u001b[31mRED');
+    await editLine(path.join(data, 'bom.csv'), 3, ',al-6060,', ',al\u001b]0;title\u0007,');
+    for (const args of [['check', '--data', data], ['check', '--data', data, '--json']]) {
+      const result = await runCli(args);
+      expect(result.code).toBe(1);
+      const printed = result.stdout + result.stderr;
+      expect(printed).not.toMatch(/[\u001b\u0007]/);
+      expect(printed).toContain('mass\\u001b[31mRED');
+      if (args.includes('--json')) expect(JSON.parse(result.stdout).some((p: { column?: string }) => p.column === 'mass\u001b[31mRED')).toBe(true);
+    }
+  });
 });
 
 describe('loopsheet explain', () => {
