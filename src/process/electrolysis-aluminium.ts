@@ -2,7 +2,7 @@ import { chargeAhPerKg } from '../chem/electrochemistry.ts';
 import { molarMass, parseFormula } from '../chem/formula.ts';
 import { findSpecies, massRatios, parseReaction } from '../chem/reaction.ts';
 import { CO2_PER_C } from '../reference/constants.ts';
-import { isPrebake, PFC_SLOPE_DEFAULTS, TIER1_CO2_T_PER_T } from '../reference/smelting.ts';
+import { ALUMINA_DECOMPOSITION_V, isPrebake, PFC_SLOPE_DEFAULTS, TIER1_CO2_T_PER_T } from '../reference/smelting.ts';
 import type { ParametersOf } from '../schema/process-kinds.ts';
 import { nonNegative, positive, share, StepRecorder, type ProcessResult } from './steps.ts';
 import { formatFixed } from '../format.ts';
@@ -17,7 +17,8 @@ export const HALL_HEROULT = '2Al2O3 + 3C -> 4Al + 3CO2';
  * Primary aluminium per tonne: DC electricity by Faraday's law (z = 3) or as measured, with
  * the Faraday value at 100 % current efficiency as its floor; anode CO2 by the IPCC 2006
  * Tier 2 equations (prebake Eq. 4.21; Søderberg Eq. 4.22) or Tier 1; CF4 and C2F6 by the
- * slope method; alumina with its stoichiometric floor. All floors from the cell reaction.
+ * slope method; alumina with its stoichiometric floor. All floors from the cell reaction,
+ * the cell voltage's included: its decomposition voltage.
  */
 export function aluminiumSmelter(p: AluminiumSmelter): ProcessResult {
   const rec = new StepRecorder();
@@ -29,7 +30,11 @@ export function aluminiumSmelter(p: AluminiumSmelter): ProcessResult {
 
   // Electricity
   const charge = rec.step('charge_ah_per_t', chargeAhPerKg(3, mAl) * 1000, 'Ah/t', 'Q = z·F·1000 kg / M_Al / 3600, z = 3', "Charge to deposit a tonne of aluminium (Faraday's law).", ['ref:F', 'ref:M_Al']);
-  const voltageOk = positive(rec, 'cell_voltage_v', p.cell_voltage_v);
+  let voltageOk = positive(rec, 'cell_voltage_v', p.cell_voltage_v);
+  if (voltageOk && p.cell_voltage_v! < ALUMINA_DECOMPOSITION_V) {
+    rec.problem('cell_voltage_v', p.cell_voltage_v, `${p.cell_voltage_v} V is below the decomposition voltage of alumina with a carbon anode (about ${ALUMINA_DECOMPOSITION_V} V at 960 °C): no cell can run at it`, `at least ${ALUMINA_DECOMPOSITION_V} V (cell lines run at about 4.0–4.5 V)`);
+    voltageOk = false;
+  }
   const efficiencyOk = share(rec, 'current_efficiency', p.current_efficiency);
   const measuredOk = positive(rec, 'electricity_kwh_per_t', p.electricity_kwh_per_t);
   if (p.cell_voltage_v === undefined) rec.problem('cell_voltage_v', undefined, 'is required (it sets the Faraday-law energy, or the floor of a measured one)', 'the average cell voltage in V');

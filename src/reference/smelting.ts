@@ -33,3 +33,13 @@ export const PFC_SLOPE_DEFAULTS: Record<CellTechnology, { slopeCf4: number; c2f6
  */
 export const ABOVE_CARBON = ['K', 'Na', 'Li', 'Rb', 'Cs', 'Ca', 'Sr', 'Ba', 'Mg', 'Be', 'Al'] as const;
 
+
+/**
+ * The decomposition (reversible) voltage of the cell reaction 2Al2O3 + 3C -> 4Al + 3CO2 at
+ * about 960 °C in alumina-saturated cryolite: the Gibbs energy of about 683 kJ per mol Al2O3
+ * over 6 faradays, E = ΔG / (zF) ≈ 1.18 V. No cell line can run below it (industrial cells run
+ * at about 4.0–4.5 V). Source: Thonstad et al., Aluminium Electrolysis, 3rd ed. (2001), the
+ * reversible voltage with a carbon anode; from memory.
+ */
+export const ALUMINA_DECOMPOSITION_V = 1.18;
+export const ALUMINA_DECOMPOSITION_GIBBS_KJ_PER_MOL = 683;

@@ -3,6 +3,8 @@ import { aluminiumSmelter, type AluminiumSmelter } from '../../src/process/elect
 import { carbothermicReduction } from '../../src/process/carbothermic-reduction.ts';
 import { electrowinning } from '../../src/process/electrowinning.ts';
 import type { ProcessResult } from '../../src/process/steps.ts';
+import { ALUMINA_DECOMPOSITION_GIBBS_KJ_PER_MOL, ALUMINA_DECOMPOSITION_V } from '../../src/reference/smelting.ts';
+import { FARADAY_C_PER_MOL } from '../../src/reference/constants.ts';
 
 const value = (result: ProcessResult, id: string): number => {
   const step = result.steps.find((s) => s.id === id);
@@ -89,6 +91,16 @@ describe('electrolysis-aluminium (Hall–Héroult)', () => {
     const result = aluminiumSmelter({ ...base, ...change });
     expect(result.steps).toEqual([]);
     expect(result.problems.map((p) => p.parameter)).toContain(parameter);
+  });
+
+  it('refuses a cell voltage below the decomposition voltage of alumina with a carbon anode', () => {
+    // E = ΔG / (zF): about 683 kJ per mol Al2O3 over z = 6 at 960 °C is 1.18 V (Thonstad et al.,
+    // Aluminium Electrolysis, 3rd ed., 2001; from memory), F from CODATA 2018.
+    expect((ALUMINA_DECOMPOSITION_GIBBS_KJ_PER_MOL * 1000) / (6 * FARADAY_C_PER_MOL)).toBeCloseTo(ALUMINA_DECOMPOSITION_V, 2);
+    const result = aluminiumSmelter({ ...base, cell_voltage_v: 1.1, electricity_kwh_per_t: 4000 });
+    expect(result.steps).toEqual([]);
+    expect(result.problems[0]).toMatchObject({ parameter: 'cell_voltage_v', message: expect.stringMatching(/1\.1 V is below the decomposition voltage of alumina with a carbon anode \(about 1\.18 V/) });
+    expect(aluminiumSmelter({ ...base, cell_voltage_v: 1.2 }).problems).toEqual([]);
   });
 
   it('the carbon floor is the stoichiometric 0.334 t C/t Al', () => {
