@@ -8,7 +8,14 @@ export interface FoundBrowser {
   how: 'PUPPETEER_EXECUTABLE_PATH' | 'PATH' | 'puppeteer cache';
 }
 
-/** Chromium flags for a headless, offline, GPU-less print run. */
+/**
+ * Chromium flags for a headless, offline, GPU-less print run. The pages load nothing from
+ * outside (pdf.ts refuses every request outside the build folder), but the browser's own
+ * services would still look up their hosts and probe the network at start: these switch them
+ * off, and `--host-resolver-rules` answers every host name "not found" inside the browser, so
+ * no lookup leaves it (test/render/no-network.test.ts traces the PDF build's system calls and
+ * finds no internet socket).
+ */
 export const CHROMIUM_ARGS = [
   '--no-sandbox',
   '--disable-gpu',
@@ -18,6 +25,17 @@ export const CHROMIUM_ARGS = [
   '--no-first-run',
   '--disable-quic',
   '--disable-extensions',
+  '--disable-default-apps',
+  '--disable-domain-reliability',
+  '--disable-client-side-phishing-detection',
+  '--disable-breakpad',
+  '--disable-field-trial-config',
+  '--no-pings',
+  '--no-service-autorun',
+  '--metrics-recording-only',
+  '--dns-prefetch-disable',
+  '--host-resolver-rules=MAP * ~NOTFOUND',
+  '--disable-features=OptimizationHints,MediaRouter,DialMediaRouteProvider,Translate,AutofillServerCommunication,CertificateTransparencyComponentUpdater,InterestFeedContentSuggestions,NetworkTimeServiceQuerying,SafeBrowsing,PrivacySandboxSettings4',
 ];
 
 const PATH_NAMES = ['chromium', 'chromium-browser', 'google-chrome', 'google-chrome-stable', 'chrome'];
