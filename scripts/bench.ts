@@ -3,8 +3,8 @@
  * Seeded synthetic catalogues of 100, 1 000 and 10 000 products × 40 BOM lines × 25
  * indicators. Each measurement runs in its own process so its peak RSS is its own.
  */
-import { execFileSync } from 'node:child_process';
-import { mkdtemp, rm } from 'node:fs/promises';
+import { execFileSync, spawnSync } from 'node:child_process';
+import { cp, mkdtemp, readFile, rm, writeFile } from 'node:fs/promises';
 import os from 'node:os';
 import path from 'node:path';
 import { writeSyntheticProject } from './synthetic.ts';
@@ -62,6 +62,25 @@ function measure(args: string[]): Ranged {
 }
 const seconds = (ms: number) => `${(ms / 1000).toFixed(2)} s`;
 const range = ([a, b]: [number, number]) => `${(a / 1000).toFixed(1)}–${(b / 1000).toFixed(1)} s`;
+
+/** Inputs that once made `check` run for minutes or run out of memory (each planted in a copy of the demo). */
+const bomLine = (dir: string, line: number, edit: (text: string) => string) =>
+  readFile(path.join(dir, 'bom.csv'), 'utf8').then((text) => {
+    const lines = text.split('\n');
+    lines[line - 1] = edit(lines[line - 1]!);
+    return writeFile(path.join(dir, 'bom.csv'), lines.join('\n'));
+  });
+const HOSTILE: Array<[string, (dir: string) => Promise<void>]> = [
+  ['a mass cell of 1 000 000 digits', (dir) => bomLine(dir, 6, (line) => line.replace(',0.995,', `,${'1'.repeat(1_000_000)},`))],
+  ['a share cell of 300 000 spaces and a letter', (dir) => bomLine(dir, 6, (line) => line.replace(',0.04,', `,${' '.repeat(300_000)}x%,`))],
+  ['a source cell of 1 MB', (dir) => bomLine(dir, 6, (line) => line.replace('Mill yield report 2025 (illustrative)', 'x'.repeat(1_000_000)))],
+  ['bom.csv of 1 000 000 valid lines (10 000 products × 100)', async (dir) => {
+    await rm(dir, { recursive: true });
+    await writeSyntheticProject(dir, { products: 10_000, linesPerProduct: 100, indicators: 25 });
+  }],
+];
+const hostileRows: string[] = [];
+const hostileMs: number[] = [];
 
 const rows: string[] = [];
 const calcRows: string[] = [];
@@ -122,6 +141,21 @@ try {
   await writeSyntheticProject(mcDir, { products: 200, linesPerProduct: 40, indicators: 25, gsd: true });
   const mc = JSON.parse(execFileSync(process.execPath, ['--max-semi-space-size=64', runTs, 'scripts/bench-uncertainty.ts', mcDir, '200', '1000'], { encoding: 'utf8' })) as { calcMs: number; qualityMs: number; sensitivityMs: number; mcMs: number; variedPerProduct: number };
   mcRows.push(`| ${mc.calcMs.toFixed(2)} ms | ${mc.qualityMs.toFixed(2)} ms | ${mc.sensitivityMs.toFixed(2)} ms | ${mc.mcMs.toFixed(2)} ms | ${mc.variedPerProduct.toFixed(0)} |`);
+  // Hostile input: `check` on cells and files no one should write, timed as a user runs it.
+  if (process.env.BENCH_HOSTILE !== '0') {
+    for (const [name, plant] of HOSTILE) {
+      const dir = path.join(root, `hostile-${hostileRows.length}`);
+      await cp('data', dir, { recursive: true });
+      await plant(dir);
+      const started = performance.now();
+      const run = spawnSync('/usr/bin/time', ['-f', '%M', process.execPath, 'bin/loopsheet.js', 'check', '--data', dir], { encoding: 'utf8', maxBuffer: 1 << 26 });
+      const ms = performance.now() - started;
+      const peakKb = Number(run.stderr.trim().split('\n').at(-1));
+      const codes = [...new Set(run.stderr.match(/\[[A-Z_]+\]$/gm) ?? [])].join(' ');
+      hostileRows.push(`| ${name} | ${seconds(ms)} | ${Number.isFinite(peakKb) ? `${(peakKb / 1024 / 1024).toFixed(2)} GB` : '—'} | exit ${run.status} ${codes} |`);
+      hostileMs.push(ms);
+    }
+  }
 } finally {
   await rm(root, { recursive: true, force: true });
 }
@@ -136,6 +170,7 @@ if (at(1000)) target('1 000 products', '≤ 10 s', seconds(at(1000)!.totalMs), a
 if (at(10000)) target('10 000 products', '≤ 60 s and ≤ 2 GB (all processes)', `${seconds(at(10000)!.totalMs)}, ${(at(10000)!.peakTreeMb / 1024).toFixed(2)} GB`, at(10000)!.totalMs <= 60_000 && at(10000)!.peakTreeMb <= 2048);
 for (const [n, b] of [...built].sort(([a], [c]) => a - c)) target(`build / floor, ${n.toLocaleString('en')} products`, '≤ 1.5×', `${(b.totalMs / b.floorMs).toFixed(1)}× (floor ${seconds(b.floorMs)})`, b.totalMs / b.floorMs <= 1.5);
 if (at(1000)) target('build --changed, 1 000 products', '< 5 % of the full build', `${(100 * at(1000)!.incrementalShare).toFixed(1)} %`, at(1000)!.incrementalShare < 0.05);
+if (hostileMs.length > 0) target('check on each hostile input', '≤ 10 s', `${seconds(Math.max(...hostileMs))} at most`, Math.max(...hostileMs) <= 10_000);
 target('PDF', '≥ 1 declaration/s, ≤ 1.3× the bare-Chromium floor', Number.isNaN(pdfFloorRatio) ? '—' : `${pdfRate.toFixed(2)} /s, ${pdfFloorRatio.toFixed(2)}×`, Number.isNaN(pdfFloorRatio) ? undefined : pdfRate >= 1 && pdfFloorRatio <= 1.3);
 
 process.stdout.write(`
@@ -172,6 +207,12 @@ Per product (200 products × 40 lines × 25 indicators; every factor, BOM mass a
 | calculation | data quality | contributions and sensitivity | Monte Carlo, N = 1 000 | inputs varied per product |
 |---:|---:|---:|---:|---:|
 ${mcRows.join('\n')}
+
+Hostile input (\`loopsheet check\` on a copy of the demo with one planted cell, or a synthetic catalogue too large to build; wall time and peak RSS from /usr/bin/time):
+
+| input | check | peak RSS | result |
+|---|---:|---:|---|
+${hostileRows.join('\n')}
 
 Targets (measured in this run):
 

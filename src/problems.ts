@@ -7,6 +7,7 @@ export type Severity = 'error' | 'warning';
 
 export const PROBLEM_CODES = {
   FILE_MISSING: 'a required input file is not in the data folder',
+  FILE_TOO_LARGE: 'an input file has more rows (400 000) or bytes (200 MB) than one build reads',
   FILE_UNREADABLE: 'the file could not be read or is not UTF-8 text',
   CSV_SYNTAX: 'the CSV cannot be parsed (for example an unclosed quote)',
   JSON_SYNTAX: 'declaration.json is not valid JSON',

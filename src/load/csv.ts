@@ -1,5 +1,6 @@
 import { parse, CsvError } from 'csv-parse/sync';
 import type { Problem } from '../problems.ts';
+import { formatCount } from '../format.ts';
 
 /** One data record with the physical lines it spans in the file (1-based). */
 export interface CsvRecord {
@@ -51,8 +52,30 @@ export function detectDelimiter(text: string): ',' | ';' {
   return ',';
 }
 
+/**
+ * Most data rows read from one file: the largest catalogue the benchmark builds within its
+ * memory (npm run bench: 10 000 products of 40 BOM lines, 400 000 rows; docs/performance.md).
+ * A larger file is refused before it is read into rows.
+ */
+export const MAX_ROWS = 400_000;
+
+class TooManyRows extends Error {}
+
 /** Longest cell read: a long citation in a source column fits; a megabyte of text is not data. */
 export const MAX_CELL_LENGTH = 10_000;
+
+function tooManyRows(file: string, text: string, maxRows: number): Problem {
+  let lines = 0;
+  for (let at = text.indexOf('\n'); at !== -1; at = text.indexOf('\n', at + 1)) lines++;
+  return {
+    severity: 'error',
+    code: 'FILE_TOO_LARGE',
+    file,
+    message: `${file} has more than ${formatCount(maxRows)} data rows (${formatCount(lines)} lines); one build reads at most ${formatCount(maxRows)} rows of a file, the largest catalogue measured to build within memory (docs/performance.md)`,
+    expected: `at most ${formatCount(maxRows)} data rows`,
+    hint: 'split the products into several data folders and build each, one CI job per folder',
+  };
+}
 
 function cellTooLong(file: string, line: number, index: number, field: string, column: string | undefined): Problem {
   return {
@@ -81,12 +104,13 @@ const countNewlines = (field: string): number => {
  * Records are handed to the sink as csv-parse produces them and are not collected, so a
  * large file's records never pile up in memory beside the rows made from them.
  */
-export function readCsvText(file: string, original: string, sink: CsvSink): CsvRead {
+export function readCsvText(file: string, original: string, sink: CsvSink, maxRows = MAX_ROWS): CsvRead {
   // One line ending throughout, so that csv-parse's line count is the physical line.
   const text = original.replace(/\r\n?/g, '\n');
   const delimiter = detectDelimiter(text);
   const problems: Problem[] = [];
   const tooLong: Problem[] = [];
+  let rows = 0;
   let source: CsvSource | undefined;
   let take: ((record: CsvRecord) => void) | undefined;
   try {
@@ -117,12 +141,14 @@ export function readCsvText(file: string, original: string, sink: CsvSink): CsvR
           source = { file, delimiter, header: { names: fields.map((name) => name.trim()), line }, text };
           take = sink(source);
         } else {
+          if (++rows > maxRows) throw new TooManyRows();
           take({ line, lineEnd, fields });
         }
         return undefined;
       },
     });
   } catch (error) {
+    if (error instanceof TooManyRows) return { ok: false, problems: [tooManyRows(file, text, maxRows)] };
     if (error instanceof CsvError) return { ok: false, problems: [...problems, csvSyntaxProblem(file, error, text, delimiter)] };
     throw error;
   }

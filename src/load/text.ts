@@ -1,15 +1,26 @@
-import { readFile } from 'node:fs/promises';
+import { readFile, stat } from 'node:fs/promises';
 import path from 'node:path';
 import type { Problem } from '../problems.ts';
+import { formatCount } from '../format.ts';
 
 export type ReadResult = { ok: true; text: string; bytes: Buffer } | { ok: false; problem: Problem };
 
 const utf8 = new TextDecoder('utf-8', { fatal: true });
 
+/** Largest input file read: far above the largest row count read (src/load/csv.ts MAX_ROWS) at any sensible row length. */
+export const MAX_FILE_BYTES = 200e6;
+
 /** Reads an input file as UTF-8 text, dropping a byte-order mark. */
 export async function readText(dir: string, file: string): Promise<ReadResult> {
   let bytes: Buffer;
   try {
+    const size = (await stat(path.join(dir, file))).size;
+    if (size > MAX_FILE_BYTES) {
+      return {
+        ok: false,
+        problem: { severity: 'error', code: 'FILE_TOO_LARGE', file, message: `${file} is ${formatCount(Math.round(size / 1e6))} MB; an input file has at most ${formatCount(MAX_FILE_BYTES / 1e6)} MB`, expected: `at most ${formatCount(MAX_FILE_BYTES / 1e6)} MB`, hint: 'split the catalogue into data folders of fewer products and build each' },
+      };
+    }
     bytes = await readFile(path.join(dir, file));
   } catch (error) {
     const code = (error as NodeJS.ErrnoException).code;

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { detectDelimiter, parseCsvText } from '../../src/load/csv.ts';
+import { detectDelimiter, MAX_ROWS, parseCsvText, readCsvText } from '../../src/load/csv.ts';
 import { parseTable } from '../../src/schema/table.ts';
 import { bomCsv } from '../../src/schema/bom.ts';
 import { readText } from '../../src/load/text.ts';
@@ -69,6 +69,14 @@ describe('CSV dialects', () => {
     const later = parseCsvText('bom.csv', text);
     expect(later.ok).toBe(false);
     expect(later.problems).toEqual([expect.objectContaining({ code: 'CSV_SYNTAX', line: 5, message: expect.stringMatching(/opened on this line is never closed/) })]);
+  });
+
+  it('refuses a file with more data rows than one build reads, naming the limit and the way to split', () => {
+    const rows = Array.from({ length: 6 }, (_, k) => `P${k},L1,Blank,al,product,1,0,0,0,recycled,x`);
+    const read = readCsvText('bom.csv', `# comment\n${HEADER}\n${rows.join('\n')}\n`, () => () => undefined, 5);
+    expect(read).toEqual({ ok: false, problems: [expect.objectContaining({ code: 'FILE_TOO_LARGE', file: 'bom.csv', message: expect.stringMatching(/^bom\.csv has more than 5 data rows \(8 lines\)/), hint: expect.stringMatching(/split the products into several data folders/) })] });
+    expect(readCsvText('bom.csv', `${HEADER}\n${rows.slice(0, 5).join('\n')}\n`, () => () => undefined, 5).ok).toBe(true);
+    expect(MAX_ROWS).toBe(400_000);
   });
 
   it('names the line and byte of the first byte that is not UTF-8', async () => {

@@ -1,5 +1,5 @@
 import { afterAll, describe, expect, it } from 'vitest';
-import { rm, writeFile, readFile } from 'node:fs/promises';
+import { rm, truncate, writeFile, readFile } from 'node:fs/promises';
 import path from 'node:path';
 import { loadProject } from '../../src/model/project.ts';
 import { PROBLEM_CODES, type Problem, type ProblemCode } from '../../src/problems.ts';
@@ -28,6 +28,8 @@ const cases: Case[] = [
     plant: async (d) => writeFile(at(d, 'products.csv'), Buffer.concat([Buffer.from('product_id,name\nP1,Stahltr'), Buffer.from([0xe4]), Buffer.from('ger\n')])),
     expected: { file: 'products.csv' },
   },
+  // A sparse file: its size is what is checked, before a byte is read.
+  { code: 'FILE_TOO_LARGE', plant: (d) => truncate(at(d, 'products.csv'), 201e6), expected: { file: 'products.csv', message: 'products.csv is 201 MB; an input file has at most 200 MB' } },
   { code: 'CSV_SYNTAX', plant: (d) => editLine(at(d, 'bom.csv'), 6, 'Mill yield report', '"Mill" yield report'), expected: { file: 'bom.csv', line: 6 } },
   { code: 'JSON_SYNTAX', plant: (d) => editFile(at(d, 'declaration.json'), (t) => t.replace('"illustrative": true', '"illustrative": true,')), expected: { file: 'declaration.json', line: 21, columnIndex: 1, message: expect.stringMatching(/comma too many/) } },
   { code: 'JSON_NESTING', plant: (d) => editFile(at(d, 'declaration.json'), (t) => t.replace('"illustrative": true', `"illustrative": ${'['.repeat(5000)}${']'.repeat(5000)}`)), expected: { file: 'declaration.json', line: 20, columnIndex: 82, value: '['.repeat(20) } },
