@@ -13,7 +13,7 @@ import { benchBuild, type BuildBench } from './bench-build.ts';
 
 const workers = defaultWorkers();
 
-const sizes = (process.env.BENCH_SIZES ?? '100,1000,10000').split(',').map(Number);
+const sizes = (process.env.BENCH_SIZES ?? '100,1000,10000').split(',').filter(Boolean).map(Number);
 const renderSizes = new Set((process.env.BENCH_RENDER_SIZES ?? '100,1000,10000').split(',').map(Number));
 const root = await mkdtemp(path.join(os.tmpdir(), 'loopsheet-bench-'));
 const runTs = path.resolve('bin/run-ts.js');
@@ -72,6 +72,7 @@ const bomLine = (dir: string, line: number, edit: (text: string) => string) =>
   });
 const HOSTILE: Array<[string, (dir: string) => Promise<void>]> = [
   ['a mass cell of 1 000 000 digits', (dir) => bomLine(dir, 6, (line) => line.replace(',0.995,', `,${'1'.repeat(1_000_000)},`))],
+  ['a mass cell of 9 999 digits and a letter (under the cell limit)', (dir) => bomLine(dir, 6, (line) => line.replace(',0.995,', `,${'1'.repeat(9_999)}x,`))],
   ['a share cell of 300 000 spaces and a letter', (dir) => bomLine(dir, 6, (line) => line.replace(',0.04,', `,${' '.repeat(300_000)}x%,`))],
   ['a source cell of 1 MB', (dir) => bomLine(dir, 6, (line) => line.replace('Mill yield report 2025 (illustrative)', 'x'.repeat(1_000_000)))],
   ['bom.csv of 1 000 000 valid lines (10 000 products × 100)', async (dir) => {

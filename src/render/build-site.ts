@@ -1,5 +1,4 @@
 import { fork } from 'node:child_process';
-import { onInterrupt } from './cleanup.ts';
 import { mkdir, writeFile } from 'node:fs/promises';
 import os from 'node:os';
 import path from 'node:path';
@@ -19,6 +18,7 @@ import type { HashedFile } from './verification.ts';
 import { renderSite } from './site.ts';
 import { CHECKLIST_JSON, RESULTS_JSON, RESULTS_CSV, VERIFICATION_DIR } from '../files.ts';
 import { CHECKS } from '../calc/checklist.ts';
+import { onInterrupt } from './cleanup.ts';
 
 /**
  * Products per Eleventy render. Eleventy keeps every page of a run in memory; rendering the
