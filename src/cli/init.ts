@@ -37,6 +37,11 @@ until it reports no errors, and build the declarations with
 
     npx loopsheet build --data . --out site
 
+(\`npx loopsheet\` runs loopsheet installed as a devDependency of this repository, from the
+tarball \`npm pack\` makes in a loopsheet checkout; after \`npm install -g\` of that tarball the
+command is \`loopsheet\`. loopsheet is not on the public registry: do not run \`npx loopsheet\`
+where it is not installed.)
+
 Numbers: a decimal point, or a decimal comma in semicolon-separated files; never thousands
 separators. Shares as fractions (0.35) or percentages (35%). Empty cells in factors.csv mean
 "not available" and are never read as zero.
