@@ -90,13 +90,25 @@ export interface Problem {
 }
 
 /** `bom.csv:14: mass_kg "12,5kg": expected a number in kg` */
-export function formatProblem(problem: Problem): string {
-  const where = problem.line === undefined ? problem.file : `${problem.file}:${problem.line}`;
+/**
+ * One problem on one line, as editors and CI annotations read it: `file:line:column` (the
+ * column's number in the header; the character in declaration.json), the column and the value
+ * as written, the message, what was expected (unless the message says it already), the hint,
+ * and the code. `dir` puts the data folder in front of the file, so the location is a path
+ * from where the command ran.
+ */
+export function formatProblem(problem: Problem, dir?: string): string {
+  const file = dir === undefined ? problem.file : joinPath(dir, problem.file);
+  const where = [file, problem.line, problem.line === undefined ? undefined : problem.columnIndex].filter((part) => part !== undefined).join(':');
   const subject = [problem.column, problem.value === undefined ? undefined : JSON.stringify(problem.value)].filter((part) => part !== undefined && part !== '');
+  const expected = problem.expected && !problem.message.includes(problem.expected) ? `; expected ${problem.expected}` : '';
   const hint = problem.hint ? ` (${problem.hint})` : '';
   const head = subject.length > 0 ? `${where}: ${subject.join(' ')}:` : `${where}:`;
-  return `${problem.severity} ${head} ${problem.message}${hint} [${problem.code}]`;
+  return `${problem.severity} ${head} ${problem.message}${expected}${hint} [${problem.code}]`;
 }
+
+/** `dir/file` with one separator, as the user wrote `dir` (problems.ts has no path module: it sits below every layer). */
+const joinPath = (dir: string, file: string): string => (dir === '' || dir === '.' ? file : `${dir.replace(/[\\/]+$/, '')}/${file}`);
 
 /** Stable order: by file, then line, then column position, then code. */
 export function sortProblems(problems: Problem[]): Problem[] {

@@ -1,7 +1,7 @@
 import { loadProject } from '../model/project.ts';
 import { ProductPipeline } from '../pipeline/product.ts';
 import { hasErrors } from '../problems.ts';
-import { nearestName } from '../reference/nearest.ts';
+import { nearestName, nearestNames } from '../reference/nearest.ts';
 import { explainFigure, figureIds, resolveFigure } from '../trace/explain.ts';
 import { EXIT, UsageError, type Io } from './io.ts';
 import { printProblems } from './report-problems.ts';
@@ -22,8 +22,9 @@ export async function runExplain(options: { data: string; product: string; figur
   const figure = resolveFigure(result.graph, options.figure);
   if (!figure) {
     const ids = figureIds(result.graph);
-    const near = nearestName(options.figure, ids);
-    throw new UsageError(`product ${options.product} has no figure "${options.figure}"${near ? ` (did you mean "${near}"?)` : ''}; figure ids look like cutoff/A1/GWP-total, cff/total/GWP-total, flows/recycled_content/total`);
+    const near = nearestNames(options.figure, ids, 8);
+    const offer = near.length > 0 ? `; the nearest: ${near.join(', ')}` : '; figure ids look like cutoff/A1/GWP-total, cff/total/GWP-total, flows/recycled_content/total';
+    throw new UsageError(`product ${options.product} has no figure "${options.figure}"${offer} (every id: results.csv figure_id, or the audit page's addresses)`);
   }
   io.out(explainFigure(result.graph, figure, options.depth).join('\n'));
   return EXIT.ok;

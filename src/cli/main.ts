@@ -1,3 +1,4 @@
+import { stat } from 'node:fs/promises';
 import { parseArgs, type ParseArgsConfig } from 'node:util';
 import { EXIT, UsageError, type Io } from './io.ts';
 import { ToolError } from '../problems.ts';
@@ -213,6 +214,15 @@ Exit codes: 0 ok, 1 input errors, 2 usage errors, 3 internal failure.`;
 }
 
 /** Everything a command writes goes through here, with control characters from input text shown as escapes (`showControls`). */
+/** Why a data folder cannot be read, or undefined when it is a folder. */
+async function folderMissing(dir: string): Promise<string | undefined> {
+  try {
+    return (await stat(dir)).isDirectory() ? undefined : 'is a file, not a folder';
+  } catch {
+    return 'does not exist';
+  }
+}
+
 export const processIo: Io = {
   out: (text) => void process.stdout.write(showControls(text.endsWith('\n') ? text : `${text}\n`)),
   err: (text) => void process.stderr.write(showControls(text.endsWith('\n') ? text : `${text}\n`)),
@@ -249,13 +259,25 @@ export async function main(argv: string[], io: Io = processIo): Promise<number> 
     io.out(command.usage);
     return EXIT.ok;
   }
+  const values = parsed.values as Record<string, string | boolean | undefined>;
   const { min, max } = command.positionals;
   if (parsed.positionals.length < min || parsed.positionals.length > max) {
-    io.err(`loopsheet ${name}: expected ${min === max ? min : `${min}–${max}`} argument${max === 1 ? '' : 's'}, got ${parsed.positionals.length}\n\n${command.usage}`);
+    // `check mine`: a folder given without --data.
+    const extra = parsed.positionals[max];
+    const meant = extra !== undefined && 'data' in command.options && values.data === undefined ? `; did you mean --data ${extra}?` : '';
+    io.err(`loopsheet ${name}: expected ${min === max ? min : `${min}–${max}`} argument${max === 1 ? '' : 's'}, got ${parsed.positionals.length}${meant}\n\n${command.usage}`);
     return EXIT.usage;
   }
+  if ('data' in command.options) {
+    const data = typeof values.data === 'string' ? values.data : 'data';
+    const missing = await folderMissing(data);
+    if (missing) {
+      io.err(`loopsheet ${name}: the data folder ${data} ${missing}${values.data === undefined ? ' (the default; give --data DIR)' : ''}`);
+      return EXIT.usage;
+    }
+  }
   try {
-    return await command.run(parsed.values as Record<string, string | boolean | undefined>, parsed.positionals, io);
+    return await command.run(values, parsed.positionals, io);
   } catch (error) {
     if (error instanceof ToolError && error.kind !== 'internal') {
       io.err(`loopsheet ${name}: ${error.message}`);

@@ -3,7 +3,7 @@ import type { Io } from './io.ts';
 
 /** Prints problems one a line on stderr, then a count. */
 export function printProblems(problems: readonly Problem[], dir: string, io: Io): void {
-  for (const problem of problems) io.err(formatProblem(problem));
+  for (const problem of problems) io.err(formatProblem(problem, dir));
   const errors = problems.filter((p) => p.severity === 'error').length;
   const warnings = problems.length - errors;
   io.err(`${dir}: ${plural(errors, 'error')}, ${plural(warnings, 'warning')}`);

@@ -118,7 +118,7 @@ export function buildSiteView(project: Project, problems: readonly Problem[], op
     verification: { inputs: [...(options.inputs ?? [])], datasets: catalogue ? datasetCounts(project) : [], factorQuality: catalogue ? factorQualityTable(project, catalogue) : { title: '', caption: '', headers: [], rows: [], empty: '' } },
     factors: catalogue ? factorTable(project, project.factors.rows, catalogue) : { title: '', caption: '', headers: [], rows: [], empty: '' },
     // Family spreads are known once every member is computed: the catalogue render adds them.
-    warnings: [...problems.filter((p) => p.severity === 'warning').map(formatProblem), ...(catalogue ? (options.families ?? []).flatMap((family) => family.warnings) : [])],
+    warnings: [...problems.filter((p) => p.severity === 'warning').map((problem) => formatProblem(problem)), ...(catalogue ? (options.families ?? []).flatMap((family) => family.warnings) : [])],
   };
   return view;
 }

@@ -90,7 +90,7 @@ export function tableReader<S extends CsvFileSchema>(csv: CsvSource, schema: S, 
   for (const column of known) {
     if (column.required && columns[column.name] === undefined) {
       missing.add(column.name);
-      problems.push({ severity: 'error', code: 'COLUMN_MISSING', file, line: headerLine, column: column.name, message: `required column ${column.name} is not in the header`, expected: column.description });
+      problems.push({ severity: 'error', code: 'COLUMN_MISSING', file, line: headerLine, column: column.name, message: `required column ${column.name} is not in the header`, expected: `a column named ${column.name}: ${column.description.replace(/\.$/, '')}` });
     }
   }
 

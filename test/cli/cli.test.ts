@@ -50,7 +50,9 @@ describe('loopsheet check', () => {
     // Mass keys: 1 200 000 m × 0.83 kg = 996 000 kg, 450 000 × 0.78 = 351 000, 260 000 × 0.9 = 234 000; Σ 1 581 000 kg.
     expect(result.stdout).toBe('site norwick-press-shop, 2025, shared by mass (ISO 14044 §4.3.4): KV-EXT-6060 62.998 %, KV-EXT-6060-T19 22.201 %, KV-EXT-6060-T22 14.801 %\n');
     expect(result.stderr).toContain('0 errors, 1 warning');
-    expect(result.stderr).toContain('warning factors.csv:23: ODP "":');
+    // file:line:column (the column's number in the header), then what was expected.
+    expect(result.stderr).toContain(`warning ${DEMO}/factors.csv:23:10: ODP "":`);
+    expect(result.stderr).toContain('; expected a number (an empty cell means "not available", never 0) [FACTOR_VALUE_MISSING]');
   });
 
   it('--json prints the problems as a JSON array on stdout', async () => {
@@ -75,15 +77,15 @@ describe('loopsheet check', () => {
     const result = await runCli(['check', '--data', dir]);
     expect(result.code).toBe(1);
     const planted = [
-      ['bom.csv:6: mass_kg "0,995"', 'NOT_A_NUMBER'],
-      ['bom.csv:9: recycled_post "22%"', 'RECYCLED_CONTENT_SUM'],
-      ['products.csv:3: eol_scenario "building-metal"', 'UNKNOWN_REFERENCE'],
-      ['materials.csv:6: virgin "steel-hot-roled-bof"', 'UNKNOWN_REFERENCE'],
-      ['eol.csv:5: landfill "20%"', 'EOL_SHARES_SUM'],
-      ['activities.csv:9: unit "kg"', 'UNIT_MISMATCH'],
-      ['transport.csv:7: distance_km "260 km"', 'NOT_A_NUMBER'],
-      ['factors.csv:26: GWP-total "zero"', 'NOT_A_NUMBER'],
-      ['declaration.json:12: verification.status "drafted"', 'BAD_CHOICE'],
+      ['bom.csv:6:6: mass_kg "0,995"', 'NOT_A_NUMBER'],
+      ['bom.csv:9:8: recycled_post "22%"', 'RECYCLED_CONTENT_SUM'],
+      ['products.csv:3:5: eol_scenario "building-metal"', 'UNKNOWN_REFERENCE'],
+      ['materials.csv:6:4: virgin "steel-hot-roled-bof"', 'UNKNOWN_REFERENCE'],
+      ['eol.csv:5:7: landfill "20%"', 'EOL_SHARES_SUM'],
+      ['activities.csv:9:6: unit "kg"', 'UNIT_MISMATCH'],
+      ['transport.csv:7:6: distance_km "260 km"', 'NOT_A_NUMBER'],
+      ['factors.csv:26:6: GWP-total "zero"', 'NOT_A_NUMBER'],
+      ['declaration.json:12:31: verification.status "drafted"', 'BAD_CHOICE'],
     ];
     for (const [where, code] of planted) {
       expect(result.stderr.split('\n').some((line) => line.startsWith('error ') && line.includes(where!) && line.endsWith(`[${code}]`)), `${where} [${code}] in\n${result.stderr}`).toBe(true);
@@ -92,11 +94,22 @@ describe('loopsheet check', () => {
     expect(result.stderr).toContain('(did you mean "steel-hot-rolled-bof"?)');
   });
 
-  it('a missing data folder is input errors (exit 1) naming each missing file', async () => {
-    const result = await runCli(['check', '--data', path.join(await scratch(), 'nowhere')]);
+  it('a data folder that does not exist is one usage error (exit 2); an empty one names each missing file (exit 1)', async () => {
+    const nowhere = path.join(await scratch(), 'nowhere');
+    const missing = await runCli(['check', '--data', nowhere]);
+    expect(missing.code).toBe(2);
+    expect(missing.stderr).toBe(`loopsheet check: the data folder ${nowhere} does not exist\n`);
+    const defaulted = await runCli(['build'], { cwd: await scratch() });
+    expect(defaulted.stderr).toBe('loopsheet build: the data folder data does not exist (the default; give --data DIR)\n');
+    // A folder given without --data.
+    const positional = await runCli(['check', nowhere]);
+    expect(positional.code).toBe(2);
+    expect(positional.stderr).toMatch(`expected 0 arguments, got 1; did you mean --data ${nowhere}?`);
+    const empty = await scratch();
+    const result = await runCli(['check', '--data', empty]);
     expect(result.code).toBe(1);
     for (const file of ['declaration.json', 'products.csv', 'bom.csv', 'materials.csv', 'eol.csv', 'activities.csv', 'transport.csv', 'factors.csv']) {
-      expect(result.stderr).toContain(`error ${file}: ${file} is missing from the data folder [FILE_MISSING]`);
+      expect(result.stderr).toContain(`error ${empty}/${file}: ${file} is missing from the data folder; expected a file named ${file} [FILE_MISSING]`);
     }
   });
 
@@ -126,10 +139,13 @@ describe('loopsheet explain', () => {
     expect(result.stdout).toContain('factors.csv:3 GWP-total = "11.85"  (factor al-primary-ingot)');
   });
 
-  it('an unknown figure or product is a usage error (exit 2) with the nearest id', async () => {
+  it('an unknown figure or product is a usage error (exit 2) with the nearest ids', async () => {
     const figure = await runCli(['explain', 'KV-EXT-6060', 'cutoff/A1/GWP-totl', '--data', DEMO]);
     expect(figure.code).toBe(2);
-    expect(figure.stderr).toContain('did you mean "cutoff/A1/GWP-total"?');
+    expect(figure.stderr).toMatch(/has no figure "cutoff\/A1\/GWP-totl"; the nearest: cutoff\/A1\/GWP-total, /);
+    // Part of an id: the figures it names.
+    const module = await runCli(['explain', 'KV-EXT-6060', 'cutoff/D', '--data', DEMO]);
+    expect(module.stderr).toMatch(/; the nearest: cutoff\/D\/[\w-]+(, cutoff\/D\/[\w-]+){7} /);
     const product = await runCli(['explain', 'KV-EXT-606', 'cutoff/A1/GWP-total', '--data', DEMO]);
     expect(product.code).toBe(2);
     expect(product.stderr).toContain('did you mean "KV-EXT-6060"?');
