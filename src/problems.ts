@@ -19,6 +19,7 @@ export const PROBLEM_CODES = {
   COLUMN_IGNORED: 'a known column that is not read from this file (for example a flow indicator in factors.csv)',
   CELL_TOO_LONG: 'a cell longer than 10 000 characters (the file is not used)',
   FIELD_COUNT: 'a row has more fields than the header',
+  DECIMAL_COMMA: 'a number written with a decimal comma in a comma-separated file: it reads as two cells and moves the rest of the row one column on',
   KEY_UNKNOWN: 'a key in declaration.json that loopsheet does not know (ignored)',
   VALUE_REQUIRED: 'a required cell or key is empty',
   NOT_A_NUMBER: 'a cell that must hold a number does not',
@@ -101,7 +102,7 @@ export function formatProblem(problem: Problem, dir?: string): string {
   const file = dir === undefined ? problem.file : joinPath(dir, problem.file);
   const where = [file, problem.line, problem.line === undefined ? undefined : problem.columnIndex].filter((part) => part !== undefined).join(':');
   const subject = [problem.column, problem.value === undefined ? undefined : JSON.stringify(problem.value)].filter((part) => part !== undefined && part !== '');
-  const expected = problem.expected && !problem.message.includes(problem.expected) ? `; expected ${problem.expected}` : '';
+  const expected = problem.expected && !problem.message.includes(problem.expected) ? `${/[?.!]$/.test(problem.message) ? ' Expected' : '; expected'} ${problem.expected}` : '';
   const hint = problem.hint ? ` (${problem.hint})` : '';
   const head = subject.length > 0 ? `${where}: ${subject.join(' ')}:` : `${where}:`;
   return `${problem.severity} ${head} ${problem.message}${expected}${hint} [${problem.code}]`;

@@ -100,24 +100,78 @@ export function tableReader<S extends CsvFileSchema>(csv: CsvSource, schema: S, 
   const written: Table<RowOf<S>>['written'] = [];
   const headerWidth = csv.header.names.length;
   let records = 0;
+  const rawOf = (fields: readonly string[]): Record<string, string> => {
+    const raw: Record<string, string> = {};
+    for (const [name, position] of columnEntries) {
+      const field = fields[position - 1];
+      if (field !== undefined) raw[name] = field;
+    }
+    return raw;
+  };
+  /**
+   * `0,995` in a comma-separated file is two fields, and every cell after it moves one column
+   * on. Where joining two neighbouring whole numbers as a decimal (`0` and `995` as 0.995)
+   * makes the row valid, that is the cause: said once, at the cell, instead of blaming the
+   * shifted cells or the extra field.
+   */
+  const decimalCommaAt = (fields: readonly string[]): { joins: number[]; fields: string[] } | undefined => {
+    if (csv.delimiter !== ',') return undefined;
+    const joinable = (at: number) => /^\s*[+-]?\d+\s*$/.test(fields[at]!) && /^\s*\d+(?:[eE][+-]?\d+)?\s*%?\s*$/.test(fields[at + 1]!);
+    const join = (joins: number[]): string[] => {
+      const out: string[] = [];
+      for (let at = 0; at < fields.length; at++) {
+        if (joins.includes(at)) {
+          out.push(`${fields[at]!.trim()}.${fields[at + 1]!.trim()}`);
+          at++;
+        } else out.push(fields[at]!);
+      }
+      return out;
+    };
+    const valid = (joined: string[]) => joined.length <= headerWidth && rowSchema.safeParse(rawOf(joined)).success;
+    const candidates = Array.from({ length: Math.max(0, fields.length - 1) }, (_, at) => at).filter(joinable);
+    // One decimal comma, anywhere; else every joinable pair from the left (`0,83` and `0,15` in one row).
+    for (const at of candidates) if (valid(join([at]))) return { joins: [at], fields: join([at]) };
+    const greedy: number[] = [];
+    for (const at of candidates) if (!greedy.includes(at - 1)) greedy.push(at);
+    return greedy.length > 1 && valid(join(greedy)) ? { joins: greedy, fields: join(greedy) } : undefined;
+  };
+  const reportDecimalComma = (record: CsvRecord, found: { joins: number[]; fields: string[] }): void => {
+    found.joins.forEach((at, k) => {
+      // Each join before this one has moved this cell's column one on.
+      const position = at + 1 - k;
+      const column = columnEntries.find(([, p]) => p === position)?.[0];
+      const [whole, decimals] = [record.fields[at]!.trim(), record.fields[at + 1]!.trim()];
+      problems.push({
+        severity: 'error', code: 'DECIMAL_COMMA', file, line: record.line,
+        ...(column ? { column } : {}), columnIndex: position, value: `${whole},${decimals}`,
+        message: `reads as two fields, "${whole}" and "${decimals}", and moves every cell after it one column on${record.fields.length > headerWidth ? ` (row has ${record.fields.length} fields, header has ${headerWidth})` : ''}: a decimal comma in a comma-separated file?`,
+        expected: `a decimal point (${whole}.${decimals}), or the file saved with semicolons, where decimal commas are read`,
+      });
+    });
+    written.push({ line: record.line, raw: rawOf(found.fields) });
+  };
   const add = (record: CsvRecord): void => {
     records++;
     if (record.fields.length > headerWidth && record.fields.slice(headerWidth).some((field) => field.trim() !== '')) {
+      const found = decimalCommaAt(record.fields);
+      if (found) return reportDecimalComma(record, found);
       problems.push({
         severity: 'error', code: 'FIELD_COUNT', file, line: record.line, columnIndex: headerWidth + 1,
         value: record.fields.slice(headerWidth).join(csv.delimiter),
-        message: `has ${record.fields.length} fields, the header ${headerWidth}`,
+        message: `row has ${record.fields.length} fields, header has ${headerWidth}`,
         expected: `at most ${headerWidth} fields (a decimal comma in a comma-separated file needs quotes, or save with semicolons)`,
       });
+      // Its ids still count, so that no reference to the row is reported as well.
+      written.push({ line: record.line, raw: rawOf(record.fields.slice(0, headerWidth)) });
       return;
     }
-    const raw: Record<string, string> = {};
-    for (const [name, position] of columnEntries) {
-      const field = record.fields[position - 1];
-      if (field !== undefined) raw[name] = field;
+    const raw = rawOf(record.fields);
+    const result = rowSchema.safeParse(raw);
+    if (!result.success) {
+      const found = decimalCommaAt(record.fields);
+      if (found) return reportDecimalComma(record, found);
     }
     written.push({ line: record.line, raw });
-    const result = rowSchema.safeParse(raw);
     if (result.success) {
       rows.push({ line: record.line, lineEnd: record.lineEnd, value: result.data as RowOf<S>, raw });
       return;

@@ -94,4 +94,20 @@ describe('CSV dialects', () => {
     const { table } = parseTable(csv, bomCsv);
     expect(table.rows[0]!.value).toMatchObject({ role: 'product', recycled_pre: 0, recycled_post: 0, scrap_rate: 0, scrap_fate: 'recycled', source: undefined });
   });
+
+  it('says once, at the cell, that a decimal comma in a comma-separated file split a number, instead of blaming the cells it moved', () => {
+    // A spreadsheet in a decimal-comma locale exporting "CSV (comma)": 0,995 becomes two fields.
+    const shifted = parseTable(parse(`${HEADER}\nP1,L1,Strip,cu,product,0,995,5%,7%,0.04,recycled\n`).csv, bomCsv);
+    expect(shifted.problems).toEqual([expect.objectContaining({ code: 'DECIMAL_COMMA', line: 2, column: 'mass_kg', columnIndex: 6, value: '0,995', expected: expect.stringMatching(/^a decimal point \(0\.995\)/) })]);
+    // Its ids still count (no knock-on reference errors), its values are not used.
+    expect(shifted.table.written[0]!.raw).toMatchObject({ product_id: 'P1', mass_kg: '0.995', scrap_fate: 'recycled' });
+    expect(shifted.table.rows).toEqual([]);
+    // Two in one row, and more fields than the header.
+    const twice = parseTable(parse(`${HEADER}\nP1,L1,Billet,al,product,0,83,30%,45%,0,15,recycled,x\n`).csv, bomCsv);
+    expect(twice.problems.map((p) => [p.code, p.column, p.value])).toEqual([['DECIMAL_COMMA', 'mass_kg', '0,83'], ['DECIMAL_COMMA', 'scrap_rate', '0,15']]);
+    expect(twice.problems[0]!.message).toMatch(/\(row has 13 fields, header has 11\)/);
+    // Whole numbers side by side that do not make the row valid when joined: the extra field is the problem.
+    const extra = parseTable(parse(`${HEADER}\nP1,L1,Billet,al,product,1,0,0,0,recycled,x,y\n`).csv, bomCsv);
+    expect(extra.problems).toEqual([expect.objectContaining({ code: 'FIELD_COUNT', message: 'row has 12 fields, header has 11' })]);
+  });
 });

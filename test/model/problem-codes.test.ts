@@ -40,6 +40,7 @@ const cases: Case[] = [
   { code: 'COLUMN_IGNORED', plant: (d) => editLine(at(d, 'factors.csv'), 2, ',FW', ',MFR'), expected: { file: 'factors.csv', line: 2, column: 'MFR', columnIndex: 18, severity: 'warning' } },
   { code: 'CELL_TOO_LONG', plant: (d) => editLine(at(d, 'bom.csv'), 6, 'Mill yield report 2025 (illustrative)', 'x'.repeat(20_000)), expected: { file: 'bom.csv', line: 6, column: 'source', columnIndex: 11, message: 'a cell of 20000 characters; a cell has at most 10000' } },
   { code: 'FIELD_COUNT', plant: (d) => editLine(at(d, 'bom.csv'), 6, '(illustrative)', '(illustrative),,extra'), expected: { file: 'bom.csv', line: 6, columnIndex: 13 } },
+  { code: 'DECIMAL_COMMA', plant: (d) => editLine(at(d, 'bom.csv'), 6, ',0.995,', ',0,995,'), expected: { file: 'bom.csv', line: 6, column: 'mass_kg', columnIndex: 6, value: '0,995' } },
   { code: 'KEY_UNKNOWN', plant: (d) => editFile(at(d, 'declaration.json'), (t) => t.replace('"gwp_set"', '"gwp_sett"')), expected: { file: 'declaration.json', line: 16, column: 'gwp_sett', hint: 'did you mean "gwp_set"?', severity: 'warning' } },
   { code: 'VALUE_REQUIRED', plant: (d) => editLine(at(d, 'products.csv'), 4, '"Copper busbar 10 × 100 mm, Cu-ETP, tin-plated"', ''), expected: { file: 'products.csv', line: 4, column: 'name', columnIndex: 2 } },
   { code: 'NOT_A_NUMBER', plant: (d) => editLine(at(d, 'bom.csv'), 6, '0.995', '0.995kg'), expected: { file: 'bom.csv', line: 6, column: 'mass_kg', columnIndex: 6, value: '0.995kg' } },
