@@ -17,6 +17,7 @@ import type { FactorRow } from './rows.ts';
 import type { CsvFileSchema, RowOf } from '../schema/csv-file.ts';
 import { nearestName } from '../reference/nearest.ts';
 import { crossFileChecks } from './checks/index.ts';
+import { foldIdKnockOns } from './checks/root-causes.ts';
 
 export * from './types.ts';
 import type { Project } from './types.ts';
@@ -112,7 +113,7 @@ export async function loadProject(dirArgument: string): Promise<ProjectLoad> {
     const tables = { dir, indicators, factorIndicators, products, bom, materials, eol, activities, transport, factors, process, processes, site, production, allocation: sitesRead.allocation, familyRows, families: familiesRead.families, excluded, lookups, indicatorSet };
     // Cross-file rules run even when declaration.json is broken, so one run shows every problem.
     problems.push(...crossFileChecks({ ...tables, declaration, declarationFile }));
-    const sorted = sortProblems(problems);
+    const sorted = sortProblems(foldIdKnockOns(problems));
     if (declaration && declarationFile && !sorted.some((p) => p.severity === 'error')) {
       return { project: { ...tables, declaration, declarationFile, declarationCells: jsonCells(declarationFile) }, problems: sorted };
     }
