@@ -9,7 +9,7 @@ import { readFamilies } from './families.ts';
 import { readSites } from './sites.ts';
 import { columnsOf } from '../schema/csv-file.ts';
 import { readProcesses } from './processes.ts';
-import { declarationSchema, DECLARATION_KEYS, type Declaration } from '../schema/declaration.ts';
+import { crossKeyRules, declarationSchema, DECLARATION_KEYS, type Declaration } from '../schema/declaration.ts';
 import { describeIssue } from '../schema/issues.ts';
 import { cellProblem, tableReader, indicatorHeaderName, type Table, type TableOptions, type TableReader } from '../schema/table.ts';
 import { optionalQuantity } from '../schema/cells.ts';
@@ -126,7 +126,10 @@ function parseDeclaration(json: JsonFile): { declaration?: Declaration; problems
   const problems: Problem[] = [...unknownKeys(json)];
   const result = declarationSchema.safeParse(json.value);
   if (result.success) return { declaration: result.data, problems };
-  for (const issue of result.error.issues) {
+  // The rules between keys too, where the schema's own issues left them unchecked.
+  const located = new Set(result.error.issues.map((issue) => issue.path.join('.')));
+  const rules = crossKeyRules(json.value).filter((rule) => !located.has(rule.path.join('.')));
+  for (const issue of [...result.error.issues, ...(rules as unknown as typeof result.error.issues)]) {
     const described = describeIssue(issue);
     const where = locate(json, issue.path as (string | number)[]);
     const value = where.node === undefined ? undefined : typeof where.node.value === 'string' ? where.node.value : json.text.slice(where.node.offset, where.node.offset + where.node.length);

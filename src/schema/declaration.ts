@@ -1,7 +1,8 @@
 import { z } from 'zod';
 import { findIndicator, INDICATOR_CODES } from '../reference/indicators.ts';
 import { nearestName } from '../reference/nearest.ts';
-import { isIsoDate, report, reportAt } from './cells.ts';
+import type { ProblemCode } from '../problems.ts';
+import { isIsoDate, report } from './cells.ts';
 
 export const METHODS = ['cutoff', 'cff', 'eol-recycling', 'fifty-fifty'] as const;
 /** The modules a declaration may add to the mandatory A1–A3, C1–C4 and D. */
@@ -138,18 +139,34 @@ export const declarationSchema = z
       .meta({ description: 'True when the data are invented (demo, training); every page then says the values are illustrative.' }),
   })
   .superRefine((declaration, ctx) => {
-    if (isIsoDate(declaration.issued) && isIsoDate(declaration.valid_until) && declaration.valid_until <= declaration.issued) {
-      reportAt(ctx, 'valid_until', 'DATE_ORDER', `${declaration.valid_until} is not after issued ${declaration.issued}`, 'a date after issued');
-    }
-    if (declaration.verification.status === 'verified') {
-      if (!declaration.verification.verifier?.trim()) {
-        ctx.addIssue({ code: 'custom', path: ['verification', 'verifier'], message: 'a verified declaration names its verifier', params: { problem: 'VERIFICATION_INCOMPLETE', expected: 'the verifier’s name' } });
-      }
-      if (!declaration.verification.date) {
-        ctx.addIssue({ code: 'custom', path: ['verification', 'date'], message: 'a verified declaration gives the date of verification', params: { problem: 'VERIFICATION_INCOMPLETE', expected: 'an ISO date, YYYY-MM-DD' } });
-      }
-    }
+    for (const rule of crossKeyRules(declaration)) ctx.addIssue(rule);
   });
+
+/**
+ * The rules between keys of declaration.json (dates in order, a verified declaration's
+ * verifier and date), as zod issues. They read the raw value defensively, so that they also
+ * run when other keys fail the schema (zod runs a refinement only on a valid object): every
+ * problem of the file comes in one run, not in rounds.
+ */
+export function crossKeyRules(value: unknown): Array<{ code: 'custom'; path: string[]; message: string; params: { problem: ProblemCode; expected: string } }> {
+  const record = (v: unknown): Record<string, unknown> => (v !== null && typeof v === 'object' && !Array.isArray(v) ? (v as Record<string, unknown>) : {});
+  const declaration = record(value);
+  const rules: ReturnType<typeof crossKeyRules> = [];
+  const { issued, valid_until: validUntil } = declaration;
+  if (typeof issued === 'string' && typeof validUntil === 'string' && isIsoDate(issued) && isIsoDate(validUntil) && validUntil <= issued) {
+    rules.push({ code: 'custom', path: ['valid_until'], message: `${validUntil} is not after issued ${issued}`, params: { problem: 'DATE_ORDER', expected: 'a date after issued' } });
+  }
+  const verification = record(declaration.verification);
+  if (verification.status === 'verified') {
+    if (typeof verification.verifier !== 'string' || !verification.verifier.trim()) {
+      rules.push({ code: 'custom', path: ['verification', 'verifier'], message: 'a verified declaration names its verifier', params: { problem: 'VERIFICATION_INCOMPLETE', expected: 'the verifier’s name' } });
+    }
+    if (!verification.date) {
+      rules.push({ code: 'custom', path: ['verification', 'date'], message: 'a verified declaration gives the date of verification', params: { problem: 'VERIFICATION_INCOMPLETE', expected: 'an ISO date, YYYY-MM-DD' } });
+    }
+  }
+  return rules;
+}
 
 export type Declaration = z.output<typeof declarationSchema>;
 

@@ -36,3 +36,12 @@ describe('factors a use needs', () => {
     expect(problems).toContainEqual(expect.objectContaining({ code: 'FACTOR_REQUIRED', file: 'materials.csv', line: 2, column: 'eol_recycling' }));
   });
 });
+
+describe('declaration.json problems in one run', () => {
+  it('reports the rules between keys with the schema errors, not after them, and the nearest key for an unknown one', async () => {
+    const { problems } = await loadProject(await polymer({ issued: '2026-13-02', verification: { status: 'verified' }, gwp_sett: 'x' }));
+    const codes = problems.filter((p) => p.file === 'declaration.json').map((p) => [p.code, p.column]);
+    expect(codes).toEqual(expect.arrayContaining([['BAD_DATE', 'issued'], ['VERIFICATION_INCOMPLETE', 'verification.verifier'], ['VERIFICATION_INCOMPLETE', 'verification.date'], ['KEY_UNKNOWN', 'gwp_sett']]));
+    expect(problems.find((p) => p.code === 'KEY_UNKNOWN')?.hint).toBe('did you mean "gwp_set"?');
+  });
+});
