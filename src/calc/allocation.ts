@@ -1,4 +1,5 @@
 import type { AllocatedRow } from '../model/sites.ts';
+import { formatCounted } from '../format.ts';
 import type { Product } from '../model/types.ts';
 import type { Row } from '../schema/table.ts';
 import { cellTerm, figureTerm, type FigureGraph, type Term } from '../trace/graph.ts';
@@ -82,7 +83,7 @@ function shareFigure(ctx: CalcContext, graph: FigureGraph, a: AllocatedRow): str
   const members = a.group.production.filter((p) => a.key.values.has(p.value.product_id));
   graph.add({
     kind: 'scalar', id: totalId, value: a.key.total, unit,
-    formula: `Σ ${formula} over the ${members.length} products of the period`,
+    formula: `Σ ${formula} over the ${formatCounted(members.length, 'product', 'products')} of the period`,
     description: `The allocation key of every product made at ${a.group.site} in ${a.group.period}.`,
     terms: members.flatMap((p) => keyTerms(p, `[${p.value.product_id}]`)),
   });

@@ -1,4 +1,5 @@
 import path from 'node:path';
+import { formatCounted } from '../format.ts';
 import { loadProject } from '../model/project.ts';
 import { hasErrors } from '../problems.ts';
 import { findBrowser } from '../render/browser.ts';
@@ -53,6 +54,6 @@ export async function runMerge(options: { dirs: string[]; out: string }, io: Io)
     await writeManifest(staging, inputs, new Map(outcomes.flatMap((o) => o.hashes).map((h): [string, HashedFile] => [h.file, h])));
     count = outcomes.length;
   });
-  io.out(`merged ${records.length} shards (${count} products) into ${options.out}`);
+  io.out(`merged ${formatCounted(records.length, 'shard', 'shards')} (${formatCounted(count, 'product', 'products')}) into ${options.out}`);
   return EXIT.ok;
 }

@@ -1,7 +1,7 @@
 import { ChangedCells, type CellChange } from './attribute.ts';
 import { compareProduct, relativeChange, reviewOrder, type FigureChange } from './compare.ts';
 import type { ResultsSet } from './results-set.ts';
-import { formatSignificant, NOT_AVAILABLE } from '../format.ts';
+import { formatCounted, formatSignificant, NOT_AVAILABLE } from '../format.ts';
 
 /**
  * The change report between two builds: every figure that moved beyond the threshold, with
@@ -123,7 +123,7 @@ export function changeReportMarkdown(report: ChangeReport): string {
   const lines: string[] = ['### loopsheet change report', ''];
   const { products } = report;
   lines.push(
-    `${products.compared} products compared; ${products.changed.length} with figures that moved more than ${share(report.threshold)}; ${products.added.length} added; ${products.removed.length} removed.`,
+    `${formatCounted(products.compared, 'product', 'products')} compared; ${products.changed.length} with figures that moved more than ${share(report.threshold)}; ${products.added.length} added; ${products.removed.length} removed.`,
   );
   if (report.changed_files) lines.push(report.changed_files.length > 0 ? `Input files changed: ${report.changed_files.map(code).join(', ')}.` : 'No input file changed.');
   if (report.tool.old !== report.tool.new) lines.push(`Tool version: ${report.tool.old ?? 'unknown'} → ${report.tool.new ?? 'unknown'}.`);

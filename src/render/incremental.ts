@@ -4,7 +4,7 @@ import type { Project } from '../model/types.ts';
 import { TOOL_VERSION } from '../reference/tool.ts';
 import type { CatalogueEntry } from '../report/site-view.ts';
 import { physicalLines } from '../report/written.ts';
-import type { InputKey } from './input-key.ts';
+import { contextChanges, type InputKey } from './input-key.ts';
 import { inputTables } from '../model/reach.ts';
 
 export { CACHE_FILE };
@@ -99,7 +99,7 @@ export function changeReasons(project: Project, previous: PreviousBuild, product
   const cached = previous.products.get(productId);
   if (!cached) return ['not in the previous build'];
   if (!previous.summaries.has(productId)) return ['no results in the previous build'];
-  if (previous.context !== context) return ['declaration.json or the page settings changed'];
+  if (previous.context !== context) return contextChanges(previous.context, context);
   if (cached.key === input.key) return ['its files were missing from the previous build'];
   const reasons: string[] = [];
   const tables = inputTables(project);

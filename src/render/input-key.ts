@@ -21,11 +21,39 @@ export interface InputKey {
   rows: Map<string, number[]>;
 }
 
-/** The project-wide part of every product's pages, hashed once per build. */
+/**
+ * The parts of the project-wide context of every product's pages, each hashed, in the words
+ * `build --changed` says when one of them changed (`contextChanges`).
+ */
+export const CONTEXT_PARTS = {
+  tool: 'the tool version',
+  settings: 'declaration.json',
+  pdfs: 'the PDF setting (with or without PDFs)',
+  texts: 'the texts every page carries (cautions, methodology, indicator names)',
+} as const;
+
+/** The project-wide part of every product's pages, hashed once per build: a JSON object of each part's hash. */
 export function pageContextKey(project: Project, pdfs: boolean): string {
   const view = siteContext(project, pdfs);
-  const shown = { tool: view.tool, resultsFormat: RESULTS_FORMAT, declaration: view.declaration, settings: project.declaration, cautions: view.cautions, processCaution: view.processCaution, pdfs: view.pdfs, methodology: view.methodology, indicators: view.indicators };
-  return createHash('sha256').update(JSON.stringify(shown)).digest('hex');
+  const parts: Record<keyof typeof CONTEXT_PARTS, unknown> = {
+    tool: { tool: view.tool, resultsFormat: RESULTS_FORMAT },
+    settings: { declaration: view.declaration, settings: project.declaration },
+    pdfs: view.pdfs,
+    texts: { cautions: view.cautions, processCaution: view.processCaution, methodology: view.methodology, indicators: view.indicators },
+  };
+  return JSON.stringify(Object.fromEntries(Object.entries(parts).map(([part, value]) => [part, createHash('sha256').update(JSON.stringify(value)).digest('hex').slice(0, 16)])));
+}
+
+/** What differs between two page contexts, in words; the whole context when an old one cannot be read part by part. */
+export function contextChanges(before: string, now: string): string[] {
+  try {
+    const [a, b] = [JSON.parse(before) as Record<string, string>, JSON.parse(now) as Record<string, string>];
+    const changed = (Object.keys(CONTEXT_PARTS) as Array<keyof typeof CONTEXT_PARTS>).filter((part) => a[part] !== b[part]).map((part) => `${CONTEXT_PARTS[part]} changed`);
+    if (changed.length > 0) return changed;
+  } catch {
+    // A cache of an earlier format: its context was one hash.
+  }
+  return ['declaration.json or the page settings changed'];
 }
 
 /** Where each record of a table ends (records may span lines), built once per table. */

@@ -288,8 +288,8 @@ function uncertaintyView(u: UncertaintyJson, sci: (v: number | null | undefined)
     seed: u.seed,
     varied:
       variedCount === 0
-        ? `No input behind these results has a gsd column, so nothing varied: the ranges equal the result (${u.fixed} inputs fixed).`
-        : `${count(variedCount, 'input', 'inputs')} varied — ${count(u.varied.factors.length, 'factor row', 'factor rows')}${u.varied.factors.length ? ` (${u.varied.factors.join(', ')})` : ''}, ${count(u.varied.bom.length, 'BOM mass', 'BOM masses')}${u.varied.bom.length ? ` (bom.csv line${u.varied.bom.length === 1 ? '' : 's'} ${u.varied.bom.join(', ')})` : ''}, ${count(u.varied.activities.length, 'activity amount', 'activity amounts')}${u.varied.activities.length ? ` (activities.csv line${u.varied.activities.length === 1 ? '' : 's'} ${u.varied.activities.join(', ')})` : ''}; ${u.fixed} inputs without a gsd stayed fixed.`,
+        ? `No input behind these results has a gsd column, so nothing varied: the ranges equal the result (${count(u.fixed, 'input', 'inputs')} fixed).`
+        : `${count(variedCount, 'input', 'inputs')} varied — ${count(u.varied.factors.length, 'factor row', 'factor rows')}${u.varied.factors.length ? ` (${u.varied.factors.join(', ')})` : ''}, ${count(u.varied.bom.length, 'BOM mass', 'BOM masses')}${u.varied.bom.length ? ` (bom.csv line${u.varied.bom.length === 1 ? '' : 's'} ${u.varied.bom.join(', ')})` : ''}, ${count(u.varied.activities.length, 'activity amount', 'activity amounts')}${u.varied.activities.length ? ` (activities.csv line${u.varied.activities.length === 1 ? '' : 's'} ${u.varied.activities.join(', ')})` : ''}; ${count(u.fixed, 'input', 'inputs')} without a gsd stayed fixed.`,
     rows: u.figures.map((f) => ({ figure: f.module === 'total' ? `${f.indicator} A1–C4 total (D not added)` : `${f.indicator} ${f.module}`, deterministic: sci(f.deterministic), median: sci(f.median), low: sci(f.p2_5), high: sci(f.p97_5), mean: sci(f.mean) })),
   };
 }

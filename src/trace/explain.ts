@@ -1,4 +1,4 @@
-import { formatSignificant } from '../format.ts';
+import { formatCounted, formatSignificant } from '../format.ts';
 import { findIndicator } from '../reference/indicators.ts';
 import type { FigureGraph, Term } from './graph.ts';
 import { figureId, parseFigureId } from './ids.ts';
@@ -55,7 +55,7 @@ export function explainFigure(graph: FigureGraph, figure: ResolvedFigure, maxDep
     const inner = prefix.replace(/├─ $/, '│  ').replace(/└─ $/, '   ');
     lines.push(`${inner}   ${d.formula}   — ${d.description}`);
     if (depth >= maxDepth) {
-      if (d.terms.length) lines.push(`${inner}   … ${d.terms.length} terms (raise --depth to see them)`);
+      if (d.terms.length) lines.push(`${inner}   … ${formatCounted(d.terms.length, 'term', 'terms')} (raise --depth to see them)`);
       return;
     }
     d.terms.forEach((term, i) => {

@@ -55,7 +55,7 @@ const cases: Case[] = [
   { code: 'BAD_DATE', plant: (d) => editFile(at(d, 'declaration.json'), (t) => t.replace('"2026-03-02"', '"2026-02-30"')), expected: { file: 'declaration.json', line: 10, column: 'issued' } },
   { code: 'BAD_UNIT', plant: (d) => editLine(at(d, 'activities.csv'), 3, ',kWh,', ',kwhh,'), expected: { file: 'activities.csv', line: 3, column: 'unit', hint: 'did you mean "kWh"?' } },
   { code: 'UNIT_MISMATCH', plant: (d) => editLine(at(d, 'activities.csv'), 4, ',MJ,', ',kg,'), expected: { file: 'activities.csv', line: 4, column: 'unit', value: 'kg' } },
-  { code: 'DUPLICATE_ID', plant: (d) => editLine(at(d, 'materials.csv'), 5, 'tin,Tin', 'zinc,Tin'), expected: { file: 'materials.csv', line: 7, column: 'material', hint: 'first defined on line 5' } },
+  { code: 'DUPLICATE_ID', plant: (d) => editLine(at(d, 'materials.csv'), 5, 'tin,Tin', 'zinc,Tin'), expected: { file: 'materials.csv', line: 7, column: 'material', hint: 'line 5 has it already: change one, or delete the row that repeats it' } },
   { code: 'UNKNOWN_REFERENCE', plant: (d) => editLine(at(d, 'bom.csv'), 3, ',al-6060,', ',al-6061,'), expected: { file: 'bom.csv', line: 3, column: 'material', value: 'al-6061', hint: 'did you mean "al-6060"?' } },
   { code: 'RECYCLED_CONTENT_SUM', plant: (d) => editLine(at(d, 'bom.csv'), 3, '30%,45%', '60%,45%'), expected: { file: 'bom.csv', line: 3, column: 'recycled_post' } },
   { code: 'EOL_SHARES_SUM', plant: (d) => editLine(at(d, 'eol.csv'), 3, '96%,0,0,4%', '96%,0,0,5%'), expected: { file: 'eol.csv', line: 3, column: 'landfill' } },

@@ -3,7 +3,7 @@ import { CalcContext } from '../../src/calc/context.ts';
 import { calculateProduct } from '../../src/calc/product.ts';
 import { rowsByProduct } from '../../src/model/by-product.ts';
 import { loadProject } from '../../src/model/project.ts';
-import { productInputKey, readsOutside } from '../../src/render/input-key.ts';
+import { contextChanges, pageContextKey, productInputKey, readsOutside } from '../../src/render/input-key.ts';
 import { productReach, reachedRows } from '../../src/model/reach.ts';
 import { mapLimit } from '../../src/render/each-limit.ts';
 import { DEMO } from '../helpers.ts';
@@ -73,5 +73,17 @@ describe('mapLimit', () => {
     expect(results).toEqual(delays.map((_, index) => index * 10));
     expect(most).toBe(3);
     expect(await mapLimit([], 4, async () => 1)).toEqual([]);
+  });
+});
+
+describe('what changed in the pages’ context', () => {
+  it('names the part that changed: only the PDF setting, or declaration.json, or an old cache it cannot read part by part', async () => {
+    const { project } = await loadProject(DEMO);
+    const withPdfs = pageContextKey(project!, true);
+    const withoutPdfs = pageContextKey(project!, false);
+    expect(contextChanges(withPdfs, withoutPdfs)).toEqual(['the PDF setting (with or without PDFs) changed']);
+    const edited = { ...project!, declaration: { ...project!.declaration, pcr: 'Another PCR' } };
+    expect(contextChanges(withPdfs, pageContextKey(edited, true))[0]).toBe('declaration.json changed');
+    expect(contextChanges('0f3a', withPdfs)).toEqual(['declaration.json or the page settings changed']);
   });
 });

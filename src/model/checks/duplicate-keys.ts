@@ -24,7 +24,7 @@ export function duplicateKeys(ctx: CheckContext): void {
         seen.set(key, row.line);
         continue;
       }
-      ctx.at(table, row.line, row.raw, column, repeat, 'DUPLICATE_ID', `repeats the ${what} of line ${first}`, { expected: `a ${what} not used before`, hint: `first defined on line ${first}` });
+      ctx.at(table, row.line, row.raw, column, repeat, 'DUPLICATE_ID', `repeats the ${what} of line ${first}`, { expected: `a ${what} not used before`, hint: `line ${first} has it already: change one, or delete the row that repeats it` });
     }
   }
 }

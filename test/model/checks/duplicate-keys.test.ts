@@ -32,12 +32,12 @@ describe('each file’s key rule, declared with its schema', () => {
 
   it('refuses a product defined twice, on the second line, pointing at the first', async () => {
     const { problems } = await demoWith('products.csv', repeatLine(3));
-    expect(problems).toContainEqual(expect.objectContaining({ severity: 'error', code: 'DUPLICATE_ID', file: 'products.csv', line: 4, column: 'product_id', hint: 'first defined on line 3' }));
+    expect(problems).toContainEqual(expect.objectContaining({ severity: 'error', code: 'DUPLICATE_ID', file: 'products.csv', line: 4, column: 'product_id', hint: 'line 3 has it already: change one, or delete the row that repeats it' }));
   });
 
   it('warns of a transport leg given twice (legal, but usually a double count), an empty line_id being part of the key', async () => {
     const { problems } = await demoWith('transport.csv', repeatLine(3));
-    expect(problems).toContainEqual(expect.objectContaining({ severity: 'warning', code: 'DUPLICATE_ID', file: 'transport.csv', line: 4, column: 'leg', hint: 'first defined on line 3' }));
+    expect(problems).toContainEqual(expect.objectContaining({ severity: 'warning', code: 'DUPLICATE_ID', file: 'transport.csv', line: 4, column: 'leg', hint: 'line 3 has it already: change one, or delete the row that repeats it' }));
   });
 
   it('leaves a row whose required key cell is empty to that cell’s own problem', async () => {
