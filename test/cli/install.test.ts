@@ -42,7 +42,7 @@ describe('the packed tarball', () => {
     // A fresh project has empty files: check runs and reports them (exit 1), nothing crashes.
     const check = (await npx(['check', '--data', 'mine'])) as { code?: number; stderr: string };
     expect(check.code).toBe(1);
-    expect(check.stderr).toMatch(/products\.csv has a header but no rows \[NO_ROWS\]/);
+    expect(check.stderr).toMatch(/mine\/products\.csv:3: products\.csv has a header but no rows; expected at least one row \[NO_ROWS\]/);
     await cp(DEMO, path.join(repo, 'demo'), { recursive: true });
     const build = await npx(['build', '--data', 'demo', '--out', 'site', '--no-pdf']);
     expect(build.stdout).toMatch(/^built 5 products into site/);

@@ -108,7 +108,7 @@ describe('declaration.json report settings', () => {
     const result = await runCli(['build', '--data', data, '--out', out, '--no-pdf']);
     expect(result.code, result.stderr).toBe(0);
     // SM comes from mass flows, not factors: the comparison leaves it out, with a warning at its place in the file.
-    expect(result.stderr).toMatch(/declaration\.json:\d+: report\.compare_indicators "SM": .*\[INDICATOR_NO_DATA\]/);
+    expect(result.stderr).toMatch(/declaration\.json:\d+:\d+: report\.compare_indicators "SM": .*\[INDICATOR_NO_DATA\]/);
     const page = await readFile(path.join(out, 'KV-EXT-6060', 'index.html'), 'utf8');
     const results = JSON.parse(await readFile(path.join(out, 'KV-EXT-6060', 'results.json'), 'utf8'));
     // Four significant figures: toExponential(3) (ECMA-262 Number.prototype.toExponential).
