@@ -5,7 +5,7 @@ import { buildSite } from '../render/build-site.ts';
 import { keptHashes, readPreviousBuild } from '../render/incremental.ts';
 import { checkOutputDir, recoverInterrupted, withStagedOutput } from '../render/output.ts';
 import { declarationPdfJobs, familyPdfJobs, printPdfs } from '../render/pdf.ts';
-import { shardOf, writeShardRecord, type ShardSpec } from '../render/shards.ts';
+import { shardAssignment, writeShardRecord, type ShardSpec } from '../render/shards.ts';
 import { copyInputs, hashInputs, writeManifest, type HashedFile } from '../render/verification.ts';
 import { EXIT, UsageError, type Io } from './io.ts';
 import { createProgress } from './progress.ts';
@@ -51,6 +51,7 @@ export async function runBuild(options: BuildOptions, io: Io): Promise<number> {
   const previous = options.changed ? await readPreviousBuild(options.out) : undefined;
   if (options.changed && !previous) io.err(`build --changed: no earlier build of this tool version in ${options.out}; building every product`);
   const shard = options.shard;
+  const assignment = shard ? shardAssignment(project.products.rows.map((row) => row.value.product_id), project.families, shard.n) : undefined;
   let missingPdfs: string[] = [];
   let summary = '';
   await withStagedOutput(options.out, async (staging) => {
@@ -60,7 +61,7 @@ export async function runBuild(options: BuildOptions, io: Io): Promise<number> {
     const built = await buildSite(project, problems, staging, {
       inputs,
       pdfs: browser !== undefined,
-      ...(shard ? { select: (id: string) => shardOf(id, shard.n) === shard.k, catalogue: false } : {}),
+      ...(assignment ? { select: (id: string) => assignment.get(id) === shard!.k, catalogue: false } : {}),
       ...(previous ? { previous } : {}),
       onProgress: (done, total) => progress.products(done, total),
     });

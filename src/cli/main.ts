@@ -42,8 +42,9 @@ give the same bytes.
   --changed    rebuild only the products whose inputs (their rows and every row they
                reach) changed since the build in --out; keep the others' files, refresh
                the catalogue and the manifest, and print what was rebuilt and why
-  --shard K/N  build the K-th of N shares of the products (by a stable hash of
-               product_id), for a CI matrix; join the shards with loopsheet merge
+  --shard K/N  build the K-th of N shares of the products (a family's members in one
+               share, the shares balanced by product count), for a CI matrix; join
+               the shards with loopsheet merge
   --uncertainty  run the Monte Carlo uncertainty analysis (inputs with a gsd column vary;
                iterations and seed from declaration.json uncertainty, else 1 000 and 1)`,
     options: { data: { type: 'string' }, out: { type: 'string' }, 'no-pdf': { type: 'boolean' }, pdf: { type: 'boolean' }, changed: { type: 'boolean' }, shard: { type: 'string' }, uncertainty: { type: 'boolean' } },

@@ -1,4 +1,3 @@
-import { createHash } from 'node:crypto';
 import { readFile, writeFile } from 'node:fs/promises';
 import path from 'node:path';
 import { UsageError } from '../problems.ts';
@@ -8,9 +7,9 @@ import type { HashedFile } from './verification.ts';
 
 /**
  * A catalogue split over N CI jobs (`build --shard K/N`): each product belongs to one shard
- * by a stable hash of its product_id, so the split does not depend on the order of rows,
- * the machine or the run. A shard build writes its products' folders, the input copies and
- * this record; `loopsheet merge` joins the shards into the site a single build writes.
+ * (`shardAssignment`: families kept together, the rest balanced by product count). A shard
+ * build writes its products' folders, the input copies and this record; `loopsheet merge`
+ * joins the shards into the site a single build writes.
  */
 import { SHARD_RECORD } from '../files.ts';
 
@@ -28,10 +27,43 @@ export function parseShard(text: string): ShardSpec {
   return { k, n };
 }
 
-/** The shard (1-based) a product belongs to among n: the first 48 bits of SHA-256 of its id, modulo n. */
-export function shardOf(productId: string, n: number): number {
-  const head = createHash('sha256').update(productId, 'utf8').digest().readUIntBE(0, 6);
-  return (head % n) + 1;
+/**
+ * The shard (1-based) of every product among n. A family's members go together (a product in
+ * two families joins them), and the shards are balanced by product count: the groups, largest
+ * first (ties: by their smallest product id), each go to the shard with the fewest products so
+ * far (ties: the lowest K). The split depends only on the product ids and the families, not on
+ * the order of rows, the machine or the run, so every job of a CI matrix computes the same one;
+ * the largest shard has at most the largest group more products than the smallest.
+ */
+export function shardAssignment(productIds: readonly string[], families: ReadonlyArray<{ members: ReadonlyArray<{ productId: string }> }>, n: number): Map<string, number> {
+  // Union-find over the families' members.
+  const parent = new Map(productIds.map((id) => [id, id]));
+  const root = (id: string): string => {
+    let at = id;
+    while (parent.get(at) !== at) at = parent.get(at)!;
+    parent.set(id, at);
+    return at;
+  };
+  for (const family of families) {
+    const members = family.members.map((member) => member.productId).filter((id) => parent.has(id));
+    for (const member of members.slice(1)) parent.set(root(member), root(members[0]!));
+  }
+  const groups = new Map<string, string[]>();
+  for (const id of productIds) {
+    const key = root(id);
+    if (!groups.has(key)) groups.set(key, []);
+    groups.get(key)!.push(id);
+  }
+  const byCode = (a: string, b: string) => (a < b ? -1 : a > b ? 1 : 0);
+  const ordered = [...groups.values()].map((ids) => ids.sort(byCode)).sort((a, b) => b.length - a.length || byCode(a[0]!, b[0]!));
+  const counts = new Array<number>(n).fill(0);
+  const shardOfProduct = new Map<string, number>();
+  for (const ids of ordered) {
+    const k = counts.indexOf(Math.min(...counts));
+    counts[k]! += ids.length;
+    for (const id of ids) shardOfProduct.set(id, k + 1);
+  }
+  return shardOfProduct;
 }
 
 export interface ShardRecord {

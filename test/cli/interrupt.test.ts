@@ -1,4 +1,4 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import { spawn, type ChildProcess } from 'node:child_process';
 import { readdirSync, readFileSync } from 'node:fs';
 import { readdir } from 'node:fs/promises';
@@ -43,9 +43,33 @@ async function buildUntilPdf(): Promise<Running> {
     if (Date.now() - started > 40_000) throw new Error(`the build never reached its PDFs:\n${stderr}`);
     await new Promise((resolve) => setTimeout(resolve, 50));
   }
-  // Let the browser start its helper processes.
-  await new Promise((resolve) => setTimeout(resolve, 400));
+  // Wait until the browser has started a renderer (under load that takes a while): then every kind of process is running.
+  while (!descendants(child.pid!).some((pid) => commandLine(pid).includes('--type=renderer'))) {
+    if (Date.now() - started > 40_000) throw new Error(`the browser never started a renderer:\n${stderr}`);
+    await new Promise((resolve) => setTimeout(resolve, 50));
+  }
+  running.push(child);
   return { child, stderr: () => stderr, exit };
+}
+
+/** Builds still running when a test ends (it failed half-way) are killed, so that they cannot swap in a new output under the next test. */
+const running: ChildProcess[] = [];
+afterEach(() => {
+  for (const child of running.splice(0)) {
+    try {
+      process.kill(-child.pid!, 'SIGKILL');
+    } catch {
+      // Already gone.
+    }
+  }
+});
+
+function commandLine(pid: number): string {
+  try {
+    return readFileSync(`/proc/${pid}/cmdline`, 'utf8').replaceAll('\0', ' ');
+  } catch {
+    return '';
+  }
 }
 
 /** Every process descended from `pid`, read from /proc (Linux). */

@@ -1,22 +1,32 @@
 import { afterAll, describe, expect, it } from 'vitest';
-import { createHash } from 'node:crypto';
 import { readdir } from 'node:fs/promises';
 import path from 'node:path';
-import { parseShard, shardOf } from '../../src/render/shards.ts';
+import { parseShard, shardAssignment } from '../../src/render/shards.ts';
 import { DEMO, hashTree, removeDir, runCli, tempDir } from '../helpers.ts';
 
 const dirs: string[] = [];
 afterAll(async () => Promise.all(dirs.map(removeDir)));
 
 describe('--shard K/N and merge', () => {
-  it('puts each product in one shard by a stable hash of its id', () => {
-    // Independent of the implementation: SHA-256 (node:crypto) of the id, first six bytes big-endian, modulo N, plus one.
-    const expected = (id: string, n: number) => (Number(BigInt(`0x${createHash('sha256').update(id).digest('hex').slice(0, 12)}`) % BigInt(n)) + 1);
-    for (const id of ['KV-EXT-6060', 'KV-CU-BB10', 'KV-BR-40', 'P000123', 'Ünïcode-id']) for (const n of [1, 2, 3, 7]) expect(shardOf(id, n)).toBe(expected(id, n));
-    const counts = [0, 0, 0, 0];
-    for (let p = 0; p < 4000; p++) counts[shardOf(`P${String(p).padStart(6, '0')}`, 4) - 1]! += 1;
-    // A uniform hash spreads 4 000 ids over 4 shards within a few standard deviations (√(4000·¼·¾) ≈ 27) of 1 000.
-    for (const count of counts) expect(Math.abs(count - 1000)).toBeLessThan(120);
+  it('keeps a family in one shard and balances the rest by product count, whatever the order of rows', () => {
+    const ids = Array.from({ length: 103 }, (_, p) => `P${String(p).padStart(4, '0')}`);
+    // Two families of 20 and 7 joined by a product in both (27 together), and a family of 5.
+    const family = (from: number, count: number) => ({ members: ids.slice(from, from + count).map((productId) => ({ productId })) });
+    const families = [family(0, 20), family(20, 7), { members: [{ productId: 'P0019' }, { productId: 'P0020' }] }, family(40, 5)];
+    for (const order of [ids, [...ids].reverse()]) {
+      const split = shardAssignment(order, families, 4);
+      expect(split.size).toBe(103);
+      // Together: the joined group (P0000–P0026) and the family of 5.
+      expect(new Set(ids.slice(0, 27).map((id) => split.get(id))).size).toBe(1);
+      expect(new Set(ids.slice(40, 45).map((id) => split.get(id))).size).toBe(1);
+      const counts = [1, 2, 3, 4].map((k) => [...split.values()].filter((s) => s === k).length);
+      // Largest group first, each to the emptiest shard (Graham's LPT rule): 27 | 5 | 0 | 0, then the 71 singles
+      // fill the emptiest: 27 | 25 | 25 | 26 (worked by hand). No shard exceeds the smallest by more than the largest group.
+      expect(counts.sort((a, b) => a - b)).toEqual([25, 25, 26, 27]);
+      expect(shardAssignment(order, families, 4)).toEqual(split);
+    }
+    // The same split from either order.
+    expect([...shardAssignment([...ids].reverse(), families, 4)].sort()).toEqual([...shardAssignment(ids, families, 4)].sort());
     expect(parseShard('2/4')).toEqual({ k: 2, n: 4 });
     for (const bad of ['0/3', '4/3', '1/0', 'two/three', '1']) expect(() => parseShard(bad)).toThrow(/expected K\/N/);
   });
