@@ -17,7 +17,18 @@ export function formatInput(value: number): string {
     if (text.charCodeAt(end - 1) === 46) end--;
     return text.slice(0, end);
   }
-  return formatScientific(value, 6).replace(/\.?0+e/, 'e');
+  return formatScientific(value, 6).replace(/\.?0+E/, 'E');
+}
+
+/**
+ * An input amount on a page: as `formatInput`, with the thousands of a number of five or more
+ * whole digits grouped as counts are (1200000 → "1,200,000"), so a large output or meter reading
+ * reads at a glance. Pages only: files (results.csv, results.json) keep plain numbers.
+ */
+export function formatAmount(value: number): string {
+  const text = formatInput(value);
+  const match = /^(-?)(\d{5,})(\.\d+)?$/.exec(text);
+  return match ? `${match[1]}${formatCount(Number(match[2]))}${match[3] ?? ''}` : text;
 }
 
 /**
@@ -43,14 +54,15 @@ export const formatCount = (value: number): string => String(value).replace(/\B(
 /** A count with its noun: `1 product`, `7 products` (the count as formatCount writes it). */
 export const formatCounted = (value: number, one: string, many: string): string => `${formatCount(value)} ${value === 1 ? one : many}`;
 
-/** 3 significant figures by default: `1.23e+1` style, as declarations print them. */
+/** 3 significant figures by default, in the notation declarations print: `1.23E+01`, `-4.50E-03`. */
 export function formatScientific(value: number, significant = 3): string {
-  return value.toExponential(significant - 1);
+  // toExponential writes 1.35e+0; declarations write 1.35E+00 (at least two exponent digits).
+  return value.toExponential(significant - 1).replace(/e([+-])(\d)$/, 'e$10$2').replace('e', 'E');
 }
 
-/** A share as a percentage with up to three decimals: 0.45 → "45 %". */
+/** A share as a percentage at one precision everywhere, one decimal: 0.45 → "45.0 %", 0.62998 → "63.0 %". */
 export function formatShare(value: number): string {
-  return `${Number((value * 100).toFixed(3))} %`;
+  return `${(value * 100).toFixed(1)} %`;
 }
 
 /**

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { formatCount, formatFigure, formatFixed, formatInput, formatSignificant, NOT_AVAILABLE, showControls } from '../src/format.ts';
+import { formatAmount, formatCount, formatFigure, formatFixed, formatInput, formatScientific, formatShare, formatSignificant, NOT_AVAILABLE, showControls } from '../src/format.ts';
 
 /**
  * The one number formatter against ECMA-262 itself: six significant figures are what
@@ -26,8 +26,8 @@ describe('formatInput', () => {
     expect(formatInput(1234567)).toBe('1234570');
     expect(formatInput(-0.0600)).toBe('-0.06');
     expect(formatInput(0)).toBe('0');
-    expect(formatInput(1.95212e-4)).toBe('1.95212e-4');
-    expect(formatInput(3.2e9)).toBe('3.2e+9');
+    expect(formatInput(1.95212e-4)).toBe('1.95212E-04');
+    expect(formatInput(3.2e9)).toBe('3.2E+09');
     expect(formatFigure(Number.NaN)).toBe('n/a');
   });
 
@@ -60,5 +60,27 @@ describe('showControls', () => {
     // Escaped text inside a JSON string still parses to the original.
     const json = JSON.stringify({ column: 'x\u009by' });
     expect(JSON.parse(showControls(json))).toEqual({ column: 'x\u009by' });
+  });
+});
+
+describe('formatAmount and formatShare (pages)', () => {
+  it('groups the thousands of large amounts as counts are written, and prints shares at one decimal', () => {
+    expect(formatAmount(1200000)).toBe('1,200,000');
+    expect(formatAmount(412000.5)).toBe('412,001'); // six significant figures, as formatInput
+    expect(formatAmount(-25000)).toBe('-25,000');
+    expect(formatAmount(9999)).toBe('9999');
+    expect(formatAmount(0.83)).toBe('0.83');
+    expect(formatAmount(1.5e8)).toBe('1.5E+08');
+    expect([0.45, 0.62998, 1, 0].map(formatShare)).toEqual(['45.0 %', '63.0 %', '100.0 %', '0.0 %']);
+  });
+
+  it('writes results in the notation declarations print: mantissa, E, sign, at least two exponent digits (from ECMA-262 toExponential)', () => {
+    fc.assert(
+      fc.property(fc.double({ noNaN: true, noDefaultInfinity: true }), fc.integer({ min: 2, max: 6 }), (value, digits) => {
+        const [mantissa, exponent] = value.toExponential(digits - 1).split('e');
+        expect(formatScientific(value, digits)).toBe(`${mantissa}E${exponent![0]}${exponent!.slice(1).padStart(2, '0')}`);
+      }),
+      { numRuns: 5000 },
+    );
   });
 });

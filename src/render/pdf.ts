@@ -148,6 +148,8 @@ async function printOne(page: Page, job: PdfJob, browser: Browser, root: string)
     });
     const pdf = await target.pdf({
       format: 'A4',
+      // The stylesheet's @page rules: A4 portrait, and landscape pages for wide tables (a family's results).
+      preferCSSPageSize: true,
       printBackground: true,
       displayHeaderFooter: true,
       headerTemplate: `<div style="font-size:7pt;width:100%;padding:0 12mm;color:#4a5663;display:flex;justify-content:space-between"><span>${escapeHtml(job.title)}</span><span>${escapeHtml(job.status)}</span></div>`,

@@ -8,7 +8,7 @@ import type { ResultMethod } from '../trace/ids.ts';
 
 /** The catalogue's headline: GWP-total of cut-off A1-A3. */
 const HEADLINE_FIGURE = resultFigureId('cutoff', HEADLINE_MODULE, HEADLINE_INDICATOR);
-import { formatFixed, formatInput, formatScientific, formatShare, NOT_AVAILABLE } from '../format.ts';
+import { formatAmount, formatFixed, formatScientific, formatShare, NOT_AVAILABLE } from '../format.ts';
 import { RESULTS_JSON, RESULTS_CSV } from '../files.ts';
 import { HEADLINE_INDICATOR, HEADLINE_MODULE } from '../reference/headline.ts';
 
@@ -16,6 +16,9 @@ import { HEADLINE_INDICATOR, HEADLINE_MODULE } from '../reference/headline.ts';
 export interface FamilyCell {
   text: string;
   range: string;
+  /** The lowest and highest member, for a table that sets them on two lines (narrow columns fit A1 to D on a page). */
+  low: string;
+  high: string;
   href: string;
   moduleD?: boolean;
 }
@@ -71,13 +74,14 @@ export function familyView(project: Project, results: FamilyResults, names: Read
       mean: sci(stat.mean),
       terms: results.members.map((m) => ({
         product: m.product_id,
-        weight: formatInput(m.weight),
+        weight: formatAmount(m.weight),
         share: formatShare(m.share),
         value: sci(results.member_values[m.product_id]?.[method]?.[module]?.[code] ?? null),
         href: `../../${m.product_id}/${figureHref(id)}`,
       })),
     });
-    return { text: sci(stat.mean), range: range(stat, (v) => sci(v)), href: figureHref(id), ...(moduleD ? { moduleD } : {}) };
+    const [low, high] = stat.min === null ? ['', ''] : [sci(stat.min), sci(stat.max)];
+    return { text: sci(stat.mean), range: range(stat, (v) => sci(v)), low, high, href: figureHref(id), ...(moduleD ? { moduleD } : {}) };
   };
 
   const cutoff = results.methods.cutoff;
@@ -94,7 +98,7 @@ export function familyView(project: Project, results: FamilyResults, names: Read
   const rc = results.flows.recycled_content;
   const share = (s: FamilyStat) => ({ mean: s.mean === null ? NOT_AVAILABLE : formatShare(s.mean), range: range(s, formatShare) });
   const headlineStat = cutoff.modules[HEADLINE_MODULE]?.[HEADLINE_INDICATOR];
-  const headline = headlineStat ? { a1a3: { text: sci(headlineStat.mean), range: range(headlineStat, (v) => sci(v)), href: `${familyDir(results.family_id)}/${figureHref(HEADLINE_FIGURE)}` }, a1a3Value: String(headlineStat.mean ?? '') } : { a1a3: undefined, a1a3Value: '' };
+  const headline = headlineStat ? { a1a3: { text: sci(headlineStat.mean), range: range(headlineStat, (v) => sci(v)), low: headlineStat.min === null ? '' : sci(headlineStat.min), high: headlineStat.min === null ? '' : sci(headlineStat.max), href: `${familyDir(results.family_id)}/${figureHref(HEADLINE_FIGURE)}` }, a1a3Value: String(headlineStat.mean ?? '') } : { a1a3: undefined, a1a3Value: '' };
   return {
     id: results.family_id,
     name: results.name,
@@ -106,7 +110,7 @@ export function familyView(project: Project, results: FamilyResults, names: Read
       id: m.product_id,
       name: names.get(m.product_id) ?? m.product_id,
       url: `../../${m.product_id}/index.html`,
-      weight: formatInput(m.weight),
+      weight: formatAmount(m.weight),
       weightFrom: m.weight_from.map((cell) => `${cell.file}:${cell.line}`).join(', '),
       share: formatShare(m.share),
       gwp: sci(m.gwp_a1_a3),

@@ -1,5 +1,5 @@
 import type { Table } from '../schema/table.ts';
-import { formatInput, formatShare } from '../format.ts';
+import { formatAmount, formatShare } from '../format.ts';
 import { physicalLines } from './written.ts';
 
 /**
@@ -44,6 +44,6 @@ export function sourceOf(table: Table<unknown>, row: { line: number; lineEnd: nu
   };
 }
 
-export const num = (value: number): Cell => ({ text: formatInput(value), numeric: true });
+export const num = (value: number): Cell => ({ text: formatAmount(value), numeric: true });
 export const pct = (value: number): Cell => ({ text: formatShare(value), numeric: true });
 export const txt = (value: string | undefined): Cell => ({ text: value ?? '' });
