@@ -152,8 +152,8 @@ async function printOne(page: Page, job: PdfJob, browser: Browser, root: string)
       preferCSSPageSize: true,
       printBackground: true,
       displayHeaderFooter: true,
-      headerTemplate: `<div style="font-size:7pt;width:100%;padding:0 12mm;color:#4a5663;display:flex;justify-content:space-between"><span>${escapeHtml(job.title)}</span><span>${escapeHtml(job.status)}</span></div>`,
-      footerTemplate: `<div style="font-size:7pt;width:100%;padding:0 12mm;color:#4a5663;display:flex;justify-content:space-between"><span>${escapeHtml(job.footnote ?? '')}</span><span>page <span class="pageNumber"></span> of <span class="totalPages"></span></span></div>`,
+      headerTemplate: `<div style="font-size:8pt;width:100%;padding:0 12mm;color:#4a5663;display:flex;justify-content:space-between"><span>${escapeHtml(job.title)}</span><span>${escapeHtml(job.status)}</span></div>`,
+      footerTemplate: `<div style="font-size:8pt;width:100%;padding:0 12mm;color:#4a5663;display:flex;justify-content:space-between"><span>${escapeHtml(job.footnote ?? '')}</span><span>page <span class="pageNumber"></span> of <span class="totalPages"></span></span></div>`,
       margin: { top: '16mm', bottom: '16mm', left: '12mm', right: '12mm' },
       timeout: TIMEOUT_MS,
     });

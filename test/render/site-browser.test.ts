@@ -294,11 +294,58 @@ describe.skipIf(skip)('the site in a real Chromium', () => {
     await plain.close();
   });
 
-  it('writes screenshots of the catalogue and a declaration for a person to look at', async () => {
+  it('writes screenshots of the catalogue, a declaration and the family page (1280 px wide) for a person to look at', async () => {
     const { page } = await open('KV-EXT-6060/index.html');
     await page.screenshot({ path: path.join(ARTIFACTS, 'declaration-KV-EXT-6060.png'), fullPage: true });
     await page.close();
-    for (const name of ['catalogue.png', 'declaration-KV-EXT-6060.png']) expect((await readFile(path.join(ARTIFACTS, name))).subarray(1, 4).toString()).toBe('PNG');
+    const family = await open('families/profiles-6060-mill/index.html');
+    await family.page.setViewport({ width: 1280, height: 900 });
+    await family.page.screenshot({ path: path.join(ARTIFACTS, 'family-profiles-6060-mill.png'), fullPage: true });
+    // Every column of the family's results, A1 to module D, is on a 1280 px screen: no table scrolls sideways.
+    const hidden = await family.page.$$eval('table.family', (tables) => tables.filter((t) => t.parentElement!.scrollWidth > t.parentElement!.clientWidth + 1).length);
+    expect(hidden).toBe(0);
+    await family.page.close();
+    for (const name of ['catalogue.png', 'declaration-KV-EXT-6060.png', 'family-profiles-6060-mill.png']) expect((await readFile(path.join(ARTIFACTS, name))).subarray(1, 4).toString()).toBe('PNG');
+  });
+
+  it.each(['KV-EXT-6060/index.html', 'KV-CU-BB10/index.html', 'families/profiles-6060-mill/index.html'])('prints %s with every character at 8 pt or more, and every table and chart within the page (never shrunk to fit)', async (file) => {
+    // A4 is 210 × 297 mm; style.css @page leaves 12 mm left and right; CSS has 96 px to the inch (25.4 mm).
+    const between = (paperMm: number) => ((paperMm - 2 * 12) / 25.4) * 96;
+    const { page } = await open(file);
+    await page.emulateMediaType('print');
+    const problems: string[] = [];
+    for (const [width, orientation] of [[between(210), 'portrait'], [between(297), 'landscape']] as const) {
+      await page.setViewport({ width: Math.floor(width), height: 1000 });
+      problems.push(
+        ...(await page.evaluate(
+          ({ width, orientation }) => {
+            const found: string[] = [];
+            const minimum = (8 * 96) / 72; // 8 pt in CSS px
+            const pageOf = (el: Element) => (el.closest('section') && getComputedStyle(el.closest('section')!).getPropertyValue('page') === 'landscape' ? 'landscape' : 'portrait');
+            const shown = (el: Element) => el.getClientRects().length > 0;
+            const walker = document.createTreeWalker(document.body, NodeFilter.SHOW_TEXT);
+            for (let node = walker.nextNode(); node; node = walker.nextNode()) {
+              const el = node.parentElement!;
+              if (!node.textContent!.trim() || !shown(el) || pageOf(el) !== orientation) continue;
+              // Chart text: its size as drawn, the SVG's scale included.
+              const svg = el.closest('svg');
+              const scale = svg ? svg.getBoundingClientRect().width / svg.width.baseVal.value : 1;
+              const px = parseFloat(getComputedStyle(el).fontSize) * scale;
+              if (px < minimum - 0.01) found.push(`${orientation}: "${node.textContent!.trim().slice(0, 30)}" at ${((px * 72) / 96).toFixed(2)} pt (${el.tagName.toLowerCase()}.${el.getAttribute('class') ?? ''})`);
+            }
+            for (const el of document.querySelectorAll('table, figure, svg, pre')) {
+              if (!shown(el) || pageOf(el) !== orientation) continue;
+              const right = el.getBoundingClientRect().right;
+              if (right > width + 0.5) found.push(`${orientation}: ${el.tagName.toLowerCase()}.${el.getAttribute('class') ?? ''} reaches ${Math.round(right)} px of ${Math.floor(width)}`);
+            }
+            return found;
+          },
+          { width, orientation },
+        )),
+      );
+    }
+    await page.close();
+    expect(problems).toEqual([]);
   });
 
   it('hostile input text stays text on the declaration, its charts and its audit trail (nothing runs)', async () => {

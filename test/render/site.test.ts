@@ -4,7 +4,13 @@ import { readdir, readFile, stat } from 'node:fs/promises';
 import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { findBrowser } from '../../src/render/browser.ts';
-import { DEMO, buildFresh, demoCopy, editFile, hasCommand, missingTool, removeDir, runCli, tempDir } from '../helpers.ts';
+import { DEMO, ROOT, buildFresh, demoCopy, editFile, hasCommand, missingTool, removeDir, runCli, tempDir } from '../helpers.ts';
+
+/** Three significant figures in the notation declarations print (1.35E+00), from ECMA-262 toExponential. */
+const declared = (value: number, significant = 3): string => {
+  const [mantissa, exponent] = value.toExponential(significant - 1).split('e');
+  return `${mantissa}E${exponent![0]}${exponent!.slice(1).padStart(2, '0')}`;
+};
 
 const dirs: string[] = [];
 afterAll(async () => Promise.all(dirs.map(removeDir)));
@@ -67,11 +73,12 @@ describe('PDF in a real Chromium', async () => {
     const results = JSON.parse(readFileSync(path.join(out, 'KV-CU-BB10', 'results.json'), 'utf8'));
     const modules = results.methods.cutoff.modules as Record<string, Record<string, number | null>>;
     for (const [module, values] of Object.entries(modules)) {
-      for (const [code, value] of Object.entries(values)) expect(text, `${module} ${code}`).toContain(value === null ? 'n/a' : value.toExponential(2));
+      for (const [code, value] of Object.entries(values)) expect(text, `${module} ${code}`).toContain(value === null ? 'n/a' : declared(value));
     }
     // Row by row: the GWP-total line of the printed table carries the modules in order, A1 … D.
-    const gwpLine = text.split('\n').find((line) => /^\s*GWP-total\s+kg CO2 eqv\./.test(line))!;
-    expect(gwpLine.trim().split(/\s+/).slice(4)).toEqual(Object.values(modules).map((values) => values['GWP-total']!.toExponential(2)));
+    // The unit wraps in print ("kg CO2" / "eqv."): the line holds the code, the first line of the unit and the values.
+    const gwpLine = text.split('\n').find((line) => /^\s*GWP-total\s+kg CO2\s+-?\d/.test(line))!;
+    expect(gwpLine.trim().split(/\s+/).slice(3)).toEqual(Object.values(modules).map((values) => declared(values['GWP-total']!)));
     expect(text).toMatch(/page 1 of \d/);
     // The draft status is in the running head of every page (pdftotext separates pages with form feeds).
     const pages = text.split('\f').filter((page) => page.trim() !== '');
@@ -94,8 +101,29 @@ describe('PDF in a real Chromium', async () => {
     const text = execFileSync('pdftotext', ['-layout', file, '-'], { encoding: 'utf8' });
     const family = JSON.parse(readFileSync(path.join(out, 'families', 'profiles-6060-mill', 'results.json'), 'utf8'));
     expect(text).toContain('Extruded hollow profiles, EN AW-6060, mill finish');
-    expect(text).toContain(family.methods.cutoff.modules['A1-A3']['GWP-total'].mean.toExponential(2));
+    expect(text).toContain(declared(family.methods.cutoff.modules['A1-A3']['GWP-total'].mean));
     for (const page of text.split('\f').filter((p) => p.trim() !== '')) expect(page).toContain('DRAFT — not verified');
+  });
+
+  it.skipIf(!browser || !pdftotext)('prints every PDF at 8 pt or more (poppler pdftohtml reads each text run’s font size), the family’s results and the inputs on landscape pages', async () => {
+    const pdfs = [...['KV-EXT-6060', 'KV-CU-BB10', 'KV-BR-40'].map((id) => path.join(out, id, 'declaration.pdf')), path.join(out, 'families', 'profiles-6060-mill', 'declaration.pdf')];
+    for (const pdf of pdfs) {
+      // -zoom 1: sizes in points, rounded to whole points by pdftohtml (the browser test measures exactly).
+      const xml = execFileSync('pdftohtml', ['-xml', '-i', '-stdout', '-zoom', '1', pdf], { encoding: 'utf8' });
+      const sizes = [...xml.matchAll(/<fontspec [^>]*size="([\d.]+)"/g)].map((m) => Number(m[1]));
+      expect(Math.min(...sizes), pdf).toBeGreaterThanOrEqual(8);
+      // Not shrunk to fit: the title prints at the size the stylesheet gives it (1.6rem of 9 pt = 14.4 pt).
+      expect(Math.max(...sizes), pdf).toBe(14);
+    }
+    // Page sizes in points (1/72 in): A4 is 595 × 842 portrait.
+    const sizes = (pdf: string) => [...execFileSync('pdfinfo', ['-f', '1', '-l', '99', pdf], { encoding: 'utf8' }).matchAll(/Page\s+\d+ size:\s+([\d.]+) x ([\d.]+)/g)].map((m) => (Number(m[1]) > Number(m[2]) ? 'landscape' : 'portrait'));
+    const family = sizes(pdfs[3]!);
+    expect(family[0]).toBe('portrait');
+    expect(family).toContain('landscape');
+    expect(sizes(pdfs[0]!).at(-1)).toBe('landscape');
+    // PNGs of the family PDF for a person to look at (poppler pdftoppm).
+    execFileSync('pdftoppm', ['-r', '80', '-png', pdfs[3]!, path.join(ROOT, 'test', 'artifacts', 'family-profiles-6060-mill-pdf')]);
+    expect((await readdir(path.join(ROOT, 'test', 'artifacts'))).filter((name) => name.startsWith('family-profiles-6060-mill-pdf')).length).toBe(family.length);
   });
 });
 
@@ -111,10 +139,10 @@ describe('declaration.json report settings', () => {
     expect(result.stderr).toMatch(/declaration\.json:\d+:\d+: report\.compare_indicators "SM": .*\[INDICATOR_NO_DATA\]/);
     const page = await readFile(path.join(out, 'KV-EXT-6060', 'index.html'), 'utf8');
     const results = JSON.parse(await readFile(path.join(out, 'KV-EXT-6060', 'results.json'), 'utf8'));
-    // Four significant figures: toExponential(3) (ECMA-262 Number.prototype.toExponential).
-    expect(page).toContain(`>${results.methods.cutoff.modules.A1['GWP-total'].toExponential(3)}<`);
+    // Four significant figures: toExponential(3) (ECMA-262 Number.prototype.toExponential), in the E notation.
+    expect(page).toContain(`>${declared(results.methods.cutoff.modules.A1['GWP-total'], 4)}<`);
     expect(page).toContain('AP (mol H+ eqv.)');
-    for (const method of ['cff', 'eol-recycling', 'fifty-fifty']) expect(page).toContain(`>${results.methods[method].total.AP.toExponential(3)}<`);
+    for (const method of ['cff', 'eol-recycling', 'fifty-fifty']) expect(page).toContain(`>${declared(results.methods[method].total.AP, 4)}<`);
   });
 });
 
