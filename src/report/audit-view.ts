@@ -1,4 +1,6 @@
 import type { BomLine, Project } from '../model/types.ts';
+import { parse } from 'csv-parse/sync';
+import type { CsvSource } from '../load/csv.ts';
 import { inputTables } from '../model/reach.ts';
 import type { Row } from '../schema/table.ts';
 import type { ProductResult } from '../calc/product.ts';
@@ -40,7 +42,8 @@ export interface AuditView {
    * and `i<k>` (in the order the page first reads it) for the page's own links, which are
    * thousands: the short anchor keeps them small.
    */
-  inputs: Array<{ file: string; rows: Array<{ anchor: string; short: string; line: number; written: string }> }>;
+  /** The input rows the figures read, by file: for a CSV file its header and each row's cells, so that a reader need not count delimiters. */
+  inputs: Array<{ file: string; header?: readonly string[]; rows: Array<{ anchor: string; short: string; line: number; written: string; cells?: readonly string[] }> }>;
   stepCount: number;
   figureCount: number;
   /** The page's body, filled in by the renderer (src/render/audit-html.ts). */
@@ -121,19 +124,23 @@ export function auditView(project: Project, result: ProductResult, bom: readonly
     placeStep(group, node, step, anchor === node.id, lines);
   }
 
-  const files = new Map<string, { text: string }>([...inputTables(project)].map(([file, table]) => [file, table.csv]));
+  const tables = inputTables(project);
+  const files = new Map<string, { text: string }>([...tables].map(([file, table]) => [file, table.csv]));
   files.set(project.declarationFile.file, project.declarationFile);
   const byFile = new Map<string, AuditView['inputs'][number]['rows']>();
   for (const [anchor, entry] of [...inputs].sort(([, a], [, b]) => (a.file === b.file ? a.line - b.line : a.file < b.file ? -1 : 1))) {
     if (!byFile.has(entry.file)) byFile.set(entry.file, []);
-    byFile.get(entry.file)!.push({ anchor, short: entry.short, line: entry.line, written: (files.has(entry.file) ? physicalLines(files.get(entry.file)!) : [])[entry.line - 1] ?? '' });
+    const written = (files.has(entry.file) ? physicalLines(files.get(entry.file)!) : [])[entry.line - 1] ?? '';
+    const csv = tables.get(entry.file)?.csv;
+    const cells = csv ? cellsOf(csv, entry.line, written) : undefined;
+    byFile.get(entry.file)!.push({ anchor, short: entry.short, line: entry.line, written, ...(cells ? { cells } : {}) });
   }
 
   return {
     productId: result.productId,
     indicators: [...graph.indicators],
     groups: layOut([...groups.values()]),
-    inputs: [...byFile].map(([file, rows]) => ({ file, rows })),
+    inputs: [...byFile].map(([file, rows]) => ({ file, ...(tables.has(file) ? { header: tables.get(file)!.csv.header.names } : {}), rows })),
     stepCount: graph.nodes.size,
     figureCount,
   };
@@ -166,4 +173,23 @@ function termView(graph: FigureGraph, term: Term, hrefs: ReadonlyMap<string, str
     case 'factor':
       return { symbol: term.symbol, href: inputHref(inputs, term.factor.file, term.factor.line), kind: 'factor', text: term.factor.factorId, qualifier: 'factor', note: ` factor ${term.factor.factorId}` };
   }
+}
+
+/** A CSV line's cells as written (quotes removed), read once per file and line for all the products that read it. */
+const parsedCells = new WeakMap<object, Map<number, readonly string[] | undefined>>();
+function cellsOf(csv: CsvSource, line: number, written: string): readonly string[] | undefined {
+  let lines = parsedCells.get(csv);
+  if (!lines) parsedCells.set(csv, (lines = new Map()));
+  if (!lines.has(line)) {
+    // A record that spans lines (a quoted line break) is shown as written instead.
+    let cells: readonly string[] | undefined;
+    try {
+      const records = parse(written, { delimiter: csv.delimiter, relax_column_count: true }) as string[][];
+      cells = records.length === 1 ? records[0] : undefined;
+    } catch {
+      cells = undefined;
+    }
+    lines.set(line, cells);
+  }
+  return lines.get(line);
 }

@@ -7,8 +7,8 @@ import { formatInput, NOT_GIVEN } from '../format.ts';
 import type { AuditView } from './audit-view.ts';
 import type { DeclarationResultsView } from './declaration-view.ts';
 import type { ResultsSummary } from './results.ts';
-import { RESULTS_CSV, RESULTS_JSON } from '../files.ts';
-import { factorHref, figureHref } from './figure-links.ts';
+import { AUDIT_PAGE, RESULTS_CSV, RESULTS_JSON } from '../files.ts';
+import { factorHref, figureHref, fragment, inputAnchor } from './figure-links.ts';
 import { allocationStepOf } from '../calc/allocation.ts';
 import { familyDir } from './family-view.ts';
 import { num, pct, sourceOf, txt, type SourceRef, type TableView } from './table-view.ts';
@@ -204,6 +204,16 @@ export function productView(project: Project, rows: ProductRows, report: Product
       })),
       empty: '',
     });
+  }
+  // "Read from bom.csv:6" links to the row on the audit trail, where the audit shows it (every row a figure reads).
+  if (report) {
+    const audited = new Set(report.audit.inputs.flatMap((file) => file.rows.map((row) => row.anchor)));
+    for (const table of tables) {
+      for (const row of table.rows) {
+        const anchor = inputAnchor(row.source.file, row.source.line);
+        if (audited.has(anchor)) row.source = { ...row.source, href: `${AUDIT_PAGE}#${fragment(anchor)}` };
+      }
+    }
   }
   return {
     id: product.product_id,

@@ -13,6 +13,8 @@ export interface SourceRef {
   line: number;
   /** The record exactly as it appears in the file. */
   written: string;
+  /** The row on the product's audit trail, where the page has one. */
+  href?: string;
 }
 
 export interface Cell {

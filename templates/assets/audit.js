@@ -35,7 +35,7 @@
     var element = document.getElementById(target);
     if (!element) return;
     // An input row's own links land on its text (pre); its list goes below it. A run's row gets it in its head cell.
-    if (element.tagName === 'PRE') element = element.parentElement;
+    if (element.tagName === 'PRE' || element.tagName === 'TD') element = element.parentElement;
     var input = element.classList.contains('input-row');
     var p = document.createElement(element.tagName === 'TR' ? 'span' : 'p');
     p.className = 'used-by';

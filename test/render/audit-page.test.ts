@@ -111,7 +111,7 @@ describe.skipIf(skip)('an audit page with runs of steps, in a real Chromium', ()
 
   it('lists under an input row exactly the steps that read it, rows of runs included', async () => {
     const bom = json.graph.cells.find((cell) => cell.file === 'bom.csv')!;
-    const readBy = await page.evaluate((anchor) => Array.from(document.getElementById(anchor)!.querySelectorAll('p.used-by a')).map((a) => a.textContent!), `input:bom.csv:${bom.line}`);
+    const readBy = await page.evaluate((anchor) => Array.from(document.getElementById(anchor)!.querySelectorAll('.used-by a')).map((a) => a.textContent!), `input:bom.csv:${bom.line}`);
     const cells = new Set(json.graph.cells.flatMap((cell, k) => (cell.file === 'bom.csv' && cell.line === bom.line ? [k] : [])));
     const expected = json.graph.steps.filter((step) => step.terms.some((t) => typeof t === 'object' && 'cell' in t && cells.has(t.cell))).map((step) => step.id);
     expect(expected.length).toBeGreaterThan(3);

@@ -1,4 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { parse as parseCsv } from 'csv-parse/sync';
 import { mkdir, readdir, readFile } from 'node:fs/promises';
 import { createRequire } from 'node:module';
 import path from 'node:path';
@@ -156,10 +157,11 @@ describe.skipIf(skip)('the site in a real Chromium', () => {
     }, 'cutoff/A1-A3/GWP-total');
     const anchor = walked.at(-1)!;
     expect(anchor, walked.join(' → ')).toMatch(/^input:(bom|factors|activities|transport|eol|materials|products|process)\.csv:\d+$/);
-    const row = await page.evaluate((current) => document.getElementById(current)!.querySelector('pre')!.textContent, anchor);
+    // A CSV row is shown cell by cell: the cells of the demo file's line, as csv-parse reads it.
+    const row = await page.evaluate((current) => [...(document.getElementById(current) as HTMLTableRowElement).cells].slice(1).map((cell) => cell.textContent), anchor);
     const [, file, line] = /^input:(.+):(\d+)$/.exec(anchor)!;
-    const written = (await readFile(path.join(DEMO, file!), 'utf8')).split(/\r?\n/)[Number(line) - 1];
-    expect(row).toBe(written);
+    const written = (await readFile(path.join(DEMO, file!), 'utf8')).split(/\r?\n/)[Number(line) - 1]!;
+    expect(row).toEqual(parseCsv(written)[0]);
     await page.close();
     expect(errors).toEqual([]);
   });
@@ -170,7 +172,7 @@ describe.skipIf(skip)('the site in a real Chromium', () => {
     const figures = figureMap(json);
     const { page, errors } = await open(`${id}/audit.html`);
     // bom.csv line 3 (line L1) is read by the steps whose terms link to it; the page's script lists them.
-    const readBy = await page.$eval('#input\\:bom\\.csv\\:3 p.used-by', (p) => ({ text: p.textContent!, links: Array.from(p.querySelectorAll('a')).map((a) => a.textContent!) }));
+    const readBy = await page.$eval('#input\\:bom\\.csv\\:3 .used-by', (p) => ({ text: p.textContent!, links: Array.from(p.querySelectorAll('a')).map((a) => a.textContent!) }));
     expect(readBy.text).toMatch(/^Read by \d+ steps: /);
     expect(readBy.links).toContain('inventory/line:L1/G');
     // Exactly the steps of results.json whose terms are cells of that row.
@@ -236,9 +238,9 @@ describe.skipIf(skip)('the site in a real Chromium', () => {
       const [file, hash] = href.split('#');
       const audit = await open(path.posix.join('factors', file!));
       const line = Number(/:(\d+)$/.exec(hash!)![1]);
-      const written = await audit.page.evaluate((anchor) => document.getElementById(anchor)?.querySelector('pre')?.textContent, decodeURIComponent(hash!));
+      const cells = await audit.page.evaluate((anchor) => [...((document.getElementById(anchor) as HTMLTableRowElement | null)?.cells ?? [])].slice(1).map((cell) => cell.textContent), decodeURIComponent(hash!));
       await audit.page.close();
-      expect(written, href).toBe((await readFile(path.join(DEMO, 'factors.csv'), 'utf8')).split(/\r?\n/)[line - 1]);
+      expect(cells, href).toEqual(parseCsv((await readFile(path.join(DEMO, 'factors.csv'), 'utf8')).split(/\r?\n/)[line - 1]!)[0]);
     }
   });
 
@@ -308,6 +310,30 @@ describe.skipIf(skip)('the site in a real Chromium', () => {
     for (const name of ['catalogue.png', 'declaration-KV-EXT-6060.png', 'family-profiles-6060-mill.png']) expect((await readFile(path.join(ARTIFACTS, name))).subarray(1, 4).toString()).toBe('PNG');
   });
 
+  it('links each input row of a declaration ("Read from bom.csv:3") to that row on the audit trail, shown cell by cell under its file’s header', async () => {
+    const { page } = await open('KV-EXT-6060/index.html');
+    const links = await page.$$eval('#inputs a.src', (anchors) => anchors.map((a) => ({ href: a.getAttribute('href')!, label: a.textContent!.trim() })));
+    await page.close();
+    expect(links.length).toBeGreaterThan(20);
+    const audit = await open('KV-EXT-6060/audit.html');
+    for (const link of links) {
+      const [file, hash] = link.href.split('#');
+      expect(file).toBe('audit.html');
+      const landed = await audit.page.evaluate((id) => document.getElementById(id)?.querySelector('code.loc')?.textContent ?? null, decodeURIComponent(hash!));
+      expect(landed, link.href).toBe(link.label);
+    }
+    // The bom.csv rows under the demo file's own header, one cell per column.
+    const header = (await readFile(path.join(DEMO, 'bom.csv'), 'utf8')).split('\n')[1]!.split(',');
+    const table = await audit.page.evaluate(() => {
+      const row = document.getElementById('input:bom.csv:3') as HTMLTableRowElement;
+      const head = row.closest('table')!.tHead!.rows[0]!;
+      return { header: [...head.cells].slice(1).map((c) => c.textContent), cells: [...row.cells].slice(1).map((c) => c.textContent) };
+    });
+    expect(table.header).toEqual(header);
+    expect(table.cells.slice(0, 6)).toEqual(['KV-EXT-6060', 'L1', 'Extrusion billet', 'al-6060', 'product', '0.83']);
+    await audit.page.close();
+  });
+
   it.each(['KV-EXT-6060/index.html', 'KV-CU-BB10/index.html', 'families/profiles-6060-mill/index.html'])('prints %s with every character at 8 pt or more, and every table and chart within the page (never shrunk to fit)', async (file) => {
     // A4 is 210 × 297 mm; style.css @page leaves 12 mm left and right; CSS has 96 px to the inch (25.4 mm).
     const between = (paperMm: number) => ((paperMm - 2 * 12) / 25.4) * 96;
@@ -365,7 +391,9 @@ describe.skipIf(skip)('the site in a real Chromium', () => {
     }
     const { page } = await open('KV-BR-40/index.html', hostileOut);
     expect(await page.$eval('h1', (h) => h.textContent)).toBe('<script>alert(1)</script> "><img src=x onerror=alert(2)> {{ 7*7 }}');
-    expect(await page.$eval('#chart-contributions svg', (svg) => svg.textContent)).toContain('<img src=x onerror=alert(3)>');
+    // The chart label is the text, cut to the label width (vega-lite labelLimit), never an element.
+    expect(await page.$eval('#chart-contributions svg', (svg) => svg.textContent)).toContain('<img src=x onerror=');
+    expect(await page.$$eval('#chart-contributions svg img', (images) => images.length)).toBe(0);
     await page.close();
   });
 });
