@@ -51,7 +51,7 @@ describe('family results: weighted mean, range, grouping tolerance (hand-worked)
   it('flags a member beyond the tolerance: B lies (6 − 3)/3 = +100 % from the mean, A (2 − 3)/3 = −33 %', () => {
     const r = familyResults(family({ A: 3, B: 1 }), summaries, 0.1);
     expect(r.members.map((m) => [m.product_id, m.deviation, m.outside_tolerance])).toEqual([['A', -1 / 3, true], ['B', 1, true]]);
-    expect(familyWarnings(r)[1]).toMatch(/^family F: B GWP-total A1-A3 6\.00e\+0 lies 100\.0 % above the family’s weighted average 3\.00e\+0 \(tolerance 10 %/);
+    expect(familyWarnings(r)[1]).toMatch(/^family F: B GWP-total A1-A3 6\.00E\+00 lies 100\.0 % above the family’s weighted average 3\.00E\+00 \(tolerance 10 %/);
     // The tolerance is a setting: at 100 % neither is beyond it (the rule is "more than").
     expect(familyWarnings(familyResults(family({ A: 3, B: 1 }), summaries, 1))).toEqual([]);
   });
@@ -116,7 +116,7 @@ describe('families.csv', () => {
     const out = path.join(work, 'out');
     const result = await runCli(['build', '--data', data, '--out', out, '--no-pdf']);
     expect(result.code, result.stderr).toBe(0);
-    expect(result.stderr).toMatch(/warning family profiles-6060-mill: KV-EXT-6060-T19 GWP-total A1-A3 3\.51e\+0 lies 6\.1 % below/);
+    expect(result.stderr).toMatch(/warning family profiles-6060-mill: KV-EXT-6060-T19 GWP-total A1-A3 3\.51E\+00 lies 6\.1 % below/);
     expect(result.stderr).toMatch(/warning family profiles-6060-mill: KV-EXT-6060-T22 .* lies 7\.4 % above/);
     const page = await readFile(path.join(out, 'families', 'profiles-6060-mill', 'index.html'), 'utf8');
     expect(page).toContain('Spread beyond the grouping tolerance');
