@@ -77,6 +77,28 @@ manifest: the same files a single build writes.
     positionals: { min: 1, max: Number.POSITIVE_INFINITY },
     run: async (values, positionals, io) => (await import('./merge.ts')).runMerge({ dirs: positionals, out: str(values.out) ?? 'out' }, io),
   },
+  serve: {
+    summary: 'preview the site on localhost, rebuilt and reloaded as the data change',
+    usage: `loopsheet serve [--data DIR] [--port N] [--out DIR]
+
+Builds the site (no PDFs), serves it on localhost, watches the data folder, rebuilds only
+the products whose inputs changed and reloads the open page. While the inputs have
+errors, every page shows them (file, line, column, message) instead of stale results.
+Runs until stopped with Ctrl-C.
+
+  --data DIR   the data folder (default ./data)
+  --port N     the port (default 8080)
+  --out DIR    where the preview is built (default: a folder of its own in the system's
+               temporary folder; never your published out/)`,
+    options: { data: { type: 'string' }, port: { type: 'string' }, out: { type: 'string' } },
+    positionals: { min: 0, max: 0 },
+    run: async (values, _positionals, io) => {
+      const port = Number(str(values.port) ?? '8080');
+      if (!Number.isInteger(port) || port < 0 || port > 65535) throw new UsageError(`--port ${str(values.port)}: expected a port number from 0 to 65535 (0: any free port)`);
+      const out = str(values.out);
+      return (await import('./serve.ts')).runServe({ data: str(values.data) ?? 'data', port, ...(out ? { out } : {}) }, io);
+    },
+  },
   explain: {
     summary: 'show how a figure is derived, down to the input cells',
     usage: `loopsheet explain PRODUCT FIGURE_ID [--data DIR] [--depth N]
