@@ -108,3 +108,12 @@ export function missingTool(tool: string, present: boolean, install: string): bo
 export function hasCommand(command: string, args: string[] = ['-v']): boolean {
   return spawnSync(command, args, { stdio: 'ignore' }).error === undefined;
 }
+
+/**
+ * A result in the notation declarations print (1.35E+00: mantissa, E, sign, at least two exponent
+ * digits), made here from ECMA-262 Number.prototype.toExponential, independently of src/format.ts.
+ */
+export function declaredNotation(value: number, significant = 3): string {
+  const [mantissa, exponent] = value.toExponential(significant - 1).split('e');
+  return `${mantissa}E${exponent![0]}${exponent!.slice(1).padStart(2, '0')}`;
+}

@@ -1,16 +1,12 @@
 import { afterAll, describe, expect, it } from 'vitest';
 import { mkdir, readFile, readdir, writeFile, stat } from 'node:fs/promises';
 import path from 'node:path';
-import { demoCopy, editFile, editLine, hashTree, removeDir, runCli, tempDir, DEMO } from '../helpers.ts';
+import { declaredNotation, demoCopy, editFile, editLine, hashTree, removeDir, runCli, tempDir, DEMO } from '../helpers.ts';
 import { resultsCsv } from '../../src/report/results-csv.ts';
 import type { ResultsSummary } from '../../src/report/results.ts';
 import { figureMap } from '../figures.ts';
 
-/** Three significant figures in the notation declarations print (1.35E+00), from ECMA-262 toExponential. */
-const declared = (value: number): string => {
-  const [mantissa, exponent] = value.toExponential(2).split('e');
-  return `${mantissa}E${exponent![0]}${exponent!.slice(1).padStart(2, '0')}`;
-};
+const declared = (value: number) => declaredNotation(value);
 
 const cleanup: string[] = [];
 afterAll(async () => Promise.all(cleanup.map(removeDir)));

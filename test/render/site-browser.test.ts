@@ -6,7 +6,7 @@ import path from 'node:path';
 import { pathToFileURL } from 'node:url';
 import puppeteer, { type Browser, type Page } from 'puppeteer';
 import { CHROMIUM_ARGS, findBrowser } from '../../src/render/browser.ts';
-import { DEMO, ROOT, demoCopy, editFile, missingTool, removeDir, runCli, tempDir } from '../helpers.ts';
+import { DEMO, ROOT, declaredNotation, demoCopy, editFile, missingTool, removeDir, runCli, tempDir } from '../helpers.ts';
 import { figureMap } from '../figures.ts';
 import type { ResultsJson } from '../../src/report/results.ts';
 
@@ -78,12 +78,8 @@ async function htmlPages(root: string): Promise<string[]> {
   return pages.sort();
 }
 
-/** Three significant figures in the scientific notation declarations print (1.35E+00; declaration.json report.significant_figures), from ECMA-262 toExponential. */
-const declared = (value: number | null): string => {
-  if (value === null) return 'n/a';
-  const [mantissa, exponent] = value.toExponential(2).split('e');
-  return `${mantissa}E${exponent![0]}${exponent!.slice(1).padStart(2, '0')}`;
-};
+/** Three significant figures, as the declaration prints by default (declaration.json report.significant_figures). */
+const declared = (value: number | null): string => (value === null ? 'n/a' : declaredNotation(value));
 
 describe.skipIf(skip)('the site in a real Chromium', () => {
   it('opens every page with no console error, page error or failed request', async () => {

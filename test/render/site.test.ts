@@ -4,13 +4,9 @@ import { readdir, readFile, stat } from 'node:fs/promises';
 import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { findBrowser } from '../../src/render/browser.ts';
-import { DEMO, ROOT, buildFresh, demoCopy, editFile, hasCommand, missingTool, removeDir, runCli, tempDir } from '../helpers.ts';
+import { DEMO, ROOT, buildFresh, declaredNotation, demoCopy, editFile, hasCommand, missingTool, removeDir, runCli, tempDir } from '../helpers.ts';
 
-/** Three significant figures in the notation declarations print (1.35E+00), from ECMA-262 toExponential. */
-const declared = (value: number, significant = 3): string => {
-  const [mantissa, exponent] = value.toExponential(significant - 1).split('e');
-  return `${mantissa}E${exponent![0]}${exponent!.slice(1).padStart(2, '0')}`;
-};
+const declared = declaredNotation;
 
 const dirs: string[] = [];
 afterAll(async () => Promise.all(dirs.map(removeDir)));
