@@ -306,6 +306,27 @@ describe.skipIf(skip)('the site in a real Chromium', () => {
     for (const name of ['catalogue.png', 'declaration-KV-EXT-6060.png', 'family-profiles-6060-mill.png']) expect((await readFile(path.join(ARTIFACTS, name))).subarray(1, 4).toString()).toBe('PNG');
   });
 
+  it('lays out the factor table with margins at both edges and ids that do not break inside', async () => {
+    const { page } = await open('factors/index.html');
+    await page.setViewport({ width: 1280, height: 900 });
+    const layout = await page.evaluate(() => {
+      const main = document.querySelector('main')!;
+      const ids = [...document.querySelectorAll('table.grid tbody tr')].map((row) => (row as HTMLTableRowElement).cells[0]!);
+      // The lines an id's text is laid out on: one box per line.
+      const lines = (cell: Element) => {
+        const range = document.createRange();
+        range.selectNodeContents(cell);
+        return new Set([...range.getClientRects()].map((rect) => Math.round(rect.top))).size;
+      };
+      return { padding: parseFloat(getComputedStyle(main).paddingLeft), notice: document.querySelector('.notice')!.getBoundingClientRect().left, broken: ids.filter((cell) => lines(cell) > 1).map((cell) => cell.textContent) };
+    });
+    await page.close();
+    expect(layout.padding).toBeGreaterThanOrEqual(16);
+    expect(layout.notice).toBeGreaterThanOrEqual(16);
+    // One line per id (al-primary-ingot, not al-primary- / ingot).
+    expect(layout.broken).toEqual([]);
+  });
+
   it('links each input row of a declaration ("Read from bom.csv:3") to that row on the audit trail, shown cell by cell under its file’s header', async () => {
     const { page } = await open('KV-EXT-6060/index.html');
     const links = await page.$$eval('#inputs a.src', (anchors) => anchors.map((a) => ({ href: a.getAttribute('href')!, label: a.textContent!.trim() })));

@@ -80,6 +80,10 @@ describe('PDF in a real Chromium', async () => {
     const pages = text.split('\f').filter((page) => page.trim() !== '');
     expect(pages.length).toBeGreaterThan(1);
     for (const page of pages) expect(page).toContain('DRAFT — not verified');
+    // The inputs as the appendix, no navigation, and each caution once (the first words of the one on public claims).
+    expect(text).toContain('Appendix: Inputs');
+    expect(text).not.toContain('Catalogue ›');
+    expect(text.match(/This is a public environmental/g)).toHaveLength(1);
     for (const page of pages) expect(page).toContain('Illustrative data: invented values, not a real dataset');
     // No link in the PDF points into the build folder (it would be a file:// path of this machine).
     expect(readFileSync(path.join(out, 'KV-CU-BB10', 'declaration.pdf'), 'latin1')).not.toContain('file://');
