@@ -1,10 +1,11 @@
 import chokidar from 'chokidar';
 import EleventyDevServer from '@11ty/eleventy-dev-server';
 import { createHash } from 'node:crypto';
+import { createServer } from 'node:net';
 import os from 'node:os';
 import path from 'node:path';
 import { formatCounted } from '../format.ts';
-import { formatProblem, hasErrors, type Problem } from '../problems.ts';
+import { formatProblem, hasErrors, UsageError, type Problem } from '../problems.ts';
 import { loadProject } from '../model/project.ts';
 import { onInterrupt } from '../render/cleanup.ts';
 import { runBuild } from './build.ts';
@@ -44,7 +45,17 @@ ${items}
  * --changed`) and reloads the open page. While the inputs have errors every page of the
  * preview is the list of problems, never stale results. Runs until it is stopped (Ctrl-C).
  */
+/** Whether a port can be listened on (the dev server would throw from inside its own handler). */
+function portFree(port: number): Promise<boolean> {
+  return new Promise((resolve) => {
+    const probe = createServer();
+    probe.once('error', () => resolve(false));
+    probe.listen(port, () => probe.close(() => resolve(true)));
+  });
+}
+
 export async function runServe(options: ServeOptions, io: Io): Promise<number> {
+  if (options.port !== 0 && !(await portFree(options.port))) throw new UsageError(`port ${options.port} is in use; choose another with --port N (0: any free port)`);
   const out = options.out ?? path.join(os.tmpdir(), `loopsheet-serve-${createHash('sha256').update(path.resolve(options.data)).digest('hex').slice(0, 12)}`);
   let problems: Problem[] | undefined;
   // Messages of each build go to stderr as usual; the preview keeps running whatever a build says.

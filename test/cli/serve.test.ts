@@ -1,10 +1,11 @@
 import { afterAll, describe, expect, it } from 'vitest';
 import { spawn, type ChildProcess } from 'node:child_process';
 import { readFile } from 'node:fs/promises';
+import { createServer, type AddressInfo } from 'node:net';
 import path from 'node:path';
 import type { Browser, Page } from 'puppeteer';
 import { CHROMIUM_ARGS, findBrowser } from '../../src/render/browser.ts';
-import { BIN, declaredNotation, demoCopy, editLine, missingTool, removeDir, ROOT } from '../helpers.ts';
+import { BIN, declaredNotation, DEMO, demoCopy, editLine, missingTool, removeDir, ROOT, runCli } from '../helpers.ts';
 
 /**
  * The live preview as a practitioner uses it: `loopsheet serve` on a copy of the demo, the
@@ -88,4 +89,14 @@ describe.skipIf(skip)('loopsheet serve', () => {
     expect(await figure(page)).toBe(after);
     await page.close();
   }, 90_000);
+
+  it('a port in use is a usage error (exit 2) that says how to choose another', async () => {
+    const busy = createServer();
+    await new Promise<void>((resolve) => busy.listen(0, '127.0.0.1', () => resolve()));
+    const port = (busy.address() as AddressInfo).port;
+    const result = await runCli(['serve', '--data', DEMO, '--port', String(port)]);
+    busy.close();
+    expect(result.code).toBe(2);
+    expect(result.stderr).toBe(`loopsheet serve: port ${port} is in use; choose another with --port N (0: any free port)\n`);
+  });
 });
