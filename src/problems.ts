@@ -90,7 +90,6 @@ export interface Problem {
   cause?: string;
 }
 
-/** `bom.csv:14: mass_kg "12,5kg": expected a number in kg` */
 /**
  * One problem on one line, as editors and CI annotations read it: `file:line:column` (the
  * column's number in the header; the character in declaration.json), the column and the value

@@ -66,6 +66,7 @@ describe('showControls', () => {
 
 describe('formatAmount and formatShare (pages)', () => {
   it('groups the thousands of large amounts as counts are written, and prints shares at one decimal', () => {
+    // Six significant figures as toPrecision(6) gives them (ECMA-262 §21.1.3.5), thousands grouped by commas as English text writes them (common practice).
     expect(formatAmount(1200000)).toBe('1,200,000');
     expect(formatAmount(412000.5)).toBe('412,001'); // six significant figures, as formatInput
     expect(formatAmount(-25000)).toBe('-25,000');

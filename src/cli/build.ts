@@ -1,4 +1,4 @@
-import { loadProject } from '../model/project.ts';
+import { loadProject, type ProjectLoad } from '../model/project.ts';
 import { hasErrors } from '../problems.ts';
 import { findBrowser } from '../render/browser.ts';
 import { buildSite } from '../render/build-site.ts';
@@ -28,13 +28,14 @@ export interface BuildOptions {
 /** Products named in the --changed summary; the rest are counted. */
 const LISTED = 20;
 
-export async function runBuild(options: BuildOptions, io: Io): Promise<number> {
+/** `loaded`: the project as the caller has just loaded it from `options.data` (serve), so it is not loaded twice. */
+export async function runBuild(options: BuildOptions, io: Io, loaded?: ProjectLoad): Promise<number> {
   if (options.shard && options.changed) throw new UsageError('--changed and --shard do not go together: a shard build is joined by merge, which builds nothing');
   const progress = createProgress(io);
   for (const line of recoverInterrupted(options.out)) io.err(line);
   await checkOutputDir(options.out, options.data);
   progress.phase('load and validate');
-  const { project, problems } = await loadProject(options.data);
+  const { project, problems } = loaded ?? (await loadProject(options.data));
   if (problems.length > 0) printProblems(problems, options.data, io);
   if (!project || hasErrors(problems)) {
     io.err(`build stopped: nothing was written to ${options.out}`);

@@ -68,7 +68,7 @@ export async function runServe(options: ServeOptions, io: Io): Promise<number> {
       return;
     }
     problems = undefined;
-    const code = await runBuild({ data: options.data, out, pdf: 'off', changed: true }, quiet);
+    const code = await runBuild({ data: options.data, out, pdf: 'off', changed: true }, quiet, loaded);
     if (code !== 0) io.err(`serve: the build stopped (exit ${code}); the previous preview stays`);
   };
   await build();

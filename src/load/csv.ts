@@ -111,6 +111,9 @@ export function readCsvText(file: string, original: string, sink: CsvSink, maxRo
   const problems: Problem[] = [];
   const tooLong: Problem[] = [];
   let rows = 0;
+  // Where an unclosed quote opens, found once when csv-parse reports one (null: not looked for yet).
+  let opened: number | undefined | null = null;
+  const openedOn = (): number | undefined => (opened === null ? (opened = unclosedQuoteLine(text, delimiter)) : opened);
   let source: CsvSource | undefined;
   let take: ((record: CsvRecord) => void) | undefined;
   try {
@@ -123,7 +126,7 @@ export function readCsvText(file: string, original: string, sink: CsvSink, maxRo
       relax_quotes: false,
       skip_records_with_error: true,
       on_skip: (error: CsvError | undefined) => {
-        if (error) problems.push(csvSyntaxProblem(file, error, text, delimiter));
+        if (error) problems.push(csvSyntaxProblem(file, error, openedOn));
       },
       // Each record is handled here and dropped (returning nothing keeps it out of csv-parse's result).
       on_record: (fields: string[], context: { lines: number }) => {
@@ -149,7 +152,7 @@ export function readCsvText(file: string, original: string, sink: CsvSink, maxRo
     });
   } catch (error) {
     if (error instanceof TooManyRows) return { ok: false, problems: [tooManyRows(file, text, maxRows)] };
-    if (error instanceof CsvError) return { ok: false, problems: [...problems, csvSyntaxProblem(file, error, text, delimiter)] };
+    if (error instanceof CsvError) return { ok: false, problems: [...problems, csvSyntaxProblem(file, error, openedOn)] };
     throw error;
   }
   // A cell too long for any column is not data; the file is not used, so nothing downstream blames its row's absence.
@@ -158,7 +161,7 @@ export function readCsvText(file: string, original: string, sink: CsvSink, maxRo
   // lost, and every check of them would blame something else. The file is not used.
   // (Where the quotes all close as RFC 4180 reads them, csv-parse's own problems stand.)
   const unclosed = problems.find((problem) => problem.cause === 'CSV_QUOTE_NOT_CLOSED');
-  if (unclosed && unclosedQuoteLine(text, delimiter) !== undefined) {
+  if (unclosed && openedOn() !== undefined) {
     return { ok: false, problems: problems.filter((problem) => problem.code !== 'CSV_SYNTAX' || problem === unclosed) };
   }
   if (!source) {
@@ -215,8 +218,8 @@ export function unclosedQuoteLine(text: string, delimiter: ',' | ';'): number | 
   return openedOn;
 }
 
-function csvSyntaxProblem(file: string, error: CsvError, text: string, delimiter: ',' | ';'): Problem {
-  const opened = error.code === 'CSV_QUOTE_NOT_CLOSED' ? unclosedQuoteLine(text, delimiter) : undefined;
+function csvSyntaxProblem(file: string, error: CsvError, openedOn: () => number | undefined): Problem {
+  const opened = error.code === 'CSV_QUOTE_NOT_CLOSED' ? openedOn() : undefined;
   if (opened !== undefined) {
     return {
       severity: 'error',

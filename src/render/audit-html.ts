@@ -43,10 +43,10 @@ export function auditHtml(view: AuditView): nunjucks.runtime.SafeString {
   html += '<section class="block" id="inputs"><h2>Input rows</h2><p class="note">Each input row this product’s figures read: a CSV row cell by cell under its file’s header (the cells as written, quotes removed; the files themselves are in the verification pack), other lines exactly as they appear in their file.</p>';
   for (const file of view.inputs) {
     html += `<h3>${escape(file.file)}</h3>`;
-    const tabled = file.header ? file.rows.filter((row) => row.cells) : [];
-    if (file.header && tabled.length > 0) {
+    const tabled = file.rows.filter((row) => file.header && row.cells);
+    if (tabled.length > 0) {
       html += `<div class="scroll" tabindex="0" role="region" aria-label="Rows of ${escape(file.file)}"><table class="grid input-rows"><thead><tr><th scope="col">Line</th>`;
-      for (const name of file.header) html += `<th scope="col">${escape(name)}</th>`;
+      for (const name of file.header!) html += `<th scope="col">${escape(name)}</th>`;
       html += '</tr></thead><tbody>';
       for (const row of tabled) {
         html += `<tr class="input-row" id="${escape(row.anchor)}"><td id="${row.short}"><code class="loc">${escape(file.file)}:${row.line}</code></td>`;
@@ -55,7 +55,7 @@ export function auditHtml(view: AuditView): nunjucks.runtime.SafeString {
       }
       html += '</tbody></table></div>';
     }
-    for (const row of file.rows) if (!tabled.includes(row)) html += `<div class="input-row" id="${escape(row.anchor)}"><code class="loc">${escape(file.file)}:${row.line}</code><pre id="${row.short}">${escape(row.written)}</pre></div>`;
+    for (const row of file.rows) if (!(file.header && row.cells)) html += `<div class="input-row" id="${escape(row.anchor)}"><code class="loc">${escape(file.file)}:${row.line}</code><pre id="${row.short}">${escape(row.written)}</pre></div>`;
   }
   return new nunjucks.runtime.SafeString(`${html}</section>`);
 }

@@ -62,6 +62,8 @@ export function familyView(project: Project, results: FamilyResults, names: Read
   const digits = project.declaration.report.significant_figures;
   const sci = (value: number | null): string => (value === null ? NOT_AVAILABLE : formatScientific(value, digits));
   const range = (stat: FamilyStat, format: (v: number) => string) => (stat.min === null ? '' : `${format(stat.min)} … ${format(stat.max!)}`);
+  /** A figure's range: as one text, and its lowest and highest member apart (for a table that sets them on two lines). */
+  const spread = (stat: FamilyStat) => ({ range: range(stat, sci), low: stat.min === null ? '' : sci(stat.min), high: stat.min === null ? '' : sci(stat.max) });
   const audit: FamilyAuditEntry[] = [];
   /** The cell of figure method/module/code, its audit entry added on the way. */
   const entry = (method: ResultMethod, module: string, code: string, stat: FamilyStat, moduleD = false): FamilyCell => {
@@ -80,8 +82,7 @@ export function familyView(project: Project, results: FamilyResults, names: Read
         href: `../../${m.product_id}/${figureHref(id)}`,
       })),
     });
-    const [low, high] = stat.min === null ? ['', ''] : [sci(stat.min), sci(stat.max)];
-    return { text: sci(stat.mean), range: range(stat, (v) => sci(v)), low, high, href: figureHref(id), ...(moduleD ? { moduleD } : {}) };
+    return { text: sci(stat.mean), ...spread(stat), href: figureHref(id), ...(moduleD ? { moduleD } : {}) };
   };
 
   const cutoff = results.methods.cutoff;
@@ -98,7 +99,7 @@ export function familyView(project: Project, results: FamilyResults, names: Read
   const rc = results.flows.recycled_content;
   const share = (s: FamilyStat) => ({ mean: s.mean === null ? NOT_AVAILABLE : formatShare(s.mean), range: range(s, formatShare) });
   const headlineStat = cutoff.modules[HEADLINE_MODULE]?.[HEADLINE_INDICATOR];
-  const headline = headlineStat ? { a1a3: { text: sci(headlineStat.mean), range: range(headlineStat, (v) => sci(v)), low: headlineStat.min === null ? '' : sci(headlineStat.min), high: headlineStat.min === null ? '' : sci(headlineStat.max), href: `${familyDir(results.family_id)}/${figureHref(HEADLINE_FIGURE)}` }, a1a3Value: String(headlineStat.mean ?? '') } : { a1a3: undefined, a1a3Value: '' };
+  const headline = headlineStat ? { a1a3: { text: sci(headlineStat.mean), ...spread(headlineStat), href: `${familyDir(results.family_id)}/${figureHref(HEADLINE_FIGURE)}` }, a1a3Value: String(headlineStat.mean ?? '') } : { a1a3: undefined, a1a3Value: '' };
   return {
     id: results.family_id,
     name: results.name,

@@ -114,6 +114,15 @@ async function allGone(pids: number[], withinMs: number): Promise<number[]> {
 
 const sideFolders = async () => (await readdir(dir)).filter((name) => name.startsWith('.loopsheet-'));
 
+/** What every stop must leave: none of the build's processes, no side folder, the previous output as it was. */
+async function expectCleanStop(tree: number[]): Promise<void> {
+  expect(await allGone(tree, 10_000)).toEqual([]);
+  expect(await sideFolders()).toEqual([]);
+  expect(await hashTree(out)).toEqual(previous);
+}
+
+// Exit codes: 128 + the signal's number, as POSIX shells report a process a signal ended (common practice); SIGINT 2, SIGTERM 15 (POSIX signal.h).
+
 describe.skipIf(skip)('a build stopped from outside', () => {
   it('SIGTERM: says it was interrupted, exits 143 (128 + 15), leaves the previous output and no staging folder, and no browser', async () => {
     const build = await buildUntilPdf();
@@ -122,9 +131,7 @@ describe.skipIf(skip)('a build stopped from outside', () => {
     build.child.kill('SIGTERM');
     expect(await build.exit).toEqual({ code: 143, signal: null });
     expect(build.stderr()).toMatch(/loopsheet build: interrupted \(SIGTERM\)\n {2}removed the unfinished build; .*out is as it was/);
-    expect(await allGone(tree, 10_000)).toEqual([]);
-    expect(await sideFolders()).toEqual([]);
-    expect(await hashTree(out)).toEqual(previous);
+    await expectCleanStop(tree);
   }, 60_000);
 
   it('Ctrl-C (SIGINT to the process group): exits 130 (128 + 2), once, the same way', async () => {
@@ -133,9 +140,7 @@ describe.skipIf(skip)('a build stopped from outside', () => {
     process.kill(-build.child.pid!, 'SIGINT');
     expect(await build.exit).toEqual({ code: 130, signal: null });
     expect(build.stderr().match(/interrupted/g)).toHaveLength(1);
-    expect(await allGone(tree, 10_000)).toEqual([]);
-    expect(await sideFolders()).toEqual([]);
-    expect(await hashTree(out)).toEqual(previous);
+    await expectCleanStop(tree);
   }, 60_000);
 
   it('SIGKILL of the command: the process it started stops too and cleans up; nothing swaps in later', async () => {
@@ -143,10 +148,8 @@ describe.skipIf(skip)('a build stopped from outside', () => {
     const tree = descendants(build.child.pid!);
     build.child.kill('SIGKILL');
     expect(await build.exit).toEqual({ code: null, signal: 'SIGKILL' });
-    expect(await allGone(tree, 10_000)).toEqual([]);
     expect(build.stderr()).toMatch(/interrupted \(the loopsheet process that started it has gone\)/);
-    expect(await sideFolders()).toEqual([]);
-    expect(await hashTree(out)).toEqual(previous);
+    await expectCleanStop(tree);
   }, 60_000);
 
   it('SIGKILL of the process group: the browser quits with it, and the next build removes the staging folder left', async () => {

@@ -352,7 +352,7 @@ describe.skipIf(skip)('the site in a real Chromium', () => {
   });
 
   it.each(['KV-EXT-6060/index.html', 'KV-CU-BB10/index.html', 'families/profiles-6060-mill/index.html'])('prints %s with every character at 8 pt or more, and every table and chart within the page (never shrunk to fit)', async (file) => {
-    // A4 is 210 × 297 mm; style.css @page leaves 12 mm left and right; CSS has 96 px to the inch (25.4 mm).
+    // A4 is 210 × 297 mm (ISO 216); style.css @page leaves 12 mm left and right; CSS has 96 px to the inch (CSS Values and Units, absolute lengths); 1 pt = 1/72 in.
     const between = (paperMm: number) => ((paperMm - 2 * 12) / 25.4) * 96;
     const { page } = await open(file);
     await page.emulateMediaType('print');

@@ -115,7 +115,7 @@ describe('PDF in a real Chromium', async () => {
       // Not shrunk to fit: the title prints at the size the stylesheet gives it (1.6rem of 9 pt = 14.4 pt).
       expect(Math.max(...sizes), pdf).toBe(14);
     }
-    // Page sizes in points (1/72 in): A4 is 595 × 842 portrait.
+    // Page sizes in points (1/72 in): A4 (ISO 216, 210 × 297 mm) is 595 × 842 portrait.
     const sizes = (pdf: string) => [...execFileSync('pdfinfo', ['-f', '1', '-l', '99', pdf], { encoding: 'utf8' }).matchAll(/Page\s+\d+ size:\s+([\d.]+) x ([\d.]+)/g)].map((m) => (Number(m[1]) > Number(m[2]) ? 'landscape' : 'portrait'));
     const family = sizes(pdfs[3]!);
     expect(family[0]).toBe('portrait');

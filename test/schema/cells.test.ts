@@ -58,7 +58,7 @@ describe('cell schemas: one CSV cell into a typed value or a located problem', (
     // Windows device names, with or without an extension (Microsoft, "Naming Files, Paths, and Namespaces").
     for (const device of ['con', 'NUL', 'aux.txt', 'com1', 'LPT9']) expect(problemOf(folder, device)?.code, device).toBe('ID_RESERVED');
     expect(folder.parse('console')).toBe('console');
-    // 255 bytes is the longest name ext4, NTFS and APFS take; a folder id stops well short.
+    // 255 bytes is the longest name ext4, NTFS and APFS take (from memory); a folder id stops well short.
     expect(problemOf(folder, 'a'.repeat(101))).toMatchObject({ code: 'ID_TOO_LONG' });
     expect(folder.parse('a'.repeat(100))).toHaveLength(100);
     expect(problemOf(folder, 'a'.repeat(5000))?.message).toMatch(/5000 characters long; an identifier has at most 100/);
