@@ -148,8 +148,9 @@ describe.skipIf(skip)('a build stopped from outside', () => {
     const tree = descendants(build.child.pid!);
     build.child.kill('SIGKILL');
     expect(await build.exit).toEqual({ code: null, signal: 'SIGKILL' });
-    expect(build.stderr()).toMatch(/interrupted \(the loopsheet process that started it has gone\)/);
+    // The child says so once it has noticed, after the launcher's exit: its processes are gone first.
     await expectCleanStop(tree);
+    expect(build.stderr()).toMatch(/interrupted \(the loopsheet process that started it has gone\)/);
   }, 60_000);
 
   it('SIGKILL of the process group: the browser quits with it, and the next build removes the staging folder left', async () => {
