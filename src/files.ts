@@ -11,6 +11,8 @@ export const RESULTS_CSV = 'results.csv';
 export const DECLARATION_PAGE = 'index.html';
 export const AUDIT_PAGE = 'audit.html';
 export const DECLARATION_PDF = 'declaration.pdf';
+/** A product's (and a family's) declaration as an ILCD+EPD archive, for programme operators and declaration databases. */
+export const DECLARATION_ILCD = 'declaration.ilcd.zip';
 /** The verification pack: input copies and the SHA-256 manifest of every output. */
 export const VERIFICATION_DIR = 'verification';
 export const MANIFEST_FILE = 'manifest.json';

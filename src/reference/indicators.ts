@@ -22,6 +22,10 @@ export interface Indicator {
   basis: IndicatorBasis;
   /** The indicator's UUID in the published list (the ILCD+EPD data set it is exchanged as); none for a programme's own. */
   uuid?: string;
+  /** The version of that data set, as the published list gives it. */
+  version?: string;
+  /** The UUID of the unit group its unit belongs to, as the published list gives it. */
+  unitGroupUuid?: string;
 }
 
 /** Where the published list is. */
@@ -30,21 +34,32 @@ export const PUBLISHED_INDICATORS_FILE = 'reference-data/ilcd-epd/identifiers/EN
 /** The published list names two indicators by their EF abbreviations; EN 15804+A2 codes them so. */
 const EN_CODES: Record<string, string> = { ADPF: 'ADP-fossil', ADPE: 'ADP-minerals&metals' };
 
-/** Code → name, unit and UUID, as the published list writes them ("Use of net fresh water (FW)", "m3"). */
-function publishedList(): Map<string, { name: string; unit: string; uuid: string }> {
-  const text = readFileSync(new URL(`../../${PUBLISHED_INDICATORS_FILE}`, import.meta.url), 'utf8');
+/** The published list of the EF 3.0 characterisation (the list before EF 3.1), read to recognise supplier datasets made with it. */
+export const PUBLISHED_INDICATORS_EF30_FILE = 'reference-data/ilcd-epd/identifiers/EN15804+A2_EF3.0_indicators.csv';
+
+export interface PublishedIndicator {
+  name: string;
+  unit: string;
+  uuid: string;
+  version: string;
+  unitGroupUuid: string;
+}
+
+/** Code → name, unit, UUID, version and unit group, as a published list writes them ("Use of net fresh water (FW)", "m3"). */
+export function publishedList(file: string): Map<string, PublishedIndicator> {
+  const text = readFileSync(new URL(`../../${file}`, import.meta.url), 'utf8');
   const rows = parse(text, { columns: true, skip_empty_lines: true, relax_column_count: true }) as Array<Record<string, string>>;
-  const list = new Map<string, { name: string; unit: string; uuid: string }>();
+  const list = new Map<string, PublishedIndicator>();
   for (const row of rows) {
     const uuid = (row.UUID ?? '').trim();
     const match = /^(.*)\s+\(([^()]+)\)\s*$/.exec(row['Name (en)'] ?? '');
     if (!uuid || !match) continue;
     const written = match[2]!.trim();
-    list.set(EN_CODES[written] ?? written, { name: match[1]!.trim(), unit: (row['Unit (en)'] ?? '').trim(), uuid });
+    list.set(EN_CODES[written] ?? written, { name: match[1]!.trim(), unit: (row['Unit (en)'] ?? '').trim(), uuid, version: (row.Version ?? '').trim(), unitGroupUuid: (row['UnitGroup UUID'] ?? '').trim() });
   }
   return list;
 }
-const PUBLISHED = publishedList();
+const PUBLISHED = publishedList(PUBLISHED_INDICATORS_FILE);
 
 /** One table of EN 15804+A2 §7.2, its codes in reporting order; `flows` names those computed from the product's own flows. */
 function table(group: IndicatorGroup, codes: readonly string[], flows: readonly string[] = []): Indicator[] {

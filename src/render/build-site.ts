@@ -6,7 +6,10 @@ import { rowsByProduct, type ProductRows } from '../model/by-product.ts';
 import type { Project } from '../model/types.ts';
 import { ToolError, type Problem } from '../problems.ts';
 import type { ResultsSummary } from '../report/results.ts';
-import { familyResults, familyResultsCsv } from '../report/families.ts';
+import { familyResults, familyResultsCsv, type FamilyResults } from '../report/families.ts';
+import { familyExport, ilcdDatasets } from '../report/ilcd-export.ts';
+import { ilcdLink } from '../report/ilcd-link.ts';
+import { ilcdArchive } from './ilcd-archive.ts';
 import { familyDir, familyView, type FamilyView } from '../report/family-view.ts';
 import { buildSiteView, catalogueEntry, type CatalogueEntry, type ProductReport, type SiteView } from '../report/site-view.ts';
 import { FS_CONCURRENCY, mapLimit } from './each-limit.ts';
@@ -16,7 +19,7 @@ import { PACKAGE_ROOT } from './paths.ts';
 import { ResultsWriter, writeCatalogueResults } from './results-files.ts';
 import type { HashedFile } from './verification.ts';
 import { renderSite } from './site.ts';
-import { CHECKLIST_JSON, RESULTS_JSON, RESULTS_CSV, VERIFICATION_DIR } from '../files.ts';
+import { CHECKLIST_JSON, DECLARATION_ILCD, RESULTS_JSON, RESULTS_CSV, VERIFICATION_DIR } from '../files.ts';
 import { CHECKS } from '../calc/checklist.ts';
 import { onInterrupt } from './cleanup.ts';
 
@@ -171,9 +174,11 @@ async function writeFamilies(project: Project, outDir: string, outcomes: readonl
   const views: FamilyView[] = [];
   for (const family of project.families) {
     if (!family.members.some((m) => summaries.has(m.productId))) continue;
-    const results = familyResults(family, summaries, project.declaration.report.family_tolerance);
+    const results: FamilyResults = { ...familyResults(family, summaries, project.declaration.report.family_tolerance), ilcd_epd: ilcdLink(project.declaration, 'family', family.id) };
     const dir = path.join(outDir, familyDir(family.id));
     await mkdir(dir, { recursive: true });
+    const members = results.members.map((m) => ({ product: project.lookups.products.get(m.product_id)!.value, summary: summaries.get(m.product_id)! }));
+    await writeFile(path.join(dir, DECLARATION_ILCD), ilcdArchive(ilcdDatasets(project.declaration, familyExport(results, members))));
     await writeFile(path.join(dir, RESULTS_JSON), `${JSON.stringify(results, null, 1)}\n`);
     await writeFile(path.join(dir, RESULTS_CSV), familyResultsCsv(results));
     views.push(familyView(project, results, names));

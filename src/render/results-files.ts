@@ -10,11 +10,13 @@ import { auditView } from '../report/audit-view.ts';
 import { declarationResultsView } from '../report/declaration-view.ts';
 import type { ProductReport } from '../report/site-view.ts';
 import { auditHtml } from './audit-html.ts';
-import { hashText, type HashedFile } from './verification.ts';
+import { hashBytes, hashText, type HashedFile } from './verification.ts';
+import { ilcdArchive } from './ilcd-archive.ts';
+import { ilcdDatasets, productExport } from '../report/ilcd-export.ts';
 import { renderChartSvg } from './charts.ts';
 import { productInputKey, readsOutside } from './input-key.ts';
 import { productReach } from '../model/reach.ts';
-import { RESULTS_JSON, RESULTS_CSV } from '../files.ts';
+import { DECLARATION_ILCD, RESULTS_JSON, RESULTS_CSV } from '../files.ts';
 import { ToolError } from '../problems.ts';
 
 
@@ -46,8 +48,10 @@ export class ResultsWriter {
     const csv = resultsCsv([summary]);
     await writeFile(path.join(dir, RESULTS_JSON), json);
     await writeFile(path.join(dir, RESULTS_CSV), csv);
+    const archive = ilcdArchive(ilcdDatasets(ctx.project.declaration, productExport(rows.product.value, summary)));
+    await writeFile(path.join(dir, DECLARATION_ILCD), archive);
     // Hashed as written, for the verification manifest.
-    const hashes = [hashText(`${summary.product_id}/results.json`, json), hashText(`${summary.product_id}/results.csv`, csv)];
+    const hashes = [hashText(`${summary.product_id}/results.json`, json), hashText(`${summary.product_id}/results.csv`, csv), hashBytes(`${summary.product_id}/${DECLARATION_ILCD}`, archive)];
     const view = declarationResultsView(ctx, rows, product, summary);
     for (const chart of [...view.charts, ...(view.sensitivity?.scopes.flatMap((scope) => scope.charts) ?? [])]) chart.svg = await renderChartSvg(chart);
     // The reach, found once: checked against the figure graph, then hashed into the input key.

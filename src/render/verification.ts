@@ -23,6 +23,8 @@ const sha256 = (bytes: Buffer | string): string => createHash('sha256').update(b
 
 /** A file's entry in the manifest from the text written to it (UTF-8), without reading it back. */
 export const hashText = (file: string, text: string): HashedFile => ({ file, sha256: sha256(text), bytes: Buffer.byteLength(text) });
+/** A file's entry in the manifest from the bytes written to it. */
+export const hashBytes = (file: string, bytes: Uint8Array): HashedFile => ({ file, sha256: sha256(Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength)), bytes: bytes.byteLength });
 
 /** The input files, in contract order, with their checksums (declaration.json first: it is also the configuration). */
 export async function hashInputs(dataDir: string): Promise<HashedFile[]> {

@@ -1,6 +1,7 @@
 import { formatFixed, formatScientific } from '../format.ts';
 import type { Family, WeightCell } from '../model/families.ts';
 import type { IndicatorValues, ResultsSummary } from './results.ts';
+import type { IlcdLink } from './ilcd-link.ts';
 import { textCell } from './results-csv.ts';
 import { HEADLINE_INDICATOR, HEADLINE_MODULE } from '../reference/headline.ts';
 
@@ -48,6 +49,8 @@ export interface FamilyResults {
   flows: { recycled_content: { pre: FamilyStat; post: FamilyStat; total: FamilyStat } };
   /** Each member's own values (method → module or part, or total → indicator), so the means can be checked from this file alone. */
   member_values: Record<string, Record<string, Record<string, IndicatorValues>>>;
+  /** The family declaration as an ILCD+EPD archive beside this file, and its process dataset's UUID. */
+  ilcd_epd?: IlcdLink;
 }
 
 const HEADLINE = { module: HEADLINE_MODULE, indicator: HEADLINE_INDICATOR } as const;

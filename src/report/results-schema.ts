@@ -81,6 +81,11 @@ const uncertainty = z.strictObject({
   figures: z.array(z.strictObject({ module: z.string(), indicator: z.string(), deterministic: maybe, mean: maybe, median: maybe, p2_5: maybe, p97_5: maybe })),
 });
 
+export const ilcdLink = z.strictObject({
+  archive: z.string().describe('File name of the archive, in the folder of this results.json (declaration.ilcd.zip).'),
+  process_uuid: z.string().describe('UUID of the EPD process dataset in it: name-based, the same from build to build.'),
+});
+
 export const resultsSchema = z
   .strictObject({
     format: z.literal(2).describe('The version of this contract. Format 1 (loopsheet 0.1) listed every step once per indicator under "figures".'),
@@ -143,6 +148,7 @@ export const resultsSchema = z
     data_quality: dataQuality.optional(),
     sensitivity: sensitivity.optional(),
     uncertainty: uncertainty.optional(),
+    ilcd_epd: ilcdLink.optional().describe('The declaration as an ILCD+EPD archive (the open exchange format programme operators take) beside this file, and the UUID of its EPD process dataset. Absent in results written before it was added.'),
     graph: z.strictObject({ steps: z.array(step), cells: z.array(cell), rows: z.array(row) }),
   })
   .describe('out/<product_id>/results.json, format 2: every method, module and indicator of one product, and the graph of calculation steps behind every number (docs/results-format.md).');

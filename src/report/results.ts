@@ -10,6 +10,7 @@ import { productDataQuality, type DataQualityJson } from '../calc/data-quality.t
 import { productSensitivity, type SensitivityJson } from '../calc/sensitivity.ts';
 import { productCompleteness, type CompletenessJson } from './completeness.ts';
 import { productChecklist, type ChecklistJson } from '../calc/checklist.ts';
+import { ilcdLink, type IlcdLink } from './ilcd-link.ts';
 
 /**
  * The results contract (`out/<product_id>/results.json`, format 2): keys and nesting are what
@@ -52,6 +53,8 @@ export interface ResultsJson {
   sensitivity?: SensitivityJson;
   /** Monte Carlo ranges of GWP-total A1-A3 and D, when asked for (declaration.json uncertainty or build --uncertainty). */
   uncertainty?: UncertaintyJson;
+  /** The declaration as an ILCD+EPD archive beside this file, and the UUID of its process dataset (absent in results written before it was added). */
+  ilcd_epd?: IlcdLink;
   graph: GraphJson;
 }
 
@@ -113,6 +116,7 @@ export function resultsSummary(ctx: CalcContext, result: ProductResult): Results
     data_quality: productDataQuality(ctx, result),
     ...withSensitivity(ctx, result),
     ...withUncertainty(ctx, result),
+    ilcd_epd: ilcdLink(ctx.project.declaration, 'product', result.productId),
   };
 }
 

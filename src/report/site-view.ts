@@ -6,7 +6,9 @@ import { findIndicator } from '../reference/indicators.ts';
 import { HEADLINE_INDICATOR, HEADLINE_MODULE, HEADLINE_MODULE_D } from '../reference/headline.ts';
 import { TOOL_NAME, TOOL_VERSION } from '../reference/tool.ts';
 import { PROCESS_CAUTION } from './declaration-view.ts';
-import type { FamilyView } from './family-view.ts';
+import { familyDir, type FamilyView } from './family-view.ts';
+import { processUuidOf } from './ilcd-link.ts';
+import { DECLARATION_ILCD } from '../files.ts';
 import { factorTable } from './factor-table.ts';
 import { methodology } from './methodology.ts';
 import { productView, type CatalogueEntry, type ProductReport, type ProductView } from './product-view.ts';
@@ -54,7 +56,13 @@ export interface SiteView {
   pdfs: boolean;
   methodology: Array<{ title: string; paragraphs: string[] }>;
   products: ProductView[];
-  verification: { inputs: Array<{ file: string; sha256: string; bytes: number }>; datasets: Array<{ name: string; rows: number }>; factorQuality: TableView };
+  verification: {
+    inputs: Array<{ file: string; sha256: string; bytes: number }>;
+    datasets: Array<{ name: string; rows: number }>;
+    factorQuality: TableView;
+    /** Each product's and family's ILCD+EPD archive, with its process dataset's UUID. */
+    exchange: Array<{ kind: string; id: string; name: string; href: string; uuid: string }>;
+  };
   /** The products that have an audit trail page (those with results). */
   audits: ProductView[];
   /** Every product of the catalogue (in the render that writes the catalogue pages). */
@@ -115,7 +123,17 @@ export function buildSiteView(project: Project, problems: readonly Problem[], op
     productsCount: formatCounted(catalogue?.length ?? 0, 'product', 'products'),
     headlineHeads: headlineHeads(),
     checklist: { checks: CHECKS, summary: catalogue ? checklistSummary(catalogue) : '' },
-    verification: { inputs: [...(options.inputs ?? [])], datasets: catalogue ? datasetCounts(project) : [], factorQuality: catalogue ? factorQualityTable(project, catalogue) : { title: '', caption: '', headers: [], rows: [], empty: '' } },
+    verification: {
+      inputs: [...(options.inputs ?? [])],
+      datasets: catalogue ? datasetCounts(project) : [],
+      factorQuality: catalogue ? factorQualityTable(project, catalogue) : { title: '', caption: '', headers: [], rows: [], empty: '' },
+      exchange: catalogue
+        ? [
+            ...catalogue.map((entry) => ({ kind: 'product', id: entry.id, name: entry.name, href: `../${entry.id}/${DECLARATION_ILCD}`, uuid: processUuidOf(project.declaration, 'product', entry.id) })),
+            ...(options.families ?? []).map((family) => ({ kind: 'family', id: family.id, name: family.name, href: `../${familyDir(family.id)}/${DECLARATION_ILCD}`, uuid: processUuidOf(project.declaration, 'family', family.id) })),
+          ]
+        : [],
+    },
     factors: catalogue ? factorTable(project, project.factors.rows, catalogue) : { title: '', caption: '', headers: [], rows: [], empty: '' },
     // Family spreads are known once every member is computed: the catalogue render adds them.
     warnings: [...problems.filter((p) => p.severity === 'warning').map((problem) => formatProblem(problem)), ...(catalogue ? (options.families ?? []).flatMap((family) => family.warnings) : [])],

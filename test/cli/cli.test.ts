@@ -210,7 +210,7 @@ describe('loopsheet build', () => {
     expect(result.stdout).toContain('built 5 products into site');
     const site = path.join(cwd, 'site');
     expect((await readdir(site)).sort()).toEqual(['.loopsheet-cache.json', '.loopsheet-output', 'KV-BR-40', 'KV-CU-BB10', 'KV-EXT-6060', 'KV-EXT-6060-T19', 'KV-EXT-6060-T22', 'assets', 'factors', 'families', 'index.html', 'results.csv', 'results.json', 'verification']);
-    expect((await readdir(path.join(site, 'KV-BR-40'))).sort()).toEqual(['audit.html', 'index.html', 'results.csv', 'results.json']);
+    expect((await readdir(path.join(site, 'KV-BR-40'))).sort()).toEqual(['audit.html', 'declaration.ilcd.zip', 'index.html', 'results.csv', 'results.json']);
     const factors = await readFile(path.join(site, 'factors', 'index.html'), 'utf8');
     expect(factors).toContain('id="f-grid-electricity"');
     const page = await readFile(path.join(site, 'KV-CU-BB10', 'index.html'), 'utf8');
