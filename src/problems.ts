@@ -63,6 +63,16 @@ export const PROBLEM_CODES = {
   PACKAGING_EOL_UNDECLARED: 'products have packaging whose end of life belongs in A5, which they do not declare (left out of the declaration)',
   BIOGENIC_RELEASE_TWICE: 'a treatment factor of packaging with biogenic carbon releases biogenic CO2 that loopsheet already books from the carbon content',
   PRODUCTION_PERIODS: 'a product has output at the same site in more than one period; a declaration rests on one',
+  SUPPLIER_DATASET_PATH: 'a factors.csv supplier_dataset that is not a relative path inside the data folder, or names no file there',
+  SUPPLIER_DATASET_UNREADABLE: 'a supplier dataset that is not well-formed XML, not a readable ILCD archive, or holds no single EPD process dataset',
+  SUPPLIER_VALUES_TWICE: 'a factors.csv row that names a supplier dataset and also gives indicator values of its own',
+  SUPPLIER_NOT_A2: 'a supplier dataset of another EN 15804 version (EN 15804+A1 indicators where EN 15804+A2 ones are expected)',
+  SUPPLIER_NO_A1_A3: 'a supplier dataset that declares no A1-A3 (nor A1, A2 and A3) for its product',
+  SUPPLIER_INDICATOR_MISSING: 'a supplier dataset has no A1-A3 value for an indicator the declaration reports (not available, never 0)',
+  SUPPLIER_UNIT: 'a supplier dataset whose declared unit cannot be converted to the unit of its factors.csv row',
+  SUPPLIER_EXPIRED: 'a supplier dataset whose validity ended before the declaration is issued',
+  SUPPLIER_UNVERIFIED: 'a supplier dataset that records no independent review, used as specific data',
+  SUPPLIER_EF30: 'a supplier dataset characterised with EF 3.0 in a declaration of EF 3.1 indicators',
 } as const satisfies Record<string, string>;
 
 export type ProblemCode = keyof typeof PROBLEM_CODES;

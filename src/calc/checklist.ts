@@ -1,3 +1,4 @@
+import { dataTypeOf } from '../model/rows.ts';
 import { formatCounted, formatSignificant } from '../format.ts';
 import { DISCLAIMERS, MANDATORY_INDICATORS } from '../reference/indicators.ts';
 import { LIFE_CYCLE_MODULES } from '../reference/modules.ts';
@@ -142,9 +143,10 @@ export function productChecklist(ctx: CalcContext, result: ProductResult, module
     if (!seen.has(use.factor) && !findGas(use.factor)) {
       seen.add(use.factor);
       const row = ctx.factorRow(use.factor).value;
-      const limit = row.data_type === 'specific' ? 5 : 10;
+      const type = dataTypeOf(row);
+      const limit = type === 'specific' ? 5 : 10;
       if (row.reference_year === null) undated.add(`factor ${use.factor}`);
-      else if (year - row.reference_year > limit) tooOld.push(`factor ${use.factor} (${row.reference_year}, ${row.data_type ?? 'generic'}: ${year - row.reference_year} years)`);
+      else if (year - row.reference_year > limit) tooOld.push(`factor ${use.factor} (${row.reference_year}, ${type ?? 'generic'}: ${year - row.reference_year} years)`);
     }
     for (const group of use.drivers) {
       for (const driver of group) {

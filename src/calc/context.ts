@@ -1,14 +1,15 @@
 import type { Project, Material, EolRow, FactorRow } from '../model/types.ts';
+import type { SupplierFactor } from '../model/supplier-datasets.ts';
 import { indicatorValue } from '../model/types.ts';
 import type { Row, Table } from '../schema/table.ts';
 import { findGas, GWP_SOURCES, type GwpSet } from '../reference/ghg.ts';
 import { conversionFactor } from '../reference/units.ts';
 import { jsonPath } from '../load/json.ts';
-import { cellTerm, factorTerm, figureTerm, type CellRef, type FigureGraph, type Term } from '../trace/graph.ts';
+import { cellTerm, factorTerm, figureTerm, type CellRef, type FactorRef, type FigureGraph, type Term } from '../trace/graph.ts';
 import { flowFactor } from '../process/run.ts';
 import { processReference } from '../process/references.ts';
 import { PROCESS_PREFIX } from '../schema/process-kinds.ts';
-import { processStep, referenceStep } from '../trace/ids.ts';
+import { processStep, referenceStep, supplierStep } from '../trace/ids.ts';
 import type { Vec } from './vector.ts';
 import { eolRowFor } from '../model/lookups.ts';
 
@@ -79,6 +80,8 @@ export class CalcContext {
     const row = this.project.lookups.factors.get(id);
     if (!row) throw new Error(`factor ${id} not in the validated project`);
     const values: Vec = this.indicators.map((code) => indicatorValue(row.value, code) ?? Number.NaN);
+    const supplier = this.project.suppliers.get(id);
+    if (supplier) return this.supplierFactor(row, supplier, values);
     const ref = { file: this.project.factors.file, line: row.line, factorId: id, raw: row.raw };
     // Terms are immutable and shared by every figure that uses the factor under the same symbol.
     const terms = new Map<string, Term>();
@@ -88,6 +91,52 @@ export class CalcContext {
       return cached;
     };
     return { id, unit: row.value.unit, values, term, ensure: () => undefined };
+  }
+
+  /**
+   * A factor read from a supplier's ILCD+EPD dataset: F = V · k, V the supplier's declared
+   * A1-A3 per declared unit (each indicator's element of the dataset), k the declared units per
+   * unit of the factors.csv row (from the dataset's reference amount and mass).
+   */
+  private supplierFactor(row: Row<FactorRow>, supplier: SupplierFactor, values: Vec): ResolvedFactor {
+    const id = supplier.factorId;
+    const nodeId = supplierStep.factor(id);
+    const kId = supplierStep.conversion(id);
+    const project = this.project;
+    const indicators = this.indicators;
+    const ensure = (graph: FigureGraph) => {
+      if (graph.get(nodeId)) return;
+      const dataset = supplier.dataset;
+      const elements: NonNullable<FactorRef['elements']> = {};
+      for (const code of indicators) {
+        const read = supplier.values.get(code);
+        if (read?.amount) elements[code] = { line: read.amount.line, column: read.amount.column, module: read.parts ? 'A1+A2+A3' : read.amount.module, value: read.parts ? read.parts.map((p) => p.text).join(' + ') : read.amount.text };
+      }
+      const first = Object.values(elements).sort((a, b) => a.line - b.line)[0];
+      const ref: FactorRef = { file: dataset.file, line: first?.line ?? 1, factorId: id, raw: {}, elements };
+      graph.add({
+        kind: 'scalar',
+        id: kId,
+        value: supplier.perUnit,
+        unit: `declared units per ${row.value.unit}`,
+        formula: `k = ${supplier.perUnit}`,
+        description: `Declared units of the supplier’s dataset per ${row.value.unit} of factor ${id}: ${supplier.conversion.text}.`,
+        terms: [
+          cellTerm({ file: project.factors.file, line: row.line, column: 'supplier_dataset', value: row.raw.supplier_dataset ?? '' }, 'dataset'),
+          cellTerm({ file: project.factors.file, line: row.line, column: 'unit', value: row.raw.unit ?? '' }, 'unit'),
+          ...supplier.conversion.elements.map((element) => cellTerm({ file: element.file, line: element.line, column: element.what, value: element.value }, element.what)),
+        ],
+      });
+      graph.add({
+        kind: 'vector',
+        id: nodeId,
+        values,
+        formula: 'F = V(A1-A3) · k',
+        description: `Factor ${id} per ${row.value.unit} from the supplier’s own declaration ${supplier.file} (“${dataset.name}”, EN 15804+A2): its declared A1-A3 per declared unit (module C and D of the supplier’s product are not used), times k. Specific data.`,
+        terms: [factorTerm(ref, 'V'), figureTerm(kId, 'k')],
+      });
+    };
+    return { id, unit: row.value.unit, values, term: (symbol) => figureTerm(nodeId, symbol), ensure };
   }
 
   /**

@@ -1,3 +1,4 @@
+import { dataTypeOf } from '../model/rows.ts';
 import { factorContributions } from './contributions.ts';
 import type { CalcContext } from './context.ts';
 import type { ProductResult } from './product.ts';
@@ -35,7 +36,7 @@ export function factorQuality(ctx: CalcContext, id: string): FactorQuality {
     scores: { ter: ter ?? null, ger: ger ?? null, tir: tir ?? null, p: p ?? null },
     dqr,
     rating: dqr === null ? null : dqrRating(dqr),
-    data_type: row.value.data_type ?? null,
+    data_type: dataTypeOf(row.value),
     unscored_reason: missing.length === 0 ? null : missing.length === 4 ? 'not scored' : `partly scored (${missing.join(', ')} missing)`,
   };
 }

@@ -40,6 +40,8 @@ export interface FlowPropertyValue extends Located {
 
 export interface ProductFlow {
   file: string;
+  /** The dataset's text, for quoting an element's line. */
+  source: string;
   uuid: string;
   /** Its flow properties; the reference property first. */
   properties: FlowPropertyValue[];
@@ -49,6 +51,8 @@ export interface ProductFlow {
 
 export interface EpdDataset {
   file: string;
+  /** The dataset's text, for quoting an element's line. */
+  source: string;
   uuid: string;
   name: string;
   typeOfDataSet: string | undefined;
@@ -136,6 +140,7 @@ export function readProcessDataset(file: string, text: string): EpdDataset {
   const year = childOf(time, NS.common, 'referenceYear');
   return {
     file,
+    source: text,
     uuid: (childOf(info, NS.common, 'UUID')?.text ?? '').toLowerCase(),
     name: childrenOf(childOf(info, NS.process, 'name'), NS.process, 'baseName').find((n) => n.attrs[`{${NS.xml}}lang`] === 'en')?.text ?? childOf(childOf(info, NS.process, 'name'), NS.process, 'baseName')?.text ?? '',
     typeOfDataSet: pathOf(modelling, [NS.process, 'LCIMethodAndAllocation'], [NS.process, 'typeOfDataSet'])?.text,
@@ -175,7 +180,7 @@ export function readFlowDataset(file: string, text: string): ProductFlow {
     const value = childOf(data, NS.mat, 'Data');
     if (details && value) conversionToKg = { ...at(file, value), value: number(value.text) };
   }
-  return { file, uuid: (pathOf(information, [NS.flow, 'dataSetInformation'], [NS.common, 'UUID'])?.text ?? '').toLowerCase(), properties: sorted, conversionToKg };
+  return { file, source: text, uuid: (pathOf(information, [NS.flow, 'dataSetInformation'], [NS.common, 'UUID'])?.text ?? '').toLowerCase(), properties: sorted, conversionToKg };
 }
 
 /**

@@ -18,6 +18,7 @@ import type { CsvFileSchema, RowOf } from '../schema/csv-file.ts';
 import { nearestName } from '../reference/nearest.ts';
 import { crossFileChecks } from './checks/index.ts';
 import { foldIdKnockOns } from './checks/root-causes.ts';
+import { readSupplierDatasets } from './supplier-datasets.ts';
 
 export * from './types.ts';
 import type { Project } from './types.ts';
@@ -107,10 +108,15 @@ export async function loadProject(dirArgument: string): Promise<ProjectLoad> {
   const extras = extraCodes.filter((code) => factorIndicators.includes(code));
   const indicators = declaration?.indicators ? indicatorSet.inReportingOrder([...declaration.indicators, ...extras]) : indicatorSet.inReportingOrder([...factorIndicators, ...flowIndicators]);
 
-  if (products && bom && materials && eol && activities && transport && factors && process && processRead && site && production && sitesRead && familyRows && familiesRead && excluded) {
+  // Supplier declarations (factors.csv supplier_dataset) fill their rows' values before any check reads them.
+  const supplierRead = factors ? await readSupplierDatasets(dir, factors, declaration, indicators) : undefined;
+  if (supplierRead) problems.push(...supplierRead.problems);
+
+  if (products && bom && materials && eol && activities && transport && factors && supplierRead && process && processRead && site && production && sitesRead && familyRows && familiesRead && excluded) {
     const processes = processRead.processes;
+    const suppliers = supplierRead.suppliers;
     const lookups = projectLookups({ products, materials, eol, factors, process, processes, bom, activities, transport, site, excluded });
-    const tables = { dir, indicators, factorIndicators, products, bom, materials, eol, activities, transport, factors, process, processes, site, production, allocation: sitesRead.allocation, familyRows, families: familiesRead.families, excluded, lookups, indicatorSet };
+    const tables = { dir, indicators, factorIndicators, products, bom, materials, eol, activities, transport, factors, process, processes, site, production, allocation: sitesRead.allocation, familyRows, families: familiesRead.families, excluded, lookups, indicatorSet, suppliers };
     // Cross-file rules run even when declaration.json is broken, so one run shows every problem.
     problems.push(...crossFileChecks({ ...tables, declaration, declarationFile }));
     const sorted = sortProblems(foldIdKnockOns(problems));

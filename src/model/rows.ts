@@ -16,3 +16,6 @@ export function indicatorValue(factor: FactorRow, code: string): number | null {
   const value = (factor as unknown as Record<string, number | null | undefined>)[code];
   return value ?? null;
 }
+
+/** A factor row's data type: as stated; a supplier's own declaration (supplier_dataset) is specific data unless stated otherwise. */
+export const dataTypeOf = (factor: FactorRow): 'specific' | 'generic' | null => factor.data_type ?? (factor.supplier_dataset !== undefined ? 'specific' : null);

@@ -1,3 +1,4 @@
+import type { SupplierFactor } from './supplier-datasets.ts';
 import type { Product, BomLine, Material, EolRow, Activity, TransportLeg, FactorRow, ExcludedFlow } from './rows.ts';
 import type { Declaration } from '../schema/declaration.ts';
 import type { JsonCell, JsonFile } from '../load/json.ts';
@@ -50,4 +51,6 @@ export interface Project {
   lookups: ProjectLookups;
   /** The indicators of this project: EN 15804+A2's and the programme's own (declaration.json extra_indicators). */
   indicatorSet: IndicatorSet;
+  /** Supplier declarations read as factors (factors.csv supplier_dataset), by factor id. */
+  suppliers: ReadonlyMap<string, SupplierFactor>;
 }

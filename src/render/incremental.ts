@@ -4,7 +4,7 @@ import type { Project } from '../model/types.ts';
 import { TOOL_VERSION } from '../reference/tool.ts';
 import type { CatalogueEntry } from '../report/site-view.ts';
 import { physicalLines } from '../report/written.ts';
-import { contextChanges, type InputKey } from './input-key.ts';
+import { contextChanges, suppliersReached, type InputKey } from './input-key.ts';
 import { inputTables } from '../model/reach.ts';
 
 export { CACHE_FILE };
@@ -110,7 +110,10 @@ export function changeReasons(project: Project, previous: PreviousBuild, product
     const before = previous.inputs.get(file);
     for (const line of lines) if (now[line - 1] !== before?.[line - 1]) reasons.push(`${file} line ${line}`);
   }
-  if (reasons.length === 0) return ['an input row moved or a header changed'];
+  if (reasons.length === 0) {
+    const datasets = suppliersReached(project, new Map([...input.rows].map(([file, lines]) => [file, new Set(lines)])));
+    return [datasets.length ? `a supplier dataset it reads (${datasets.map((s) => s.file).join(', ')}) changed, or an input row moved or a header changed` : 'an input row moved or a header changed'];
+  }
   return reasons;
 }
 

@@ -1,6 +1,7 @@
 import { createHash } from 'node:crypto';
 import type { ProductRows } from '../model/by-product.ts';
 import type { Project } from '../model/types.ts';
+import type { SupplierFactor } from '../model/supplier-datasets.ts';
 import { siteContext } from '../report/site-view.ts';
 import { inputTables, productReach } from '../model/reach.ts';
 import { physicalLines } from '../report/written.ts';
@@ -64,16 +65,25 @@ function recordEnd(table: Table<unknown>, line: number): number {
   return ends.get(line) ?? line;
 }
 
+/** The supplier datasets whose factors.csv rows a product reaches, in factor-row order. */
+export function suppliersReached(project: Project, reach: ReadonlyMap<string, ReadonlySet<number>>): SupplierFactor[] {
+  const lines = reach.get(project.factors.file);
+  if (!lines || project.suppliers.size === 0) return [];
+  return [...project.suppliers.values()].filter((supplier) => lines.has(project.lookups.factors.get(supplier.factorId)?.line ?? -1));
+}
+
 /**
  * The first term of a product's figure graph that reads an input row outside its reach
  * (declaration.json aside: it is part of the page context), or undefined when there is none.
  */
 export function readsOutside(project: Project, reach: ReadonlyMap<string, ReadonlySet<number>>, graph: FigureGraph): { figure: string; file: string; line: number } | undefined {
   const context = project.declarationFile.file;
+  // A supplier's dataset is covered whole, by its checksum, where its factor row is reached.
+  const datasets = new Set(suppliersReached(project, reach).flatMap((supplier) => [supplier.dataset.file, ...(supplier.dataset.flow ? [supplier.dataset.flow.file] : [])]));
   for (const node of graph.nodes.values()) {
     for (const term of node.terms) {
       const at = term.kind === 'cell' ? term.cell : term.kind === 'factor' ? term.factor : undefined;
-      if (at && at.file !== context && !reach.get(at.file)?.has(at.line)) return { figure: node.id, file: at.file, line: at.line };
+      if (at && at.file !== context && !datasets.has(at.file) && !reach.get(at.file)?.has(at.line)) return { figure: node.id, file: at.file, line: at.line };
     }
   }
   return undefined;
@@ -94,5 +104,7 @@ export function productInputKey(project: Project, rows: ProductRows, context: st
     hash.update(`\n${file}:header\n${text[table.csv.header.line - 1] ?? ''}`);
     for (const line of lines) hash.update(`\n${file}:${line}\n${text.slice(line - 1, recordEnd(table, line)).join('\n')}`);
   }
+  // A supplier's dataset a reached factor row reads: its bytes, by checksum.
+  for (const supplier of suppliersReached(project, byFile)) hash.update(`\nsupplier:${supplier.file}\n${supplier.sha256}`);
   return { key: hash.digest('hex'), rows: sorted };
 }

@@ -26,9 +26,17 @@ export const hashText = (file: string, text: string): HashedFile => ({ file, sha
 /** A file's entry in the manifest from the bytes written to it. */
 export const hashBytes = (file: string, bytes: Uint8Array): HashedFile => ({ file, sha256: sha256(Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength)), bytes: bytes.byteLength });
 
-/** The input files, in contract order, with their checksums (declaration.json first: it is also the configuration). */
-export async function hashInputs(dataDir: string): Promise<HashedFile[]> {
-  const files = [{ file: DECLARATION_FILE, optional: false }, ...CSV_FILES.map((schema) => ({ file: schema.file, optional: schema.optional }))];
+/**
+ * The input files, in contract order, with their checksums (declaration.json first: it is
+ * also the configuration), then the supplier datasets factors.csv names (`extra`, paths
+ * relative to the data folder), in path order.
+ */
+export async function hashInputs(dataDir: string, extra: readonly string[] = []): Promise<HashedFile[]> {
+  const files = [
+    { file: DECLARATION_FILE, optional: false },
+    ...CSV_FILES.map((schema) => ({ file: schema.file, optional: schema.optional })),
+    ...[...new Set(extra)].sort().map((file) => ({ file, optional: false })),
+  ];
   const hashed = await Promise.all(
     files.map(async ({ file, optional }): Promise<HashedFile | undefined> => {
       let bytes: Buffer;
@@ -48,7 +56,10 @@ export async function hashInputs(dataDir: string): Promise<HashedFile[]> {
 export async function copyInputs(dataDir: string, outDir: string, inputs: readonly HashedFile[]): Promise<void> {
   const dir = path.join(outDir, VERIFICATION_DIR, 'inputs');
   await mkdir(dir, { recursive: true });
-  for (const input of inputs) await copyFile(path.join(dataDir, input.file), path.join(dir, input.file));
+  for (const input of inputs) {
+    await mkdir(path.dirname(path.join(dir, input.file)), { recursive: true });
+    await copyFile(path.join(dataDir, input.file), path.join(dir, input.file));
+  }
 }
 
 async function listFiles(root: string, dir = ''): Promise<string[]> {

@@ -127,6 +127,10 @@ export function auditView(project: Project, result: ProductResult, bom: readonly
   const tables = inputTables(project);
   const files = new Map<string, { text: string }>([...tables].map(([file, table]) => [file, table.csv]));
   files.set(project.declarationFile.file, project.declarationFile);
+  for (const supplier of project.suppliers.values()) {
+    files.set(supplier.dataset.file, { text: supplier.dataset.source });
+    if (supplier.dataset.flow) files.set(supplier.dataset.flow.file, { text: supplier.dataset.flow.source });
+  }
   const byFile = new Map<string, AuditView['inputs'][number]['rows']>();
   for (const [anchor, entry] of [...inputs].sort(([, a], [, b]) => (a.file === b.file ? a.line - b.line : a.file < b.file ? -1 : 1))) {
     if (!byFile.has(entry.file)) byFile.set(entry.file, []);
@@ -170,8 +174,13 @@ function termView(graph: FigureGraph, term: Term, hrefs: ReadonlyMap<string, str
       const qualifier = term.cell.column === term.symbol ? '' : term.cell.column;
       return { symbol: term.symbol, href: inputHref(inputs, term.cell.file, term.cell.line), kind: 'cell', text: term.cell.value === '' ? '“”' : term.cell.value, qualifier, note: ` ${qualifier ? `${qualifier} ` : ''}“${term.cell.value}”` };
     }
-    case 'factor':
-      return { symbol: term.symbol, href: inputHref(inputs, term.factor.file, term.factor.line), kind: 'factor', text: term.factor.factorId, qualifier: 'factor', note: ` factor ${term.factor.factorId}` };
+    case 'factor': {
+      // A supplier's dataset: every element read is an input row of the page, under the dataset's name.
+      const elements = Object.values(term.factor.elements ?? {});
+      for (const element of elements) inputHref(inputs, term.factor.file, element.line);
+      const note = elements.length ? ` factor ${term.factor.factorId}, the supplier’s declared A1-A3 (${elements.length} elements of ${term.factor.file})` : ` factor ${term.factor.factorId}`;
+      return { symbol: term.symbol, href: inputHref(inputs, term.factor.file, term.factor.line), kind: 'factor', text: term.factor.factorId, qualifier: 'factor', note };
+    }
   }
 }
 

@@ -23,6 +23,10 @@ const row = z.strictObject({
   file: z.string(),
   line: z.number().int(),
   factor_id: z.string().describe('A factor row stands for its cell of whichever indicator is read (its factor_id cell for a scalar step).'),
+  elements: z
+    .record(z.string(), z.strictObject({ line: z.number().int(), column: z.number().int(), module: z.string(), value: z.string() }))
+    .optional()
+    .describe("A supplier's ILCD+EPD dataset read as a factor: file is the dataset (archive.zip!ILCD/processes/<uuid>.xml inside an archive), and each indicator's value is the element at line and column, of the module named, with its text as written."),
 });
 const term = z.union([
   z.string().describe('Another step, by id.'),

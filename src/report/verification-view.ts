@@ -1,3 +1,4 @@
+import { dataTypeOf } from '../model/rows.ts';
 import type { Project } from '../model/project.ts';
 import { dqrBandsText, dqrRating, pedigreeDqr } from '../reference/dqr.ts';
 import { factorHref } from './figure-links.ts';
@@ -26,7 +27,7 @@ export function factorQualityTable(project: Project, catalogue: readonly Catalog
           score(ter), score(ger), score(tir), score(p),
           { text: formatFixed(dqr, 2), numeric: true },
           txt(dqr === null ? (missing.length === 4 ? 'not scored' : 'partly scored') : dqrRating(dqr)),
-          txt(row.value.data_type ?? 'not stated'),
+          txt(dataTypeOf(row.value) ?? 'not stated'),
           readBy(row.line),
         ],
       };

@@ -19,6 +19,7 @@ function baseShape(d: Dialect) {
     p: pedigreeScore('Precision, 1 (best) to 5; empty: not scored.'),
     gsd: gsdCell(d, 'Uncertainty of the row’s values for an uncertainty run: geometric standard deviation of a lognormal whose median is each value (one draw scales every indicator of the row); empty: fixed.'),
     data_type: optionalChoice('specific (your own or a supplier’s data) or generic (database data); empty: not stated.', ['specific', 'generic']),
+    supplier_dataset: text('A supplier’s own declaration as an ILCD+EPD dataset (an EPD process dataset .xml, or an ILCD archive .zip with its product flow), path relative to the data folder (e.g. suppliers/billet.ilcd.zip): the row’s indicator values are then the supplier’s declared A1-A3, converted to the row’s unit through the dataset’s own declared unit and mass; leave the indicator cells empty. Such a row counts as specific data.'),
     reference_year: yearCell('The year the row’s data represent; the verifier’s checklist holds it to declaration.json reference_year (specific data at most 5, generic at most 10 years older: common practice); empty: not given.'),
   };
 }

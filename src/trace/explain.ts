@@ -65,6 +65,14 @@ export function explainFigure(graph: FigureGraph, figure: ResolvedFigure, maxDep
         walk(term.id, branch, term.symbol, depth + 1);
       } else if (term.kind === 'cell') {
         lines.push(`${branch}${term.symbol}  ${term.cell.file}:${term.cell.line} ${term.cell.column} = ${JSON.stringify(term.cell.value)}`);
+      } else if (term.factor.elements) {
+        // A supplier's dataset: the indicator's own element — file, line, module, indicator and the text written there.
+        const element = figure.code === undefined ? undefined : term.factor.elements[figure.code];
+        lines.push(
+          element
+            ? `${branch}${term.symbol}  ${term.factor.file}:${element.line} ${element.module} ${figure.code} = ${JSON.stringify(element.value)}  (factor ${term.factor.factorId}, the supplier’s declared value)`
+            : `${branch}${term.symbol}  ${term.factor.file} has no ${figure.code ?? 'value'} for A1-A3  (factor ${term.factor.factorId}: not available)`,
+        );
       } else {
         const column = figure.code ?? 'factor_id';
         lines.push(`${branch}${term.symbol}  ${term.factor.file}:${term.factor.line} ${column} = ${JSON.stringify(term.factor.raw[column] ?? '')}  (factor ${term.factor.factorId})`);

@@ -20,6 +20,11 @@ export interface RowJson {
   file: string;
   line: number;
   factor_id: string;
+  /**
+   * A supplier's ILCD+EPD dataset read as a factor: `file` is the dataset (`archive.zip!ILCD/processes/<uuid>.xml`
+   * inside an archive) and each indicator's value is the element at `line` and `column` (its module, its text as written).
+   */
+  elements?: Record<string, { line: number; column: number; module: string; value: string }>;
 }
 
 /** A cell of an input file as written, where the reader has the inputs (a build's copies in its verification pack). */
@@ -80,7 +85,7 @@ export function graphJson(graph: FigureGraph, indicators: readonly string[]): Gr
         let index = rowIndex.get(key);
         if (index === undefined) {
           rowIndex.set(key, (index = rows.length));
-          rows.push({ file: t.factor.file, line: t.factor.line, factor_id: t.factor.factorId });
+          rows.push({ file: t.factor.file, line: t.factor.line, factor_id: t.factor.factorId, ...(t.factor.elements ? { elements: t.factor.elements } : {}) });
         }
         return { row: index };
       }
@@ -170,6 +175,12 @@ export class GraphReader {
       }
       if ('cell' in term) return { symbol, cell: this.graph.cells[term.cell]! };
       const row = this.graph.rows[term.row]!;
+      if (row.elements) {
+        // A supplier's dataset: the indicator's own element, its module and the text written there.
+        const element = address.indicator === undefined ? undefined : row.elements[address.indicator];
+        if (!element) return { symbol, cell: { file: row.file, line: row.line, column: address.indicator === undefined ? 'factor_id' : `${address.indicator} (not in the dataset)`, value: i < 0 ? row.factor_id : '' } };
+        return { symbol, cell: { file: row.file, line: element.line, column: `${element.module} ${address.indicator}`, value: element.value } };
+      }
       const column = address.indicator ?? 'factor_id';
       return { symbol, cell: { file: row.file, line: row.line, column, value: i < 0 ? row.factor_id : this.written(row.file, row.line, column) } };
     });

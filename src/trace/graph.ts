@@ -32,6 +32,12 @@ export interface FactorRef {
   factorId: string;
   /** The row's cells as written, by column. */
   raw: Record<string, string>;
+  /**
+   * A supplier's dataset read as a factor: where each indicator's value is, element by
+   * element (`file` is then the dataset, `line` its first element read). Absent for a
+   * factors.csv row, whose indicator values are its own cells.
+   */
+  elements?: Record<string, { line: number; column: number; module: string; value: string }>;
 }
 
 export type Term =

@@ -63,6 +63,12 @@ export const flowStep = {
   biogenicCo2: (of: 'product' | 'packaging') => flowResultStep('biogenic_co2_kg', of),
 };
 
+/** A factor read from a supplier's ILCD+EPD dataset: its values, and the conversion from the supplier's declared unit. */
+export const supplierStep = {
+  factor: (factorId: string) => `supplier/${factorId}`,
+  conversion: (factorId: string) => `supplier/${factorId}/k`,
+};
+
 export const referenceStep = {
   gwp: (set: string, gas: string) => `reference/gwp/${set}/${gas}`,
   unit: (from: string, to: string) => `reference/unit/${from}->${to}`,

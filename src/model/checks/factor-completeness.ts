@@ -82,7 +82,8 @@ export function factorCompleteness(ctx: CheckContext): void {
   const used = usedFactors(ctx);
   for (const row of p.factors.rows) {
     const where = used.get(row.value.factor_id);
-    if (!where) continue;
+    // A supplier dataset's missing indicators are reported where they are missing, in the dataset.
+    if (!where || row.value.supplier_dataset !== undefined) continue;
     const missing = asked.filter((code) => present.has(code) && indicatorValue(row.value, code) === null);
     if (missing.length === 0) continue;
     const first = missing[0]!;
