@@ -97,6 +97,11 @@ export class ChangedCells {
 function forEachCell(graph: GraphReader, visit: (cell: CellJson) => void): void {
   for (const cell of graph.graph.cells) visit(cell);
   for (const row of graph.graph.rows) {
+    // A supplier's dataset: each indicator's element, named by its module and indicator (as GraphReader.figure names it).
+    if (row.elements) {
+      for (const [code, element] of Object.entries(row.elements)) visit({ file: row.file, line: element.line, column: `${element.module} ${code}`, value: element.value });
+      continue;
+    }
     for (const { code } of graph.indicators) {
       const value = graph.written(row.file, row.line, code);
       if (value !== undefined) visit({ file: row.file, line: row.line, column: code, value });

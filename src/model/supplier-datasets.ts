@@ -177,6 +177,16 @@ function judge(dataset: EpdDataset, factorId: string, declaration: Declaration |
       }),
     );
   }
+  // EN 15804+A2: GWP-total = GWP-fossil + GWP-biogenic + GWP-luluc; rounding within 0.1 % is tolerated (as for factors.csv rows).
+  const gwp = ['GWP-total', 'GWP-fossil', 'GWP-biogenic', 'GWP-luluc'].map((code) => values.get(code)?.declared ?? null);
+  if (gwp.every((v) => v !== null)) {
+    const [total, ...parts] = gwp as number[];
+    const sum = parts.reduce((a, b) => a + b, 0);
+    if (Math.abs(total! - sum) > 1e-3 * Math.max(Math.abs(total!), Math.abs(sum)) + 1e-12) {
+      const element = values.get('GWP-total')!.amount!;
+      problems.push(located(element, 'warning', 'GWP_SUM_MISMATCH', 'A1-A3 GWP-total', element.text, `is not GWP-fossil + GWP-biogenic + GWP-luluc = ${sum} in the supplier’s A1-A3 (factor ${factorId})`, { expected: `${sum} (within 0.1 %)` }));
+    }
+  }
   const ef30 = [...dataset.indicators.values()].find((indicator) => indicator.characterisation === 'EF 3.0' && asked.includes(indicator.code));
   if (ef30) {
     problems.push(located(ef30, 'warning', 'SUPPLIER_EF30', 'indicator', ef30.code, `is characterised with EF 3.0 (its UUID is on the EF 3.0 list); this declaration reports EF 3.1 indicators, so factor ${factorId} mixes two characterisations`, { hint: 'ask the supplier for EF 3.1 results, or state the difference in the declaration' }));

@@ -62,7 +62,10 @@ export async function readPreviousBuild(outDir: string): Promise<PreviousBuild |
   if (!results?.products || results.format !== RESULTS_FORMAT) return undefined;
   const inputs = new Map<string, string[]>();
   const inputsDir = path.join(outDir, VERIFICATION_DIR, 'inputs');
-  for (const file of await readdir(inputsDir).catch(() => [] as string[])) inputs.set(file, physicalLines({ text: await readFile(path.join(inputsDir, file), 'utf8') }));
+  // The CSV and JSON inputs, by line (a supplier dataset, in a folder of its own, counts by its checksum in the input key).
+  for (const entry of await readdir(inputsDir, { withFileTypes: true }).catch(() => [])) {
+    if (entry.isFile()) inputs.set(entry.name, physicalLines({ text: await readFile(path.join(inputsDir, entry.name), 'utf8') }));
+  }
   const manifest = await readJson<{ outputs: HashedFile[] }>(path.join(outDir, VERIFICATION_DIR, MANIFEST_FILE));
   return {
     dir: outDir,

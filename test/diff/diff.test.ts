@@ -110,7 +110,7 @@ describe('loopsheet diff on two builds of the demo', () => {
     const oldOut = path.join(work, 'old');
     const newOut = path.join(work, 'new');
     expect((await runCli(['build', '--data', data, '--out', oldOut, '--no-pdf'])).code).toBe(0);
-    // factors.csv line 4: al-remelted-ingot GWP-total 0.625 → 0.705 (read by the three profiles); bom.csv line 3: recycled_post 45% → 55% (KV-EXT-6060 only).
+    // factors.csv line 4: al-remelted-ingot GWP-total 0.625 → 0.705 (read by two profiles; KV-EXT-6060-T22 reads its billet supplier's dataset); bom.csv line 3: recycled_post 45% → 55% (KV-EXT-6060 only).
     await editLine(path.join(data, 'factors.csv'), 4, 'al-remelted-ingot,Aluminium ingot remelted from pre- and post-consumer scrap,kg,loopsheet illustrative factor set demo-1,Invented for the demo (illustrative),0.625,', 'al-remelted-ingot,Aluminium ingot remelted from pre- and post-consumer scrap,kg,loopsheet illustrative factor set demo-1,Invented for the demo (illustrative),0.705,');
     await editLine(path.join(data, 'bom.csv'), 3, '30%,45%', '30%,55%');
     // A comment line above moves every factor row down one line: rows are matched by key, not line.
@@ -119,7 +119,7 @@ describe('loopsheet diff on two builds of the demo', () => {
 
     const md = await runCli(['diff', oldOut, newOut]);
     expect(md.code, md.stderr).toBe(0);
-    expect(md.stdout).toContain('5 products compared; 3 with figures that moved more than 1 %; 0 added; 0 removed.');
+    expect(md.stdout).toContain('5 products compared; 2 with figures that moved more than 1 %; 0 added; 0 removed.');
     expect(md.stdout).toContain('#### `KV-EXT-6060`');
     expect(md.stdout).toContain("`factors.csv` line 5 (`al-remelted-ingot`) `GWP-total`: `0.625` → `0.705` (was line 4)");
     expect(md.stdout).toContain("`bom.csv` line 3 (`KV-EXT-6060 · L1`) `recycled_post`: `45%` → `55%`");

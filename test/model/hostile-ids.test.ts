@@ -63,8 +63,9 @@ describe('a build writes nothing outside --out', () => {
       [/(?<![\w-])building-metals(?![\w-])/g, 'b/../../../../../scenario-escape'],
       [/(?<=^KV-EXT-6060,(?:A2,)?)L1(?=,)/gm, 'L1/../../../../../line-escape'],
     ];
-    for (const name of await readdir(data)) {
-      const file = path.join(data, name);
+    for (const entry of await readdir(data, { withFileTypes: true })) {
+      if (!entry.isFile()) continue;
+      const file = path.join(data, entry.name);
       const text = await readFile(file, 'utf8');
       const edited = renames.reduce((t, [pattern, to]) => t.replace(pattern, to), text);
       if (edited !== text) await writeFile(file, edited);

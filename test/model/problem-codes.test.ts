@@ -3,6 +3,7 @@ import { rm, truncate, writeFile, readFile } from 'node:fs/promises';
 import path from 'node:path';
 import { loadProject } from '../../src/model/project.ts';
 import { PROBLEM_CODES, type Problem, type ProblemCode } from '../../src/problems.ts';
+import { strFromU8, strToU8, unzipSync, zipSync } from 'fflate';
 import { demoCopy, editFile, editLine, removeDir } from '../helpers.ts';
 
 /**
@@ -20,6 +21,21 @@ const at = (dir: string, file: string) => path.join(dir, file);
 /** process.csv is optional and the demo has none: these cases write one (header on line 1). */
 const processCsv = (d: string, rows: string[]) => writeFile(at(d, 'process.csv'), ['process_id,kind,parameter,value,unit,source', ...rows].join('\n') + '\n');
 const potline = ['potline-1,electrolysis-aluminium,technology,CWPB,,log', 'potline-1,electrolysis-aluminium,cell_voltage_v,4.2,V,log'];
+
+/** The demo's supplier dataset, data/suppliers/KV-S-0117.ilcd.zip: its EPD process dataset edited in place, the archive written again. */
+const SUPPLIER = 'suppliers/KV-S-0117.ilcd.zip';
+const SUPPLIER_PROCESS = /^suppliers\/KV-S-0117\.ilcd\.zip!ILCD\/processes\/[0-9a-f-]{36}\.xml$/;
+async function editSupplier(dir: string, edit: (xml: string) => string): Promise<void> {
+  const entries = unzipSync(await readFile(at(dir, SUPPLIER)));
+  const name = Object.keys(entries).find((entry) => entry.startsWith('ILCD/processes/'))!;
+  const before = strFromU8(entries[name]!);
+  const after = edit(before);
+  if (after === before) throw new Error('the supplier dataset edit changed nothing');
+  entries[name] = strToU8(after);
+  await writeFile(at(dir, SUPPLIER), zipSync(entries));
+}
+/** The demo's supplier row, the last of factors.csv. */
+const SUPPLIER_ROW = 38;
 
 const cases: Case[] = [
   { code: 'FILE_MISSING', plant: (d) => rm(at(d, 'transport.csv')), expected: { file: 'transport.csv', severity: 'error' } },
@@ -125,6 +141,18 @@ const cases: Case[] = [
     },
     expected: { file: 'production.csv', line: 6, column: 'period', value: '2024' },
   },
+  { code: 'SUPPLIER_DATASET_PATH', plant: (d) => editLine(at(d, 'factors.csv'), SUPPLIER_ROW, SUPPLIER, '../elsewhere/billet.ilcd.zip'), expected: { file: 'factors.csv', line: SUPPLIER_ROW, column: 'supplier_dataset', value: '../elsewhere/billet.ilcd.zip' } },
+  { code: 'SUPPLIER_DATASET_UNREADABLE', plant: (d) => editSupplier(d, (x) => x.replace('</processDataSet>', '')), expected: { file: expect.stringMatching(SUPPLIER_PROCESS), message: expect.stringMatching(/not well-formed XML/) } },
+  { code: 'SUPPLIER_VALUES_TWICE', plant: (d) => editLine(at(d, 'factors.csv'), SUPPLIER_ROW, 'ILCD+EPD dataset (illustrative)",,', 'ILCD+EPD dataset (illustrative)",3.1,'), expected: { file: 'factors.csv', line: SUPPLIER_ROW, column: 'supplier_dataset', message: expect.stringMatching(/GWP-total/) } },
+  // EN 15804+A1 and EN 15804+A2 (EF 3.1): their UUIDs in the published Common_references.csv.
+  { code: 'SUPPLIER_NOT_A2', plant: (d) => editSupplier(d, (x) => x.replace('d4aa3ec7-b1d7-4a4a-a6cb-37af88dcc902', 'b00f9ec0-7874-11e3-981f-0800200c9a66')), expected: { file: expect.stringMatching(SUPPLIER_PROCESS), column: 'referenceToComplianceSystem' } },
+  { code: 'SUPPLIER_NO_A1_A3', plant: (d) => editSupplier(d, (x) => x.replaceAll('epd:module="A1-A3"', 'epd:module="A4"')), expected: { file: expect.stringMatching(SUPPLIER_PROCESS) } },
+  { code: 'SUPPLIER_INDICATOR_MISSING', plant: (d) => editSupplier(d, (x) => x.replace(/(<epd:amount epd:module="A1-A3">)[^<]*(<\/epd:amount>)/, '$1$2')), expected: { file: expect.stringMatching(SUPPLIER_PROCESS), severity: 'warning', value: 'PERE' } },
+  { code: 'SUPPLIER_UNIT', plant: (d) => editLine(at(d, 'factors.csv'), SUPPLIER_ROW, 'KV-S-0117,kg,Supplier', 'KV-S-0117,m,Supplier'), expected: { file: expect.stringMatching(/^suppliers\/KV-S-0117\.ilcd\.zip!ILCD\/flows\//), message: expect.stringMatching(/1000 kg, which cannot be converted to m/) } },
+  { code: 'SUPPLIER_EXPIRED', plant: (d) => editSupplier(d, (x) => x.replace('<epd24:expirationDateOfEPD>2031-01-11<', '<epd24:expirationDateOfEPD>2025-12-31<')), expected: { file: expect.stringMatching(SUPPLIER_PROCESS), severity: 'warning', value: '2025-12-31' } },
+  { code: 'SUPPLIER_UNVERIFIED', plant: (d) => editSupplier(d, (x) => x.replace('type="Independent external review"', 'type="Not reviewed"')), expected: { file: expect.stringMatching(SUPPLIER_PROCESS), severity: 'warning', value: 'Not reviewed' } },
+  // GWP-total: a7ea142a-… on the published EF 3.1 list, 6a37f984-… on the EF 3.0 list.
+  { code: 'SUPPLIER_EF30', plant: (d) => editSupplier(d, (x) => x.replace('a7ea142a-9749-11ed-a8fc-0242ac120002', '6a37f984-a4b3-458a-a20a-64418c145fa2')), expected: { file: expect.stringMatching(SUPPLIER_PROCESS), severity: 'warning', value: 'GWP-total' } },
 ];
 
 const dirs: string[] = [];

@@ -8,6 +8,8 @@ export function gwpConsistency(ctx: CheckContext): void {
   const parts = ['GWP-fossil', 'GWP-biogenic', 'GWP-luluc'];
   if (!['GWP-total', ...parts].every((code) => p.factorIndicators.includes(code))) return;
   for (const row of p.factors.rows) {
+    // A supplier's dataset is checked where its values are written (src/model/supplier-datasets.ts).
+    if (row.value.supplier_dataset !== undefined) continue;
     const total = indicatorValue(row.value, 'GWP-total');
     const values = parts.map((code) => indicatorValue(row.value, code));
     if (total === null || values.some((v) => v === null)) continue;
