@@ -74,6 +74,9 @@ export interface EpdDataset {
   flow: ProductFlow | undefined;
 }
 
+/** The largest supplier dataset read (and the largest dataset in an archive, inflated): declarations are tens of kB; 50 MB is far beyond any. */
+export const MAX_DATASET_BYTES = 50e6;
+
 export class DatasetError extends Error {
   constructor(
     message: string,
@@ -188,13 +191,24 @@ export function readFlowDataset(file: string, text: string): ProductFlow {
  * archive holding exactly one EPD process dataset (and, where included, its product flow).
  */
 export function readEpdFile(file: string, bytes: Uint8Array): EpdDataset {
+  if (bytes.byteLength > MAX_DATASET_BYTES) throw new DatasetError(`is ${Math.round(bytes.byteLength / 1e6)} MB; a supplier dataset has at most ${MAX_DATASET_BYTES / 1e6} MB`, { file, line: 1, column: 1 });
   if (!(bytes[0] === 0x50 && bytes[1] === 0x4b)) return readProcessDataset(file, new TextDecoder('utf-8', { fatal: false }).decode(bytes));
   let entries: Record<string, Uint8Array>;
+  const large: string[] = [];
   try {
-    entries = unzipSync(bytes);
+    // Only the datasets read are inflated, and none beyond the limit (a zip can claim any size: it is checked as it inflates too).
+    entries = unzipSync(bytes, {
+      filter: (entry) => {
+        if (!/(^|\/)(processes|flows)\/[^/]+\.xml$/i.test(entry.name)) return false;
+        if (entry.originalSize > MAX_DATASET_BYTES) large.push(entry.name);
+        return entry.originalSize <= MAX_DATASET_BYTES;
+      },
+    });
   } catch (error) {
     throw new DatasetError(`is not a readable zip archive: ${(error as Error).message}`, { file, line: 1, column: 1 });
   }
+  if (large.length > 0) throw new DatasetError(`holds ${large[0]}, larger than ${MAX_DATASET_BYTES / 1e6} MB once inflated`, { file, line: 1, column: 1 });
+  for (const [name, entry] of Object.entries(entries)) if (entry.byteLength > MAX_DATASET_BYTES) throw new DatasetError(`holds ${name}, larger than ${MAX_DATASET_BYTES / 1e6} MB once inflated`, { file, line: 1, column: 1 });
   const text = (name: string) => new TextDecoder('utf-8').decode(entries[name]!);
   const names = Object.keys(entries).sort();
   const processes = names.filter((name) => /(^|\/)processes\/[^/]+\.xml$/i.test(name));

@@ -55,7 +55,7 @@ export function auditHtml(view: AuditView): nunjucks.runtime.SafeString {
       }
       html += '</tbody></table></div>';
     }
-    for (const row of file.rows) if (!(file.header && row.cells)) html += `<div class="input-row" id="${escape(row.anchor)}"><code class="loc">${escape(file.file)}:${row.line}</code><pre id="${row.short}">${escape(row.written)}</pre></div>`;
+    for (const row of file.rows) if (!(file.header && row.cells)) html += `<div class="input-row" id="${escape(row.anchor)}"><code class="loc">${escape(file.file)}:${row.line}</code>${row.what ? ` <span class="what">${escape(row.what)}</span>` : ''}<pre id="${row.short}">${escape(row.written)}</pre></div>`;
   }
   return new nunjucks.runtime.SafeString(`${html}</section>`);
 }

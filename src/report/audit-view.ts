@@ -43,7 +43,8 @@ export interface AuditView {
    * thousands: the short anchor keeps them small.
    */
   /** The input rows the figures read, by file: for a CSV file its header and each row's cells, so that a reader need not count delimiters. */
-  inputs: Array<{ file: string; header?: readonly string[]; rows: Array<{ anchor: string; short: string; line: number; written: string; cells?: readonly string[] }> }>;
+  /** `what`: what a line of a supplier's dataset holds (`A1-A3 GWP-total`), where the line alone does not say. */
+  inputs: Array<{ file: string; header?: readonly string[]; rows: Array<{ anchor: string; short: string; line: number; written: string; cells?: readonly string[]; what?: string }> }>;
   stepCount: number;
   figureCount: number;
   /** The page's body, filled in by the renderer (src/render/audit-html.ts). */
@@ -137,7 +138,7 @@ export function auditView(project: Project, result: ProductResult, bom: readonly
     const written = (files.has(entry.file) ? physicalLines(files.get(entry.file)!) : [])[entry.line - 1] ?? '';
     const csv = tables.get(entry.file)?.csv;
     const cells = csv ? cellsOf(csv, entry.line, written) : undefined;
-    byFile.get(entry.file)!.push({ anchor, short: entry.short, line: entry.line, written, ...(cells ? { cells } : {}) });
+    byFile.get(entry.file)!.push({ anchor, short: entry.short, line: entry.line, written, ...(cells ? { cells } : {}), ...(entry.what ? { what: entry.what } : {}) });
   }
 
   return {
@@ -150,13 +151,13 @@ export function auditView(project: Project, result: ProductResult, bom: readonly
   };
 }
 
-type InputRows = Map<string, { file: string; line: number; short: string }>;
+type InputRows = Map<string, { file: string; line: number; short: string; what?: string }>;
 
 /** The page's own link to an input row (`#i<k>`, numbered as the page first reads it). */
-function inputHref(inputs: InputRows, file: string, line: number): string {
+function inputHref(inputs: InputRows, file: string, line: number, what?: string): string {
   const anchor = inputAnchor(file, line);
   let entry = inputs.get(anchor);
-  if (!entry) inputs.set(anchor, (entry = { file, line, short: `i${inputs.size}` }));
+  if (!entry) inputs.set(anchor, (entry = { file, line, short: `i${inputs.size}`, ...(what ? { what } : {}) }));
   return `#${entry.short}`;
 }
 
@@ -176,8 +177,8 @@ function termView(graph: FigureGraph, term: Term, hrefs: ReadonlyMap<string, str
     }
     case 'factor': {
       // A supplier's dataset: every element read is an input row of the page, under the dataset's name.
-      const elements = Object.values(term.factor.elements ?? {});
-      for (const element of elements) inputHref(inputs, term.factor.file, element.line);
+      const elements = Object.entries(term.factor.elements ?? {});
+      for (const [code, element] of elements) inputHref(inputs, term.factor.file, element.line, `${element.module} ${code}`);
       const note = elements.length ? ` factor ${term.factor.factorId}, the supplier’s declared A1-A3 (${elements.length} elements of ${term.factor.file})` : ` factor ${term.factor.factorId}`;
       return { symbol: term.symbol, href: inputHref(inputs, term.factor.file, term.factor.line), kind: 'factor', text: term.factor.factorId, qualifier: 'factor', note };
     }

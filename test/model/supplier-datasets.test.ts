@@ -64,6 +64,50 @@ describe('the format’s published sample, read as a supplier dataset', () => {
   });
 });
 
+describe('a declaration per 1 m read back as a supplier dataset per kg', () => {
+  it('is converted through its own Mass flow property (kg per m), and A1 + A2 + A3 are added where A1-A3 is not given', async () => {
+    const built = await buildFresh();
+    dirs.push(built.dir);
+    expect(built.result.code, built.result.stderr).toBe(0);
+    const dir = await demoCopy();
+    dirs.push(path.dirname(dir));
+    // loopsheet's own export of KV-EXT-6060, declared per 1 m of 0.83 kg (products.csv).
+    const archive = path.join(dir, 'suppliers', 'profile.ilcd.zip');
+    await cp(path.join(built.out, 'KV-EXT-6060', 'declaration.ilcd.zip'), archive);
+    await editLine(path.join(dir, 'factors.csv'), 38, SUPPLIER_FILE, 'suppliers/profile.ilcd.zip');
+    const results = JSON.parse(await readFile(path.join(built.out, 'KV-EXT-6060', 'results.json'), 'utf8'));
+    const first = await loadProject(dir);
+    expect(first.problems.filter((p) => p.severity === 'error')).toEqual([]);
+    const row = first.project!.lookups.factors.get('kvs-billet-6060')!.value as unknown as Record<string, number>;
+    // Per kg = per m / (kg per m).
+    expect(row['GWP-total']).toBeCloseTo(results.methods.cutoff.modules['A1-A3']['GWP-total'] / 0.83, 12);
+    expect(row.AP).toBeCloseTo(results.methods.cutoff.modules['A1-A3'].AP / 0.83, 12);
+
+    // GWP-total written as A1, A2 and A3 instead of A1-A3.
+    const { zipSync, strToU8 } = await import('fflate');
+    const entries = unzipSync(await readFile(archive));
+    const name = Object.keys(entries).find((n) => n.startsWith('ILCD/processes/'))!;
+    const text = strFromU8(entries[name]!);
+    const a13 = results.methods.cutoff.modules['A1-A3']['GWP-total'];
+    const [a1, a2, a3] = ['A1', 'A2', 'A3'].map((m) => results.methods.cutoff.modules[m]['GWP-total'] as number);
+    const written = `<epd:amount epd:module="A1-A3">${a13}</epd:amount>`;
+    expect(text).toContain(written);
+    entries[name] = strToU8(text.replace(written, `<epd:amount epd:module="A1">${a1}</epd:amount><epd:amount epd:module="A2">${a2}</epd:amount><epd:amount epd:module="A3">${a3}</epd:amount>`));
+    await writeFile(archive, zipSync(entries));
+    const second = await loadProject(dir);
+    const summed = second.project!.lookups.factors.get('kvs-billet-6060')!.value as unknown as Record<string, number>;
+    expect(summed['GWP-total']).toBeCloseTo((a1 + a2 + a3) / 0.83, 12);
+    expect(second.project!.suppliers.get('kvs-billet-6060')!.values.get('GWP-total')!.parts).toHaveLength(3);
+  }, 60_000);
+
+  it('refuses an archive whose dataset inflates beyond 50 MB (a zip bomb), before inflating it', async () => {
+    const { zipSync } = await import('fflate');
+    const bomb = zipSync({ 'ILCD/processes/x.xml': new Uint8Array(51e6).fill(32) }, { level: 9 });
+    expect(bomb.byteLength).toBeLessThan(1e6);
+    expect(() => readEpdFile('bomb.zip', bomb)).toThrow(/larger than 50 MB once inflated/);
+  });
+});
+
 describe('the demo’s billet supplier (examples/billet-supplier)', () => {
   let built: Awaited<ReturnType<typeof buildFresh>>;
   let supplier: { dir: string; out: string };
