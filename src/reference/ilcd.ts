@@ -103,9 +103,12 @@ export function flowProperty(name: string): FlowProperty {
 /** The flow property that measures each of loopsheet's unit dimensions, as a declared unit may be given in. */
 export const DIMENSION_PROPERTY: Partial<Record<Dimension, string>> = { mass: 'Mass', length: 'Length', area: 'Area', volume: 'Volume', count: 'Number of items' };
 
-/** The biogenic carbon content of the product and of its packaging are flow properties of the product flow (kg C per declared unit). */
 export const MASS = flowProperty('Mass');
-/** The published list gives no unit group for the biogenic carbon properties: their unit is kg, measured as mass. */
+/**
+ * The biogenic carbon content of the product and of its packaging are flow properties of the
+ * product flow (kg C per reference unit). The published list gives them no unit group: their
+ * unit is kg, measured as mass.
+ */
 export const BIOGENIC_CARBON = { ...flowProperty('Carbon content (biogenic)'), unitGroup: MASS.unitGroup };
 export const BIOGENIC_CARBON_PACKAGING = { ...flowProperty('Carbon content (biogenic) - packaging'), unitGroup: MASS.unitGroup };
 

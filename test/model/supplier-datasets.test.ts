@@ -89,7 +89,7 @@ describe('a declaration per 1 m read back as a supplier dataset per kg', () => {
     const name = Object.keys(entries).find((n) => n.startsWith('ILCD/processes/'))!;
     const text = strFromU8(entries[name]!);
     const a13 = results.methods.cutoff.modules['A1-A3']['GWP-total'];
-    const [a1, a2, a3] = ['A1', 'A2', 'A3'].map((m) => results.methods.cutoff.modules[m]['GWP-total'] as number);
+    const [a1, a2, a3] = ['A1', 'A2', 'A3'].map((m) => results.methods.cutoff.modules[m]['GWP-total'] as number) as [number, number, number];
     const written = `<epd:amount epd:module="A1-A3">${a13}</epd:amount>`;
     expect(text).toContain(written);
     entries[name] = strToU8(text.replace(written, `<epd:amount epd:module="A1">${a1}</epd:amount><epd:amount epd:module="A2">${a2}</epd:amount><epd:amount epd:module="A3">${a3}</epd:amount>`));

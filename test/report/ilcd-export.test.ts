@@ -177,7 +177,7 @@ describe('ilcdDatasets', () => {
     const name = childOf(childOf(childOf(childOf(root, root.ns, 'processInformation'), root.ns, 'dataSetInformation'), root.ns, 'name'), root.ns, 'baseName')!;
     expect(name.text).toBe('Bar <b>&amp; "x" \uFFFD ]]>');
     const contact = files.find((f) => f.path.startsWith('ILCD/contacts/') && f.xml.includes('Ltd'))!;
-    expect(contact.xml, contact.xml).toContain('Owner &lt;&amp;&gt; "Ltd"');
+    expect(contact.xml, contact.xml).toContain('Owner &lt;&amp;&gt; &quot;Ltd&quot;');
   });
 
   it('gives the same UUIDs and bytes for the same inputs, and records a verified declaration’s verifier and report', () => {
