@@ -275,12 +275,18 @@ function sourceDataset(declaration: Declaration, ref: Ref, citation: string, pub
   return doc;
 }
 
-function unitGroupDataset(declaration: Declaration, group: UnitGroup): Doc {
-  const doc = new Doc(NS.unitGroup, 'unitGroupDataSet');
-  const information = el(doc.root, 'unitGroupInformation');
+/** A reference dataset (unit group, flow property) up to its information element: UUID and English name. */
+function referenceDataset(ns: string, rootName: string, informationName: string, uuid: string, name: string): { doc: Doc; information: Node } {
+  const doc = new Doc(ns, rootName);
+  const information = el(doc.root, informationName);
   const info = el(information, 'dataSetInformation');
-  el(info, 'common:UUID', group.uuid);
-  lang(info, 'common:name', group.name || `Units of ${group.unit}`);
+  el(info, 'common:UUID', uuid);
+  lang(info, 'common:name', name);
+  return { doc, information };
+}
+
+function unitGroupDataset(declaration: Declaration, group: UnitGroup): Doc {
+  const { doc, information } = referenceDataset(NS.unitGroup, 'unitGroupDataSet', 'unitGroupInformation', group.uuid, group.name || `Units of ${group.unit}`);
   el(el(information, 'quantitativeReference'), 'referenceToReferenceUnit', '0');
   administrative(doc.root, declaration);
   const unit = el(el(doc.root, 'units'), 'unit', undefined, { dataSetInternalID: '0' });
@@ -290,11 +296,7 @@ function unitGroupDataset(declaration: Declaration, group: UnitGroup): Doc {
 }
 
 function flowPropertyDataset(declaration: Declaration, property: FlowProperty): Doc {
-  const doc = new Doc(NS.flowProperty, 'flowPropertyDataSet');
-  const information = el(doc.root, 'flowPropertiesInformation');
-  const info = el(information, 'dataSetInformation');
-  el(info, 'common:UUID', property.uuid);
-  lang(info, 'common:name', property.name);
+  const { doc, information } = referenceDataset(NS.flowProperty, 'flowPropertyDataSet', 'flowPropertiesInformation', property.uuid, property.name);
   reference(el(information, 'quantitativeReference'), 'referenceToReferenceUnitGroup', unitGroupRef(property.unitGroup));
   administrative(doc.root, declaration);
   return doc;
