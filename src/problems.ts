@@ -48,6 +48,7 @@ export const PROBLEM_CODES = {
   DATE_ORDER: 'valid_until is not after issued',
   VALIDITY_LONG: 'the validity period is longer than five years (EN 15804 / ISO 14025 practice)',
   VERIFICATION_INCOMPLETE: 'a verified declaration lacks its verifier or date',
+  VERIFICATION_UNSIGNED: 'declaration.json says verified, but no verifier’s record with a valid signature says so (the declarations are built as drafts)',
   GWP_SUM_MISMATCH: 'a factor row whose GWP-total differs from GWP-fossil + GWP-biogenic + GWP-luluc (EN 15804+A2)',
   SOURCE_MISSING: 'a row has no source (where the figure comes from)',
   BIOGENIC_CARBON_MISSING: 'a wood or paper material has no biogenic carbon content',

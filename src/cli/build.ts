@@ -69,7 +69,7 @@ export async function runBuild(options: BuildOptions, io: Io, loaded?: ProjectLo
     progress.stop();
     for (const warning of built.familyWarnings) io.err(`warning ${warning}`);
     const rebuilt = new Set(built.rebuilt.map((r) => r.id));
-    const printed = built.outcomes.filter((o) => rebuilt.has(o.entry.id)).map((o) => ({ id: o.entry.id, name: o.entry.name }));
+    const printed = built.outcomes.filter((o) => rebuilt.has(o.entry.id)).map((o) => ({ id: o.entry.id, name: o.entry.name, verification: o.entry.verification }));
     if (browser) {
       // Family pages are written again by every build (their members may have changed): so are their PDFs.
       const jobs = [...declarationPdfJobs(project, staging, printed), ...familyPdfJobs(project, staging, built.families)];

@@ -1,4 +1,6 @@
-import { loadProject } from '../model/project.ts';
+import { loadProject, type Project } from '../model/project.ts';
+import { rowsByProduct } from '../model/by-product.ts';
+import { productStatus } from '../model/verification-record.ts';
 import type { SiteAllocation } from '../model/sites.ts';
 import { formatShare } from '../format.ts';
 import { printProblems } from './report-problems.ts';
@@ -11,8 +13,23 @@ export async function runCheck(options: { data: string; json: boolean }, io: Io)
   else {
     printProblems(problems, options.data, io);
     if (project) for (const line of siteShares(project.allocation)) io.out(line);
+    if (project) for (const line of verificationLines(project)) io.out(line);
   }
   return hasErrors(problems) ? EXIT.input : EXIT.ok;
+}
+
+/**
+ * Each product's verification status, where the data folder has a verifier's record: verified,
+ * or a draft and why (the build also compares each results.json with the one verified).
+ */
+export function verificationLines(project: Project): string[] {
+  const { state, current } = project.verification;
+  if (state.kind === 'none') return [];
+  return rowsByProduct(project).map((rows) => {
+    const status = productStatus(project, state, current, rows);
+    const id = rows.product.value.product_id;
+    return status.status === 'verified' ? `verification: ${id} verified by ${status.verifier} on ${status.date}` : `verification: ${id} draft: ${status.reasons.join('; ')}`;
+  });
 }
 
 /** The share of each product in every site period's keys, for the practitioner to look over. */

@@ -193,6 +193,70 @@ Shares are written 1%, 0.5 % or 0.01. Exit 0, 1 over --fail-over, 2 usage errors
       );
     },
   },
+  keygen: {
+    summary: 'make a verifier’s Ed25519 key pair (PEM)',
+    usage: `loopsheet keygen --out DIR [--name NAME]
+
+Writes NAME.key.pem (the private key, readable by you alone) and NAME.pub.pem (the public
+key) into DIR, and prints the public key's fingerprint. DIR may not be a data folder or a
+build's output, nor lie inside one: a private key is kept apart from both.
+
+  --out DIR    where to write the two files
+  --name NAME  the files' name (default verifier)`,
+    options: { out: { type: 'string' }, name: { type: 'string' } },
+    positionals: { min: 0, max: 0 },
+    run: async (values, _positionals, io) => {
+      const out = str(values.out);
+      if (!out) throw new UsageError('keygen: --out DIR is required (a folder outside every data folder and output)');
+      return (await import('./verify.ts')).runKeygen({ out, name: str(values.name) ?? 'verifier' }, io);
+    },
+  },
+  verify: {
+    summary: 'sign a verification record of a build you checked (verifiers)',
+    usage: `loopsheet verify --key KEY.pem --verifier NAME [--data DIR] [--out DIR] [--date YYYY-MM-DD] [--programme TEXT] [--products ID,…] [--families ID,…]
+
+For the independent verifier, run on the build they checked: writes verification-record.json
+into the data folder — verifier, date, programme, scope, the tool version, and the SHA-256 of
+every input file, of declaration.json, of each covered product's and family's results.json
+and of every input row each covered product reads — signed with the verifier's Ed25519
+private key, and the public key beside it (verifier.pub.pem). From then on a declaration is
+shown as verified only while the signature checks and nothing it covers has changed. The
+build in --out must have been made from the data folder as it is, by this version.
+
+  --key KEY.pem      the verifier's private key (loopsheet keygen); never inside the data
+                     folder or the output
+  --verifier NAME    the verifier's name as the declarations print it
+  --data DIR         the data folder (default ./data)
+  --out DIR          the build that was checked (default ./out)
+  --date DATE        the date of verification (default today)
+  --programme TEXT   the programme operator and programme
+  --products ID,…    the products verified (default every product)
+  --families ID,…    the families verified (default every family)`,
+    options: { key: { type: 'string' }, verifier: { type: 'string' }, data: { type: 'string' }, out: { type: 'string' }, date: { type: 'string' }, programme: { type: 'string' }, products: { type: 'string' }, families: { type: 'string' } },
+    positionals: { min: 0, max: 0 },
+    run: async (values, _positionals, io) => {
+      const key = str(values.key);
+      const verifier = str(values.verifier);
+      if (!key) throw new UsageError('verify: --key KEY.pem is required (the verifier’s private key)');
+      if (!verifier) throw new UsageError('verify: --verifier NAME is required');
+      const list = (value: string | undefined) => (value === undefined ? undefined : value.split(',').map((item) => item.trim()).filter(Boolean));
+      const products = list(str(values.products));
+      const families = list(str(values.families));
+      return (await import('./verify.ts')).runVerify(
+        {
+          key,
+          verifier,
+          data: str(values.data) ?? 'data',
+          out: str(values.out) ?? 'out',
+          date: str(values.date) ?? new Date().toISOString().slice(0, 10),
+          programme: str(values.programme) ?? '',
+          ...(products ? { products } : {}),
+          ...(families ? { families } : {}),
+        },
+        io,
+      );
+    },
+  },
   init: {
     summary: 'scaffold a new data folder',
     usage: `loopsheet init DIR [--force]

@@ -19,6 +19,7 @@ import { nearestName } from '../reference/nearest.ts';
 import { crossFileChecks } from './checks/index.ts';
 import { foldIdKnockOns } from './checks/root-causes.ts';
 import { readSupplierDatasets } from './supplier-datasets.ts';
+import { hashCurrentInputs, readRecord, RECORD_FILE, type RecordState } from './verification-record.ts';
 
 export * from './types.ts';
 import type { Project } from './types.ts';
@@ -119,13 +120,26 @@ export async function loadProject(dirArgument: string): Promise<ProjectLoad> {
     const tables = { dir, indicators, factorIndicators, products, bom, materials, eol, activities, transport, factors, process, processes, site, production, allocation: sitesRead.allocation, familyRows, families: familiesRead.families, excluded, lookups, indicatorSet, suppliers };
     // Cross-file rules run even when declaration.json is broken, so one run shows every problem.
     problems.push(...crossFileChecks({ ...tables, declaration, declarationFile }));
+    // The verifier's record: a declaration is verified only by a record whose signature checks.
+    const verification = { state: await readRecord(dir, declaration?.verification.public_key), current: await hashCurrentInputs(dir, DECLARATION_FILE, [...suppliers.values()].map((s) => s.file)) };
+    if (declaration?.verification.status === 'verified' && verification.state.kind !== 'valid' && declarationFile) problems.push(unsignedVerified(declarationFile, verification.state));
     const sorted = sortProblems(foldIdKnockOns(problems));
     if (declaration && declarationFile && !sorted.some((p) => p.severity === 'error')) {
-      return { project: { ...tables, declaration, declarationFile, declarationCells: jsonCells(declarationFile) }, problems: sorted };
+      return { project: { ...tables, declaration, declarationFile, declarationCells: jsonCells(declarationFile), verification }, problems: sorted };
     }
     return { problems: sorted };
   }
   return { problems: sortProblems(problems) };
+}
+
+/** `verification.status: "verified"` set by hand: only a verifier's signed record makes a declaration verified. */
+function unsignedVerified(json: JsonFile, state: RecordState): Problem {
+  const where = locate(json, ['verification', 'status']);
+  return {
+    severity: 'warning', code: 'VERIFICATION_UNSIGNED', file: json.file, line: where.line, column: 'verification.status', columnIndex: where.column, value: 'verified',
+    message: `says verified, but ${state.kind === 'invalid' ? state.reason : `the data folder has no verifier’s record (${RECORD_FILE})`}; every declaration is built as a draft`,
+    expected: 'a verification record signed by the verifier (loopsheet verify)',
+  };
 }
 
 function parseDeclaration(json: JsonFile): { declaration?: Declaration; problems: Problem[] } {

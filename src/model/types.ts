@@ -1,4 +1,5 @@
 import type { SupplierFactor } from './supplier-datasets.ts';
+import type { ProjectVerification } from './verification-record.ts';
 import type { Product, BomLine, Material, EolRow, Activity, TransportLeg, FactorRow, ExcludedFlow } from './rows.ts';
 import type { Declaration } from '../schema/declaration.ts';
 import type { JsonCell, JsonFile } from '../load/json.ts';
@@ -53,4 +54,6 @@ export interface Project {
   indicatorSet: IndicatorSet;
   /** Supplier declarations read as factors (factors.csv supplier_dataset), by factor id. */
   suppliers: ReadonlyMap<string, SupplierFactor>;
+  /** The verifier's signed record (verification-record.json) as read and checked, and the input files' hashes now. */
+  verification: ProjectVerification;
 }

@@ -21,6 +21,8 @@ import type { HashedFile } from './verification.ts';
 import { renderSite } from './site.ts';
 import { CHECKLIST_JSON, DECLARATION_ILCD, RESULTS_JSON, RESULTS_CSV, VERIFICATION_DIR } from '../files.ts';
 import { CHECKS } from '../calc/checklist.ts';
+import { familyStatus, resultsChanged } from '../model/verification-record.ts';
+import { verificationView, type VerificationView } from '../report/verification-status.ts';
 import { onInterrupt } from './cleanup.ts';
 
 /**
@@ -80,7 +82,7 @@ export interface SiteBuildResult {
   /** Family members outside the grouping tolerance, one line each (empty for a shard build). */
   familyWarnings: string[];
   /** The family declarations written (empty for a shard build): their PDFs are printed with the products'. */
-  families: Array<{ id: string; name: string }>;
+  families: Array<{ id: string; name: string; verification: VerificationView }>;
 }
 
 const chunk = <T>(items: T[], size: number): T[][] => Array.from({ length: Math.ceil(items.length / size) }, (_, i) => items.slice(i * size, (i + 1) * size));
@@ -156,14 +158,14 @@ export async function buildSite(project: Project, problems: readonly Problem[], 
  * beyond the grouping tolerance) for the caller to print, and the families whose PDFs the
  * caller prints.
  */
-export async function writeCatalogue(project: Project, problems: readonly Problem[], outDir: string, outcomes: readonly ProductOutcome[], options: { inputs: SiteView['verification']['inputs']; pdfs: boolean; context: string }): Promise<{ warnings: string[]; families: Array<{ id: string; name: string }> }> {
+export async function writeCatalogue(project: Project, problems: readonly Problem[], outDir: string, outcomes: readonly ProductOutcome[], options: { inputs: SiteView['verification']['inputs']; pdfs: boolean; context: string }): Promise<{ warnings: string[]; families: Array<{ id: string; name: string; verification: VerificationView }> }> {
   await writeCatalogueResults(outDir, outcomes.map((o) => ({ id: o.entry.id, summaryJson: o.summaryJson })));
   const catalogue = outcomes.map((o) => o.entry);
   const families = await writeFamilies(project, outDir, outcomes);
   await renderSite(buildSiteView(project, problems, { products: [], catalogue, pdfs: options.pdfs, inputs: options.inputs, families }), outDir);
   await writeChecklist(outDir, catalogue);
   await writeBuildCache(outDir, options.context, outcomes);
-  return { warnings: families.flatMap((family) => family.warnings), families: families.map((family) => ({ id: family.id, name: family.name })) };
+  return { warnings: families.flatMap((family) => family.warnings), families: families.map((family) => ({ id: family.id, name: family.name, verification: family.verification! })) };
 }
 
 /** Each family's results.json and results.csv under families/<id>/, and its page view. */
@@ -171,6 +173,7 @@ async function writeFamilies(project: Project, outDir: string, outcomes: readonl
   const members = new Set(project.families.flatMap((family) => family.members.map((m) => m.productId)));
   const summaries = new Map(outcomes.filter((o) => members.has(o.entry.id)).map((o) => [o.entry.id, JSON.parse(o.summaryJson) as ResultsSummary]));
   const names = new Map(outcomes.map((o) => [o.entry.id, o.entry.name]));
+  const entries = new Map(outcomes.map((o) => [o.entry.id, o.entry]));
   const views: FamilyView[] = [];
   for (const family of project.families) {
     if (!family.members.some((m) => summaries.has(m.productId))) continue;
@@ -178,10 +181,15 @@ async function writeFamilies(project: Project, outDir: string, outcomes: readonl
     const dir = path.join(outDir, familyDir(family.id));
     await mkdir(dir, { recursive: true });
     const members = results.members.map((m) => ({ product: project.lookups.products.get(m.product_id)!.value, summary: summaries.get(m.product_id)! }));
-    await writeFile(path.join(dir, DECLARATION_ILCD), ilcdArchive(ilcdDatasets(project.declaration, familyExport(results, members))));
-    await writeFile(path.join(dir, RESULTS_JSON), `${JSON.stringify(results, null, 1)}\n`);
+    const memberIds = results.members.map((m) => m.product_id);
+    const status = familyStatus(project.verification.state, family.id, memberIds.map((id) => entries.get(id)?.verification ?? { status: 'draft' as const }), memberIds);
+    const file = `${familyDir(family.id)}/${RESULTS_JSON}`;
+    const json = `${JSON.stringify(results, null, 1)}\n`;
+    const verification = resultsChanged(project.verification.state, file, json, status);
+    await writeFile(path.join(dir, DECLARATION_ILCD), ilcdArchive(ilcdDatasets(project.declaration, familyExport(results, members, verification))));
+    await writeFile(path.join(dir, RESULTS_JSON), json);
     await writeFile(path.join(dir, RESULTS_CSV), familyResultsCsv(results));
-    views.push(familyView(project, results, names));
+    views.push({ ...familyView(project, results, names), verification: verificationView(verification) });
   }
   return views;
 }

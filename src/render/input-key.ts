@@ -31,6 +31,7 @@ export const CONTEXT_PARTS = {
   settings: 'declaration.json',
   pdfs: 'the PDF setting (with or without PDFs)',
   texts: 'the texts every page carries (cautions, methodology, indicator names)',
+  verification: 'the verification record or the verifier’s key',
 } as const;
 
 /** The project-wide part of every product's pages, hashed once per build: a JSON object of each part's hash. */
@@ -41,6 +42,8 @@ export function pageContextKey(project: Project, pdfs: boolean): string {
     settings: { declaration: view.declaration, settings: project.declaration },
     pdfs: view.pdfs,
     texts: { cautions: view.cautions, processCaution: view.processCaution, methodology: view.methodology, indicators: view.indicators },
+    // Every page says whether its declaration is as verified: the record, and whether its signature checks against the key.
+    verification: project.verification.state,
   };
   return JSON.stringify(Object.fromEntries(Object.entries(parts).map(([part, value]) => [part, createHash('sha256').update(JSON.stringify(value)).digest('hex').slice(0, 16)])));
 }

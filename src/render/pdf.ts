@@ -1,3 +1,4 @@
+import type { VerificationView } from '../report/verification-status.ts';
 import { writeFile } from 'node:fs/promises';
 import path from 'node:path';
 import { pathToFileURL } from 'node:url';
@@ -43,22 +44,23 @@ export function reproduciblePdf(pdf: Uint8Array, isoDate: string): Buffer {
 }
 
 /** One PDF per declaration page, with its running head (product, verification status) and footer. */
-export function declarationPdfJobs(project: Project, outDir: string, products: ReadonlyArray<{ id: string; name: string }>): PdfJob[] {
-  return products.map((product) => pdfJob(project, path.join(outDir, product.id), `${product.name} (${product.id})`));
+export function declarationPdfJobs(project: Project, outDir: string, products: ReadonlyArray<{ id: string; name: string; verification: VerificationView }>): PdfJob[] {
+  return products.map((product) => pdfJob(project, path.join(outDir, product.id), `${product.name} (${product.id})`, product.verification));
 }
 
 /** The family declarations' PDFs, families/<family_id>/declaration.pdf. */
-export function familyPdfJobs(project: Project, outDir: string, families: ReadonlyArray<{ id: string; name: string }>): PdfJob[] {
-  return families.map((family) => pdfJob(project, path.join(outDir, 'families', family.id), `Family ${family.name} (${family.id})`));
+export function familyPdfJobs(project: Project, outDir: string, families: ReadonlyArray<{ id: string; name: string; verification: VerificationView }>): PdfJob[] {
+  return families.map((family) => pdfJob(project, path.join(outDir, 'families', family.id), `Family ${family.name} (${family.id})`, family.verification));
 }
 
-function pdfJob(project: Project, dir: string, title: string): PdfJob {
-  const { verification, illustrative, issued } = project.declaration;
+/** The running head says verified (with the date) only for a declaration its verifier's record still covers. */
+function pdfJob(project: Project, dir: string, title: string, verification: VerificationView): PdfJob {
+  const { illustrative, issued } = project.declaration;
   return {
     html: path.join(dir, DECLARATION_PAGE),
     pdf: path.join(dir, DECLARATION_PDF),
     title,
-    status: verification.status === 'verified' ? `verified ${verification.date ?? ''}` : 'DRAFT — not verified',
+    status: verification.status === 'verified' ? `verified ${verification.date}` : 'DRAFT — not verified',
     ...(illustrative ? { footnote: 'Illustrative data: invented values, not a real dataset' } : {}),
     date: issued,
   };

@@ -18,6 +18,7 @@ import { productInputKey, readsOutside } from './input-key.ts';
 import { productReach } from '../model/reach.ts';
 import { DECLARATION_ILCD, RESULTS_JSON, RESULTS_CSV } from '../files.ts';
 import { ToolError } from '../problems.ts';
+import { productStatus, resultsChanged } from '../model/verification-record.ts';
 
 
 /**
@@ -48,7 +49,9 @@ export class ResultsWriter {
     const csv = resultsCsv([summary]);
     await writeFile(path.join(dir, RESULTS_JSON), json);
     await writeFile(path.join(dir, RESULTS_CSV), csv);
-    const archive = ilcdArchive(ilcdDatasets(ctx.project.declaration, productExport(rows.product.value, summary)));
+    const { state, current } = ctx.project.verification;
+    const verification = resultsChanged(state, `${summary.product_id}/${RESULTS_JSON}`, json, productStatus(ctx.project, state, current, rows));
+    const archive = ilcdArchive(ilcdDatasets(ctx.project.declaration, productExport(rows.product.value, summary, verification)));
     await writeFile(path.join(dir, DECLARATION_ILCD), archive);
     // Hashed as written, for the verification manifest.
     const hashes = [hashText(`${summary.product_id}/results.json`, json), hashText(`${summary.product_id}/results.csv`, csv), hashBytes(`${summary.product_id}/${DECLARATION_ILCD}`, archive)];
@@ -61,7 +64,7 @@ export class ResultsWriter {
     if (outside) throw new ToolError('internal', `figure ${outside.figure} of ${summary.product_id} reads ${outside.file} line ${outside.line}, which its input key does not cover (src/model/reach.ts productReach); please report this`);
     const audit = auditView(ctx.project, product, rows.bom);
     audit.html = auditHtml(audit);
-    return { report: { summary, results: view, audit }, key: productInputKey(ctx.project, rows, this.context, reach).key, hashes };
+    return { report: { summary, results: view, audit, verification }, key: productInputKey(ctx.project, rows, this.context, reach).key, hashes };
   }
 
 }

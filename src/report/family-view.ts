@@ -1,3 +1,4 @@
+import type { VerificationView } from './verification-status.ts';
 import type { Project } from '../model/types.ts';
 import { findIndicator } from '../reference/indicators.ts';
 import { groupedTables, METHOD_SENTENCES } from './declaration-view.ts';
@@ -32,6 +33,8 @@ export interface FamilyAuditEntry {
 }
 
 export interface FamilyView {
+  /** Set by the build once the members' statuses are known. */
+  verification?: VerificationView;
   id: string;
   name: string;
   declaredUnit: string;

@@ -55,6 +55,8 @@ export interface ExportedDeclaration {
   endOfLife: EndOfLifeScenario | undefined;
   /** A family's members (ids and shares of the weighted mean). */
   members?: ReadonlyArray<{ id: string; share: number }>;
+  /** Its verification: verified only by a verifier's valid record (src/model/verification-record.ts); a draft otherwise. */
+  verification: { status: 'verified' | 'draft'; verifier?: string | undefined; date?: string | undefined };
 }
 
 export interface EndOfLifeScenario {
@@ -210,7 +212,7 @@ export function ilcdDatasets(declaration: Declaration, exported: ExportedDeclara
   // Contacts: the owner, and the verifier once verified.
   const ownerRef: Ref = { folder: 'contacts', type: 'contact data set', uuid: datasetUuid('contact', owner.name), version: DATASET_VERSION, text: owner.name };
   shared('contacts', ownerRef.uuid, () => contactDataset(declaration, ownerRef, { name: owner.name, address: owner.address, contact: owner.contact }));
-  const verification = declaration.verification;
+  const verification = exported.verification;
   const verified = verification.status === 'verified' && verification.verifier !== undefined;
   const verifierRef: Ref | undefined = verified ? { folder: 'contacts', type: 'contact data set', uuid: datasetUuid('contact', verification.verifier!), version: DATASET_VERSION, text: verification.verifier! } : undefined;
   if (verifierRef) shared('contacts', verifierRef.uuid, () => contactDataset(declaration, verifierRef, { name: verifierRef.text }));
@@ -351,10 +353,10 @@ interface ProcessRefs {
 }
 
 /** The cautions every exported declaration carries, as the pages do (field guide §6). */
-export function exportCautions(declaration: Declaration): string[] {
+export function exportCautions(declaration: Declaration, verified: boolean): string[] {
   return [
     ...(declaration.illustrative ? ['ILLUSTRATIVE: the data behind this dataset are invented (a demo or training project); do not use its values for any claim.'] : []),
-    ...(declaration.verification.status === 'verified'
+    ...(verified
       ? []
       : ['Not verified: this declaration is not valid as a public environmental claim until an independent verifier has verified it under ISO 14025, the applicable PCR and the programme rules.']),
     `Results depend on the background data (${declaration.background_data.map((data) => `${data.name} ${data.version}`).join('; ')}) and the PCR (${declaration.pcr}); they are not comparable across PCRs.`,
@@ -369,7 +371,7 @@ function processDataset(declaration: Declaration, exported: ExportedDeclaration,
   el(info, 'common:UUID', refs.uuid);
   lang(el(info, 'name'), 'baseName', exported.name);
   const members = exported.members?.length ? ` Average of ${exported.members.length} products weighted by production: ${exported.members.map((m) => `${m.id} (${(m.share * 100).toFixed(1)} %)`).join(', ')}.` : '';
-  lang(info, 'common:generalComment', `${exported.kind === 'family' ? 'Family' : 'Product'} ${exported.id}. ${sentence(exported.description)}${members} ${exportCautions(declaration).join(' ')} Written by ${TOOL_NAME} ${TOOL_VERSION}.`.replace(/\s+/g, ' ').trim());
+  lang(info, 'common:generalComment', `${exported.kind === 'family' ? 'Family' : 'Product'} ${exported.id}. ${sentence(exported.description)}${members} ${exportCautions(declaration, refs.verifier !== undefined).join(' ')} Written by ${TOOL_NAME} ${TOOL_VERSION}.`.replace(/\s+/g, ' ').trim());
   const eol = exported.endOfLife;
   if (eol) {
     const other = el(info, 'common:other');
@@ -401,7 +403,7 @@ function processDataset(declaration: Declaration, exported: ExportedDeclaration,
   el(el(method, 'common:other'), 'epd:subType', exported.kind === 'family' ? 'average dataset' : 'specific dataset');
   const sources = el(modelling, 'dataSourcesTreatmentAndRepresentativeness');
   for (const ref of refs.background) reference(sources, 'referenceToDataSource', ref);
-  lang(sources, 'useAdviceForDataSet', exportCautions(declaration).join(' '));
+  lang(sources, 'useAdviceForDataSet', exportCautions(declaration, refs.verifier !== undefined).join(' '));
   const review = el(el(modelling, 'validation'), 'review', undefined, { type: refs.verifier ? 'Independent external review' : 'Not reviewed' });
   if (refs.verifier) reference(review, 'common:referenceToNameOfReviewerAndInstitution', refs.verifier);
   if (refs.review) reference(review, 'common:referenceToCompleteReviewReport', refs.review);
@@ -475,8 +477,9 @@ export function endOfLifeShares(name: string, rows: NonNullable<ResultsSummary['
 }
 
 /** A product's declaration as the export reads it: its products.csv row and its results. */
-export function productExport(product: Product, summary: ResultsSummary): ExportedDeclaration {
+export function productExport(product: Product, summary: ResultsSummary, verification: ExportedDeclaration['verification']): ExportedDeclaration {
   return {
+    verification,
     kind: 'product',
     id: product.product_id,
     name: product.name,
@@ -496,7 +499,7 @@ export function productExport(product: Product, summary: ResultsSummary): Export
  * biogenic carbon and end-of-life shares (a value not available for a member leaves the
  * family's not available). The scenario is named after the members' scenarios.
  */
-export function familyExport(results: FamilyResults, members: ReadonlyArray<{ product: Product; summary: ResultsSummary }>): ExportedDeclaration {
+export function familyExport(results: FamilyResults, members: ReadonlyArray<{ product: Product; summary: ResultsSummary }>, verification: ExportedDeclaration['verification']): ExportedDeclaration {
   const byId = new Map(members.map((m) => [m.product.product_id, m]));
   const weighted = (value: (m: { product: Product; summary: ResultsSummary }) => number | null | undefined): number | null => {
     let sum = 0;
@@ -516,6 +519,7 @@ export function familyExport(results: FamilyResults, members: ReadonlyArray<{ pr
   const keys = ['separate', 'withMixedWaste', 'reuse', 'recycling', 'energyRecovery', 'incineration', 'landfill'] as const;
   const eolValues = Object.fromEntries(keys.map((key) => [key, eolShare(key)]));
   return {
+    verification,
     kind: 'family',
     id: results.family_id,
     name: results.name,

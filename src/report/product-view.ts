@@ -1,3 +1,5 @@
+import { productStatus, type VerificationStatus } from '../model/verification-record.ts';
+import { verificationView, type VerificationView } from './verification-status.ts';
 import type { Project } from '../model/project.ts';
 import type { ProductRows } from '../model/by-product.ts';
 import { reachedRows } from '../model/reach.ts';
@@ -23,7 +25,11 @@ export interface ProductReport {
   summary: ResultsSummary;
   results: DeclarationResultsView;
   audit: AuditView;
+  /** Its verification status, results.json compared with the record's (the writer has it). */
+  verification: VerificationStatus;
 }
+
+
 
 export interface ProductView {
   id: string;
@@ -45,6 +51,7 @@ export interface ProductView {
   families: Array<{ id: string; name: string; url: string }>;
   resultsJson: string;
   resultsCsv: string;
+  verification: VerificationView;
 }
 
 /** A catalogue row: what the catalogue shows of a product. */
@@ -60,6 +67,7 @@ export interface CatalogueEntry {
   checks: Array<{ id: string; status: string }>;
   /** The factors.csv lines this product's figures read (the catalogue-wide reverse index). */
   factorLines: number[];
+  verification: VerificationView;
 }
 
 export const catalogueEntry = (product: ProductView): CatalogueEntry => ({
@@ -71,6 +79,7 @@ export const catalogueEntry = (product: ProductView): CatalogueEntry => ({
   incomplete: product.results?.incomplete !== undefined,
   checks: (product.results?.checklist ?? []).map((item) => ({ id: item.id, status: item.status })),
   factorLines: product.audit?.inputs.find((input) => input.file === factorsCsv.file)?.rows.map((row) => row.line) ?? [],
+  verification: product.verification,
 });
 
 export function productView(project: Project, rows: ProductRows, report: ProductReport | undefined): ProductView {
@@ -232,5 +241,6 @@ export function productView(project: Project, rows: ProductRows, report: Product
     families: project.families.filter((family) => family.members.some((m) => m.productId === product.product_id)).map((family) => ({ id: family.id, name: family.name, url: `../${familyDir(family.id)}/index.html` })),
     resultsJson: RESULTS_JSON,
     resultsCsv: RESULTS_CSV,
+    verification: verificationView(report?.verification ?? productStatus(project, project.verification.state, project.verification.current, rows)),
   };
 }

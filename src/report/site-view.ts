@@ -146,6 +146,7 @@ export type SiteContext = Pick<SiteView, 'tool' | 'declaration' | 'cautions' | '
 
 export function siteContext(project: Project, pdfs: boolean): SiteContext {
   const d = project.declaration;
+  const record = project.verification.state;
   return {
     tool: { name: TOOL_NAME, version: TOOL_VERSION },
     declaration: {
@@ -157,11 +158,12 @@ export function siteContext(project: Project, pdfs: boolean): SiteContext {
       referenceYear: String(d.reference_year),
       issued: d.issued,
       validUntil: d.valid_until,
-      status: d.verification.status,
-      statusText: d.verification.status === 'verified' ? `verified by ${d.verification.verifier ?? ''} on ${d.verification.date ?? ''}` : 'draft — not verified',
-      draft: d.verification.status !== 'verified',
-      verifier: d.verification.verifier ?? '',
-      verificationDate: d.verification.date ?? '',
+      // Only a verifier's valid record verifies (src/model/verification-record.ts); each declaration says whether it is still as verified.
+      status: record.kind === 'valid' ? 'verified' : 'draft',
+      statusText: record.kind === 'valid' ? `verification record of ${record.record.date} by ${record.record.verifier} (key ${record.fingerprint.slice(0, 16)}…); each declaration says whether it is still as verified` : record.kind === 'invalid' ? `draft — not verified (${record.reason})` : 'draft — not verified',
+      draft: record.kind !== 'valid',
+      verifier: record.kind === 'valid' ? record.record.verifier : '',
+      verificationDate: record.kind === 'valid' ? record.record.date : '',
       gwpSet: `${d.gwp_set} — ${GWP_SOURCES[d.gwp_set]}`,
       backgroundData: d.background_data.map((b) => `${b.name}, version ${b.version}${b.licence ? ` (${b.licence})` : ''}`),
       illustrative: d.illustrative,

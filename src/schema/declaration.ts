@@ -55,6 +55,7 @@ export const declarationSchema = z
         status: z.enum(['draft', 'verified']).meta({ description: 'draft until an independent verifier has verified the declaration under ISO 14025.' }),
         verifier: z.string().optional().meta({ description: 'Name of the independent verifier (required once verified).' }),
         date: isoDate('Date of verification (required once verified).').optional(),
+        public_key: z.string().optional().meta({ description: 'The verifier’s Ed25519 public key (PEM), a path in the data folder; default verifier.pub.pem beside verification-record.json. Only a record signed with its private key (loopsheet verify) makes a declaration verified.' }),
       })
       .meta({ description: 'Verification status.' }),
     background_data: z

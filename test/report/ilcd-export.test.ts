@@ -168,6 +168,7 @@ describe('ilcdDatasets', () => {
     modules: { 'A1-A3': { 'GWP-total': 1234.5 }, C3: { 'GWP-total': null }, D: { 'GWP-total': -1e-300 } },
     biogenicCarbonKg: { product: 0, packaging: null },
     endOfLife: undefined,
+    verification: { status: 'verified', verifier: 'V. Erifier', date: '2026-01-10' },
   };
 
   it('escapes text from the inputs: names with markup read back as written (a control character replaced)', () => {

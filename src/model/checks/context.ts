@@ -5,7 +5,7 @@ import { eolRowFor, groupBy } from '../lookups.ts';
 import { declaresModule } from '../declared-modules.ts';
 
 /** The tables, and the declaration when it parsed. */
-export type CheckInput = Omit<Project, 'declaration' | 'declarationFile' | 'declarationCells'> & Partial<Pick<Project, 'declaration' | 'declarationFile'>>;
+export type CheckInput = Omit<Project, 'declaration' | 'declarationFile' | 'declarationCells' | 'verification'> & Partial<Pick<Project, 'declaration' | 'declarationFile'>>;
 
 export type AnyTable = Table<unknown>;
 
