@@ -1,3 +1,4 @@
+import { verificationFiles } from '../model/verification-record.ts';
 import { loadProject, type ProjectLoad } from '../model/project.ts';
 import { hasErrors } from '../problems.ts';
 import { findBrowser } from '../render/browser.ts';
@@ -56,7 +57,7 @@ export async function runBuild(options: BuildOptions, io: Io, loaded?: ProjectLo
   let missingPdfs: string[] = [];
   let summary = '';
   await withStagedOutput(options.out, async (staging) => {
-    const inputs = await hashInputs(project.dir, [...project.suppliers.values()].map((supplier) => supplier.file));
+    const inputs = await hashInputs(project.dir, [...project.suppliers.values()].map((supplier) => supplier.file), verificationFiles(project));
     await copyInputs(project.dir, staging, inputs);
     progress.phase(previous ? 'compare inputs, then calculate and render the changed products' : 'calculate and render');
     const built = await buildSite(project, problems, staging, {

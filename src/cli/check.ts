@@ -1,6 +1,6 @@
 import { loadProject, type Project } from '../model/project.ts';
 import { rowsByProduct } from '../model/by-product.ts';
-import { productStatus } from '../model/verification-record.ts';
+import { productStatus } from '../model/verification-status.ts';
 import type { SiteAllocation } from '../model/sites.ts';
 import { formatShare } from '../format.ts';
 import { printProblems } from './report-problems.ts';

@@ -4,7 +4,8 @@ import { mkdir, readFile, realpath, writeFile } from 'node:fs/promises';
 import path from 'node:path';
 import { rowsByProduct } from '../model/by-product.ts';
 import { loadProject } from '../model/project.ts';
-import { canonicalJson, keyFingerprint, productStamps, PUBLIC_KEY_FILE, RECORD_FILE, sha256, type VerificationRecord } from '../model/verification-record.ts';
+import { canonicalJson, keyFingerprint, PUBLIC_KEY_FILE, RECORD_FILE, sha256, type VerificationRecord } from '../model/verification-record.ts';
+import { productStamps } from '../model/verification-status.ts';
 import { hasErrors } from '../problems.ts';
 import { formatCounted } from '../format.ts';
 import { TOOL_NAME, TOOL_VERSION } from '../reference/tool.ts';
@@ -67,7 +68,9 @@ export async function verificationRecord(options: Omit<VerifyOptions, 'key'>, to
   if (!manifest?.inputs) throw new UsageError(`${options.out} is not a build (no ${VERIFICATION_DIR}/${MANIFEST_FILE}); verify the build you checked`);
   const current = project.verification.current;
   const now = new Map([[DECLARATION_FILE, current.configuration], ...current.inputs]);
-  const differ = manifest.inputs.filter((input) => now.get(input.file) !== input.sha256).map((input) => input.file);
+  // The record and key of an earlier verification are in the pack too; they are not what is verified.
+  const verifiedFiles = manifest.inputs.filter((input) => input.file !== RECORD_FILE && input.file !== (project.declaration.verification.public_key ?? PUBLIC_KEY_FILE));
+  const differ = verifiedFiles.filter((input) => now.get(input.file) !== input.sha256).map((input) => input.file);
   const missing = [...now.keys()].filter((file) => !manifest.inputs!.some((input) => input.file === file));
   if (differ.length || missing.length) throw new UsageError(`the build in ${options.out} was made from other inputs (${[...differ, ...missing].join(', ')} differ); build again and check that build`);
   if (manifest.tool?.version !== toolVersion) throw new UsageError(`the build in ${options.out} was made by loopsheet ${manifest.tool?.version ?? '?'}, this is ${toolVersion}; build again with this version`);

@@ -21,7 +21,7 @@ import type { HashedFile } from './verification.ts';
 import { renderSite } from './site.ts';
 import { CHECKLIST_JSON, DECLARATION_ILCD, RESULTS_JSON, RESULTS_CSV, VERIFICATION_DIR } from '../files.ts';
 import { CHECKS } from '../calc/checklist.ts';
-import { familyStatus, resultsChanged } from '../model/verification-record.ts';
+import { familyStatus, resultsChanged } from '../model/verification-status.ts';
 import { verificationView, type VerificationView } from '../report/verification-status.ts';
 import { onInterrupt } from './cleanup.ts';
 

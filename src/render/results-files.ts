@@ -18,7 +18,7 @@ import { productInputKey, readsOutside } from './input-key.ts';
 import { productReach } from '../model/reach.ts';
 import { DECLARATION_ILCD, RESULTS_JSON, RESULTS_CSV } from '../files.ts';
 import { ToolError } from '../problems.ts';
-import { productStatus, resultsChanged } from '../model/verification-record.ts';
+import { productStatus, resultsChanged } from '../model/verification-status.ts';
 
 
 /**

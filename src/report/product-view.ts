@@ -1,4 +1,4 @@
-import { productStatus, type VerificationStatus } from '../model/verification-record.ts';
+import { productStatus, type VerificationStatus } from '../model/verification-status.ts';
 import { verificationView, type VerificationView } from './verification-status.ts';
 import type { Project } from '../model/project.ts';
 import type { ProductRows } from '../model/by-product.ts';

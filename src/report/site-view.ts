@@ -62,6 +62,8 @@ export interface SiteView {
     factorQuality: TableView;
     /** Each product's and family's ILCD+EPD archive, with its process dataset's UUID. */
     exchange: Array<{ kind: string; id: string; name: string; href: string; uuid: string }>;
+    /** The verifier's record (verification-record.json), and what is still as verified. */
+    record: { state: string; verifier: string; date: string; programme: string; tool: string; fingerprint: string; scope: string; declarations: Array<{ kind: string; id: string; name: string; href: string; status: string; text: string }> } | undefined;
   };
   /** The products that have an audit trail page (those with results). */
   audits: ProductView[];
@@ -133,12 +135,41 @@ export function buildSiteView(project: Project, problems: readonly Problem[], op
             ...(options.families ?? []).map((family) => ({ kind: 'family', id: family.id, name: family.name, href: `../${familyDir(family.id)}/${DECLARATION_ILCD}`, uuid: processUuidOf(project.declaration, 'family', family.id) })),
           ]
         : [],
+      record: catalogue ? recordView(project, catalogue, options.families ?? []) : undefined,
     },
     factors: catalogue ? factorTable(project, project.factors.rows, catalogue) : { title: '', caption: '', headers: [], rows: [], empty: '' },
     // Family spreads are known once every member is computed: the catalogue render adds them.
     warnings: [...problems.filter((p) => p.severity === 'warning').map((problem) => formatProblem(problem)), ...(catalogue ? (options.families ?? []).flatMap((family) => family.warnings) : [])],
   };
+  // The catalogue-wide pages are drafts unless every declaration is as verified; they say how many are.
+  if (catalogue) {
+    const verified = catalogue.filter((entry) => entry.verification.status === 'verified').length;
+    if (verified < catalogue.length) view.declaration = { ...view.declaration, draft: true, status: 'draft' };
+    if (project.verification.state.kind === 'valid') view.declaration = { ...view.declaration, statusText: `${view.declaration.statusText}: ${formatCounted(verified, 'declaration', 'declarations')} of ${catalogue.length} as verified` };
+  }
   return view;
+}
+
+/** The verification pack's account of the verifier's record: who, when, which key, and each declaration's status now. */
+function recordView(project: Project, catalogue: readonly CatalogueEntry[], families: readonly FamilyView[]): SiteView['verification']['record'] {
+  const state = project.verification.state;
+  if (state.kind === 'none') return undefined;
+  const declarations = [
+    ...catalogue.map((entry) => ({ kind: 'product', id: entry.id, name: entry.name, href: `../${entry.url}`, status: entry.verification.status, text: entry.verification.text })),
+    ...families.map((family) => ({ kind: 'family', id: family.id, name: family.name, href: `../${family.url}`, status: family.verification?.status ?? 'draft', text: family.verification?.text ?? 'draft' })),
+  ];
+  if (state.kind === 'invalid') return { state: state.reason, verifier: '', date: state.date ?? '', programme: '', tool: '', fingerprint: '', scope: '', declarations };
+  const r = state.record;
+  return {
+    state: `valid: the signature checks against ${state.publicKeyFile}`,
+    verifier: r.verifier,
+    date: r.date,
+    programme: r.programme,
+    tool: `${r.tool.name} ${r.tool.version}`,
+    fingerprint: state.fingerprint,
+    scope: `${formatCounted(r.scope.products.length, 'product', 'products')} (${r.scope.products.join(', ') || 'none'}); ${formatCounted(r.scope.families.length, 'family', 'families')} (${r.scope.families.join(', ') || 'none'})`,
+    declarations,
+  };
 }
 
 /** The project-wide part of every page: who declares, under what, the cautions, the methodology, the indicators. */

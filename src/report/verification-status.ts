@@ -1,4 +1,4 @@
-import type { VerificationStatus } from '../model/verification-record.ts';
+import type { VerificationStatus } from '../model/verification-status.ts';
 
 /** A declaration's verification status as the pages print it. */
 export interface VerificationView {

@@ -104,6 +104,14 @@ const cases: Case[] = [
     plant: (d) => editFile(at(d, 'declaration.json'), (t) => t.replace('"status": "draft"', '"status": "verified"')),
     expected: { file: 'declaration.json', line: 12, column: 'verification.verifier' },
   },
+  {
+    code: 'VERIFICATION_UNSIGNED',
+    plant: async (d) => {
+      await rm(at(d, 'verification-record.json'));
+      await editFile(at(d, 'declaration.json'), (t) => t.replace('"status": "draft"', '"status": "verified", "verifier": "Anyone", "date": "2026-11-30"'));
+    },
+    expected: { file: 'declaration.json', line: 12, column: 'verification.status', value: 'verified', severity: 'warning' },
+  },
   { code: 'GWP_SUM_MISMATCH', plant: (d) => editLine(at(d, 'factors.csv'), 26, 'illustrative),0.41,', 'illustrative),0.45,'), expected: { file: 'factors.csv', line: 26, column: 'GWP-total', value: '0.45', severity: 'warning' } },
   { code: 'SOURCE_MISSING', plant: (d) => editLine(at(d, 'transport.csv'), 3, 'Route planner (illustrative)', ''), expected: { file: 'transport.csv', line: 3, column: 'source', severity: 'warning' } },
   {

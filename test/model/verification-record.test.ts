@@ -4,7 +4,8 @@ import { createPublicKey, verify } from 'node:crypto';
 import { cp, readFile, writeFile } from 'node:fs/promises';
 import path from 'node:path';
 import { loadProject } from '../../src/model/project.ts';
-import { canonicalJson, productStatus, type VerificationRecord } from '../../src/model/verification-record.ts';
+import { canonicalJson, type VerificationRecord } from '../../src/model/verification-record.ts';
+import { productStatus } from '../../src/model/verification-status.ts';
 import { rowsByProduct } from '../../src/model/by-product.ts';
 import { signedRecordText, verificationRecord } from '../../src/cli/verify.ts';
 import { DEMO, ROOT, demoCopy, editLine, hasCommand, hashTree, missingTool, removeDir, runCli, tempDir } from '../helpers.ts';
@@ -87,11 +88,11 @@ describe('loopsheet verify and build', () => {
     // bom.csv line 10: KV-BR-40 · L2, scrap rate 0.05 → 0.06.
     await editLine(path.join(changed, 'bom.csv'), 10, ',0.05,landfill,', ',0.06,landfill,');
     const found = await statuses(changed);
-    expect(found['KV-BR-40']).toMatchObject({ status: 'draft', reasons: ['changed since verification on 2026-11-30: bom.csv line 10 (`KV-BR-40 · L2`)'] });
+    expect(found['KV-BR-40']).toMatchObject({ status: 'draft', reasons: ['changed since verification on 2026-11-30: bom.csv line 10 (KV-BR-40 · L2)'] });
     expect(found['KV-EXT-6060']!.status).toBe('verified');
     const site = path.join(copy, 'out');
     expect((await runCli(['build', '--data', changed, '--out', site, '--no-pdf'])).code).toBe(0);
-    expect(await pageStatus(site, 'KV-BR-40')).toBe('draft — not verified (changed since verification on 2026-11-30: bom.csv line 10 (`KV-BR-40 · L2`))');
+    expect(await pageStatus(site, 'KV-BR-40')).toBe('draft — not verified (changed since verification on 2026-11-30: bom.csv line 10 (KV-BR-40 · L2))');
     const page = await readFile(path.join(site, 'KV-BR-40', 'index.html'), 'utf8');
     expect(page).toContain('Draft — not verified.');
     expect(await pageStatus(site, 'KV-CU-BB10')).toMatch(/^verified by/);
@@ -155,10 +156,10 @@ describe('loopsheet verify and build', () => {
 });
 
 describe('the demo', () => {
-  it('carries a record signed with the demo verifier’s key: KV-CU-BB10 verified, KV-BR-40 changed since verification', async () => {
+  it('carries a record signed with the demo verifier’s key: KV-EXT-6060-T19 verified, KV-BR-40 changed since verification', async () => {
     const found = await statuses(DEMO);
-    expect(found['KV-CU-BB10']).toMatchObject({ status: 'verified', verifier: 'Dr. Ada Invented (fictional demo verifier)', date: '2026-11-30' });
-    expect(found['KV-BR-40']).toMatchObject({ status: 'draft', reasons: ['changed since verification on 2026-11-30: bom.csv line 9 (`KV-BR-40 · L1`)'] });
+    expect(found['KV-EXT-6060-T19']).toMatchObject({ status: 'verified', verifier: 'Dr. Ada Invented (fictional demo verifier)', date: '2026-11-30' });
+    expect(found['KV-BR-40']).toMatchObject({ status: 'draft', reasons: ['changed since verification on 2026-11-30: bom.csv line 9 (KV-BR-40 · L1)'] });
     expect(found['KV-EXT-6060']!.status).toBe('draft');
     // The demo key is the fixtures' public key, and its private key is not in data/.
     expect(await readFile(path.join(DEMO, 'verifier.pub.pem'), 'utf8')).toBe(await readFile(path.join(ROOT, 'test/fixtures/verifier/DEMO-ONLY-verifier.pub.pem'), 'utf8'));

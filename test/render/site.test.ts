@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { execFileSync } from 'node:child_process';
-import { readdir, readFile, stat } from 'node:fs/promises';
+import { readdir, readFile, rm, stat } from 'node:fs/promises';
 import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { findBrowser } from '../../src/render/browser.ts';
@@ -147,19 +147,28 @@ describe('declaration.json report settings', () => {
 });
 
 describe('a verified declaration', () => {
-  it('drops the draft banner and names the verifier and the date', async () => {
+  it('drops the draft banner and names the verifier and the date, on the pages of the product its record covers', async () => {
     const data = await demoCopy();
     dirs.push(path.dirname(data));
-    await editFile(path.join(data, 'declaration.json'), (t) => t.replace('"verification": { "status": "draft" }', '"verification": { "status": "verified", "verifier": "A. Verifier (fictional)", "date": "2026-04-01" }'));
     const out = path.join(path.dirname(data), 'out');
+    await rm(path.join(data, 'verification-record.json'));
+    expect((await runCli(['build', '--data', data, '--out', out, '--no-pdf'])).code).toBe(0);
+    // Signed with the fixtures' demo key (test/fixtures/verifier/README.md).
+    const signed = await runCli(['verify', '--data', data, '--out', out, '--key', path.join(ROOT, 'test/fixtures/verifier/DEMO-ONLY-verifier.key.pem'), '--verifier', 'A. Verifier (fictional)', '--date', '2026-04-01', '--products', 'KV-EXT-6060', '--families', '']);
+    expect(signed.code, signed.stderr).toBe(0);
     const result = await runCli(['build', '--data', data, '--out', out, '--no-pdf']);
     expect(result.code, result.stderr).toBe(0);
-    for (const page of ['index.html', 'KV-EXT-6060/index.html', 'KV-EXT-6060/audit.html', 'verification/index.html']) {
+    for (const page of ['KV-EXT-6060/index.html', 'KV-EXT-6060/audit.html']) {
       const html = await readFile(path.join(out, page), 'utf8');
       expect(html, page).not.toContain('Draft — not verified');
       expect(html, page).toContain('Illustrative data.');
     }
     expect(await readFile(path.join(out, 'KV-EXT-6060', 'index.html'), 'utf8')).toContain('verified by A. Verifier (fictional) on 2026-04-01');
+    // The catalogue stays a draft while any declaration is, and says how many are verified.
+    const catalogue = await readFile(path.join(out, 'index.html'), 'utf8');
+    expect(catalogue).toContain('Draft — not verified');
+    expect(catalogue).toContain('1 declaration of 5 as verified');
+    expect(await readFile(path.join(out, 'KV-CU-BB10', 'index.html'), 'utf8')).toContain('Draft — not verified');
   });
 });
 

@@ -27,8 +27,8 @@ describe('the verification pack', () => {
 
     // Checked against node:crypto over the files on disk, not against the tool's own hashing.
     const sha = (bytes: Buffer) => createHash('sha256').update(bytes).digest('hex');
-    // The CSV files and declaration.json, and the supplier dataset factors.csv names.
-    const inputFiles = ['declaration.json', 'products.csv', 'bom.csv', 'materials.csv', 'eol.csv', 'activities.csv', 'transport.csv', 'factors.csv', 'process.csv', 'site.csv', 'production.csv', 'families.csv', 'excluded.csv', 'suppliers/KV-S-0117.ilcd.zip'];
+    // The CSV files and declaration.json, the supplier dataset factors.csv names, and the verifier's record and public key.
+    const inputFiles = ['declaration.json', 'products.csv', 'bom.csv', 'materials.csv', 'eol.csv', 'activities.csv', 'transport.csv', 'factors.csv', 'process.csv', 'site.csv', 'production.csv', 'families.csv', 'excluded.csv', 'suppliers/KV-S-0117.ilcd.zip', 'verification-record.json', 'verifier.pub.pem'];
     expect(manifest.inputs.map((i) => i.file).sort()).toEqual([...inputFiles].sort());
     for (const input of manifest.inputs) {
       const original = await readFile(path.join(DEMO, input.file));

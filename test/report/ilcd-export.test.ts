@@ -128,7 +128,8 @@ describe('ILCD+EPD archives of the demo', () => {
       expect(dataset.referenceYear).toBe(declaration.reference_year);
       expect(dataset.validUntil!.year).toBe(Number(declaration.valid_until.slice(0, 4)));
       expect(dataset.expiration!.date).toBe(declaration.valid_until);
-      expect(dataset.reviews.map((r) => r.type)).toEqual(['Not reviewed']);
+      // The demo's record verifies KV-EXT-6060-T19 alone (test/model/verification-record.test.ts).
+      expect(dataset.reviews.map((r) => r.type)).toEqual([product.product_id === 'KV-EXT-6060-T19' ? 'Independent external review' : 'Not reviewed']);
       expect(dataset.compliance.map((c) => c.uuid)).toEqual(['d4aa3ec7-b1d7-4a4a-a6cb-37af88dcc902']);
     }
   });
