@@ -1,3 +1,6 @@
+import { readFile } from 'node:fs/promises';
+import path from 'node:path';
+import { sha256, type VerificationRecord } from '../model/verification-record.ts';
 import { ChangedCells, type CellChange } from './attribute.ts';
 import { compareProduct, relativeChange, reviewOrder, type FigureChange } from './compare.ts';
 import type { ResultsSet } from './results-set.ts';
@@ -24,6 +27,12 @@ export interface ChangeReport {
   inputs: CellChange[];
   /** Headline figures that moved more than `fail_over`. */
   over: Array<{ product_id: string; figure: string; relative: number | null }>;
+  /**
+   * Where the new build carries a verifier's valid record: whether the old build is the one
+   * verified (each results.json the record covers, by SHA-256), so that the report lists what
+   * moved since verification.
+   */
+  verification: { date: string; verifier: string; covered: number; differing: string[] } | null;
 }
 
 export type FailOverMethods = 'declared' | 'all';
@@ -86,7 +95,17 @@ export async function changeReport(old: ResultsSet, now: ResultsSet, options: { 
     changes,
     inputs,
     over,
+    verification: now.record ? await sinceVerification(old.root, now.record) : null,
   };
+}
+
+async function sinceVerification(oldRoot: string, record: VerificationRecord): Promise<NonNullable<ChangeReport['verification']>> {
+  const differing: string[] = [];
+  for (const result of record.results) {
+    const bytes = await readFile(path.join(oldRoot, result.file)).catch(() => undefined);
+    if (!bytes || sha256(bytes) !== result.sha256) differing.push(result.file);
+  }
+  return { date: record.date, verifier: record.verifier, covered: record.results.length, differing };
 }
 
 /** The report as JSON: numbers as computed (no rounding), for scripts. */
@@ -125,6 +144,14 @@ export function changeReportMarkdown(report: ChangeReport): string {
   lines.push(
     `${formatCounted(products.compared, 'product', 'products')} compared; ${products.changed.length} with figures that moved more than ${share(report.threshold)}; ${products.added.length} added; ${products.removed.length} removed.`,
   );
+  const verified = report.verification;
+  if (verified) {
+    lines.push(
+      verified.differing.length === 0
+        ? `The old build is the one verified on ${verified.date} by ${verified.verifier} (the ${formatCounted(verified.covered, 'results.json', 'results.json files')} its record covers match): what follows moved since verification.`
+        : `The old build is not the one verified on ${verified.date}: ${verified.differing.map(code).join(', ')} differ from the verifier’s record.`,
+    );
+  }
   if (report.changed_files) lines.push(report.changed_files.length > 0 ? `Input files changed: ${report.changed_files.map(code).join(', ')}.` : 'No input file changed.');
   if (report.tool.old !== report.tool.new) lines.push(`Tool version: ${report.tool.old ?? 'unknown'} → ${report.tool.new ?? 'unknown'}.`);
   if (report.fail_over !== null) {

@@ -1,3 +1,4 @@
+import { readRecord, type VerificationRecord } from '../model/verification-record.ts';
 import { readdir, readFile, stat } from 'node:fs/promises';
 import path from 'node:path';
 import { UsageError } from '../problems.ts';
@@ -25,6 +26,10 @@ export interface ResultsSet {
   rowKey: RowKeyOf;
   /** From the verification manifest, when there is one: tool version and the SHA-256 of each input. */
   manifest?: { toolVersion: string; inputs: Map<string, string> };
+  /** The folder the results were read from (a build folder, or a results.json's folder). */
+  root: string;
+  /** The verifier's record in the build's verification pack, where it has one whose signature checks. */
+  record?: VerificationRecord;
 }
 
 const isFile = async (file: string) => (await stat(file).catch(() => undefined))?.isFile() ?? false;
@@ -100,7 +105,8 @@ export async function readResultsSet(label: string): Promise<ResultsSet> {
     const json = (await readJson(manifestFile)) as { tool: { version: string }; inputs: Array<{ file: string; sha256: string }> };
     manifest = { toolVersion: json.tool.version, inputs: new Map(json.inputs.map((input) => [input.file, input.sha256])) };
   }
-  return { label, products, graph, rowKey: inputs.rowKey, manifest };
+  const state = await readRecord(path.join(root, VERIFICATION_DIR, 'inputs'), undefined);
+  return { label, products, graph, rowKey: inputs.rowKey, manifest, root, ...(state.kind === 'valid' ? { record: state.record } : {}) };
 }
 
 /**

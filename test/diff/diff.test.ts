@@ -54,7 +54,7 @@ describe('the declared result first', () => {
     const base = summary(a1, -2);
     return { ...base, methods: { ...base.methods, cff: { parts: { material: { 'GWP-total': cff } }, total: { 'GWP-total': cff } } } } as ResultsSummary;
   };
-  const set = (label: string, s: ResultsSummary): ResultsSet => ({ label, products: new Map([['P1', s]]), graph: async () => undefined, rowKey: (file, line) => `${file}:${line}` });
+  const set = (label: string, s: ResultsSummary): ResultsSet => ({ label, products: new Map([['P1', s]]), graph: async () => undefined, rowKey: (file, line) => `${file}:${line}`, root: label });
 
   it('lists cut-off and D before the comparison methods, and --fail-over guards the declared result unless told otherwise', async () => {
     const old = set('old', withCff(10, 10));

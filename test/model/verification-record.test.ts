@@ -98,6 +98,14 @@ describe('loopsheet verify and build', () => {
     expect(await pageStatus(site, 'KV-CU-BB10')).toMatch(/^verified by/);
     // The family's members are verified, KV-BR-40 is not one of them.
     expect(await pageStatus(site, 'families/profiles-6060-mill')).toMatch(/^verified by/);
+    // Against the verified build, diff names it as such and lists what moved since verification.
+    const diff = await runCli(['diff', out, site, '--threshold', '0']);
+    expect(diff.code, diff.stderr).toBe(0);
+    expect(diff.stdout).toContain(`The old build is the one verified on 2026-11-30 by ${VERIFIER} (the 6 results.json files its record covers match): what follows moved since verification.`);
+    expect(diff.stdout).toContain('`bom.csv` line 10 (`KV-BR-40 · L2`) `scrap_rate`: `0.05` → `0.06`');
+    // Against another build, it says so.
+    const other = await runCli(['diff', site, site]);
+    expect(other.stdout).toMatch(/The old build is not the one verified on 2026-11-30: `KV-BR-40\/results.json` differ/);
   }, 60_000);
 
   it('turns the products back to draft for a changed tool version, a tampered record, a wrong key, and a declaration.json changed after signing', async () => {
