@@ -20,7 +20,8 @@ import type { HashedFile } from './verification.ts';
  * files of every product whose key is unchanged. The verification manifest leaves it out:
  * it describes the build, not the declarations.
  */
-const CACHE_FORMAT = 1;
+/** 2: catalogue entries carry their verification status (a cache of format 1 is not read: every product is built again). */
+const CACHE_FORMAT = 2;
 
 interface CacheFile {
   format: number;
