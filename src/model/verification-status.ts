@@ -4,6 +4,7 @@ import type { Project } from './types.ts';
 import { TOOL_VERSION } from '../reference/tool.ts';
 import { CSV_FILES } from '../schema/index.ts';
 import type { Row, Table } from '../schema/table.ts';
+import { physicalLines } from '../load/lines.ts';
 import { sha256, type RecordState, type RowStamp, type CurrentInputs } from './verification-record.ts';
 
 /**
@@ -29,13 +30,6 @@ function rowKey(table: Table<unknown>, row: { line: number; raw: Record<string, 
   return columns.length ? columns.map((column) => (row.raw[column] ?? '').trim()).join(' · ') : `line ${row.line}`;
 }
 
-const physical = new WeakMap<object, string[]>();
-const linesOf = (table: Table<unknown>): string[] => {
-  let lines = physical.get(table.csv);
-  if (!lines) physical.set(table.csv, (lines = table.csv.text.replace(/\r\n?/g, '\n').split('\n')));
-  return lines;
-};
-
 /** Every input row a product reads (its reach, as its input key counts it), each with its key and the SHA-256 of its text as written. */
 export function productStamps(project: Project, rows: ProductRows): RowStamp[] {
   const tables = inputTables(project);
@@ -44,7 +38,7 @@ export function productStamps(project: Project, rows: ProductRows): RowStamp[] {
     const table = tables.get(file);
     if (!table) continue;
     const byLine = new Map<number, Row<unknown>>(table.rows.map((row) => [row.line, row]));
-    const text = linesOf(table);
+    const text = physicalLines(table.csv);
     for (const line of [...lines].sort((a, b) => a - b)) {
       const row = byLine.get(line);
       if (!row) continue;

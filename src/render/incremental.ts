@@ -3,7 +3,7 @@ import path from 'node:path';
 import type { Project } from '../model/types.ts';
 import { TOOL_VERSION } from '../reference/tool.ts';
 import type { CatalogueEntry } from '../report/site-view.ts';
-import { physicalLines } from '../report/written.ts';
+import { physicalLines } from '../load/lines.ts';
 import { contextChanges, suppliersReached, type InputKey } from './input-key.ts';
 import { inputTables } from '../model/reach.ts';
 

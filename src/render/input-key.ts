@@ -4,7 +4,7 @@ import type { Project } from '../model/types.ts';
 import type { SupplierFactor } from '../model/supplier-datasets.ts';
 import { siteContext } from '../report/site-view.ts';
 import { inputTables, productReach } from '../model/reach.ts';
-import { physicalLines } from '../report/written.ts';
+import { physicalLines } from '../load/lines.ts';
 import type { Table } from '../schema/table.ts';
 import type { FigureGraph } from '../trace/graph.ts';
 import { RESULTS_FORMAT } from '../report/results.ts';

@@ -8,7 +8,7 @@ import type { FigureGraph, FigureNode, Term } from '../trace/graph.ts';
 import { cutoffStep, inventoryStep, processStep, resultStep, stepGroup, type ResultMethod } from '../trace/ids.ts';
 import { fragment, inputAnchor } from './figure-links.ts';
 import { formatFigure as show } from '../format.ts';
-import { physicalLines } from './written.ts';
+import { physicalLines } from '../load/lines.ts';
 import { layOut, placeStep, type AuditGroup, type AuditStep, type AuditTerm, type GroupDraft } from './audit-layout.ts';
 
 export type { AuditGroup, AuditItem, AuditRun, AuditStep, AuditTerm } from './audit-layout.ts';

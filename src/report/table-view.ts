@@ -1,6 +1,6 @@
 import type { Table } from '../schema/table.ts';
 import { formatAmount, formatShare } from '../format.ts';
-import { physicalLines } from './written.ts';
+import { physicalLines } from '../load/lines.ts';
 
 /**
  * View models for the site: everything a template prints, already formatted, so the
