@@ -47,7 +47,10 @@ separators. Shares as fractions (0.35) or percentages (35%). Empty cells in fact
 "not available" and are never read as zero.
 
 A declaration is not a public environmental claim until an independent verifier has verified
-it under ISO 14025 and the applicable PCR.
+it under ISO 14025 and the applicable PCR. The verifier signs a record of the build they
+checked with \`loopsheet verify\` (keys from \`loopsheet keygen\`, kept outside this folder);
+until then, and again as soon as an input it covers changes, every declaration says it is a
+draft and why.
 
 ## Columns
 

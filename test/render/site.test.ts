@@ -95,6 +95,13 @@ describe('PDF in a real Chromium', async () => {
     for (const page of pages) expect(await readFile(path.join(out, page), 'utf8'), page).not.toMatch(/from memory/i);
   });
 
+  it.skipIf(!browser || !pdftotext)('heads every page of a verified declaration’s PDF with its date of verification (the demo’s record covers KV-EXT-6060-T19)', () => {
+    const text = execFileSync('pdftotext', ['-layout', path.join(out, 'KV-EXT-6060-T19', 'declaration.pdf'), '-'], { encoding: 'utf8' });
+    const pages = text.split('\f').filter((page) => page.trim() !== '');
+    for (const page of pages) expect(page).toContain('verified 2026-11-30');
+    expect(text).not.toContain('DRAFT — not verified');
+  });
+
   it.skipIf(!browser || !pdftotext)('prints the family page with its weighted averages, the draft status on every page (poppler pdftotext)', async () => {
     const file = path.join(out, 'families', 'profiles-6060-mill', 'declaration.pdf');
     expect((await readFile(file)).subarray(0, 5).toString()).toBe('%PDF-');
