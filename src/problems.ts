@@ -40,6 +40,8 @@ export const PROBLEM_CODES = {
   EOL_SHARES_SUM: 'end-of-life shares do not sum to 1 (tolerance 1e-6)',
   EOL_SCENARIO_GAP: 'a product material has no end-of-life row (neither its own nor `*`)',
   UNIT_MASS_MISMATCH: 'product-role BOM masses differ from unit_mass_kg by more than 1 %',
+  DECLARED_UNIT_UNKNOWN: 'a declared unit that names no unit of mass, length, area, volume or items (the ILCD+EPD archive declares it per item)',
+  DECLARED_UNIT_MASS: 'a declared unit of mass ("1 t") whose unit_mass_kg is another mass',
   NO_BOM_LINES: 'a product has no product-role BOM lines',
   FACTOR_REQUIRED: 'a material is used in a way that needs a factor its row does not name',
   FACTOR_VALUE_MISSING: 'a factor row used by the project has no value for an indicator the declaration reports',

@@ -80,3 +80,17 @@ export function conversionFactor(from: string, to: string): number {
 export function convert(value: number, from: string, to: string): number {
   return value * conversionFactor(from, to);
 }
+
+/**
+ * A declared unit as products.csv writes it ("1 m", "2 km", "1 piece", "1 t"): its amount and
+ * its unit, when the text is an optional number and a unit this converter knows; undefined
+ * otherwise ("1 bracket", "one coil").
+ */
+export function parseDeclaredUnit(text: string): { amount: number; unit: string; dimension: Dimension } | undefined {
+  const match = /^\s*([0-9]+(?:\.[0-9]+)?)?\s*(.*?)\s*$/.exec(text);
+  if (!match) return undefined;
+  const unit = canonicalUnit(match[2] ?? '');
+  if (!unit) return undefined;
+  const amount = match[1] === undefined ? 1 : Number(match[1]);
+  return amount > 0 ? { amount, unit, dimension: UNITS[unit]!.dimension } : undefined;
+}

@@ -18,7 +18,7 @@ import {
   type Reference,
   type UnitGroup,
 } from '../reference/ilcd.ts';
-import { canonicalUnit, conversionFactor, dimensionOf } from '../reference/units.ts';
+import { canonicalUnit, conversionFactor, parseDeclaredUnit } from '../reference/units.ts';
 import { TOOL_NAME, TOOL_VERSION } from '../reference/tool.ts';
 import type { IndicatorValues, ResultsSummary } from './results.ts';
 import type { FamilyResults } from './families.ts';
@@ -177,15 +177,12 @@ function administrative(parent: Node, declaration: Declaration, owner?: Ref): vo
 
 /** The declared unit as an amount of a published flow property: "1 m" → 1 of Length (m); "1 t" → 1000 of Mass (kg). Text that names no known unit counts as items. */
 export function declaredQuantity(declaredUnit: string): { amount: number; property: FlowProperty } {
-  const match = /^\s*([0-9]+(?:\.[0-9]+)?)?\s*(.*?)\s*$/.exec(declaredUnit)!;
-  const amount = match[1] === undefined ? 1 : Number(match[1]);
-  const unit = canonicalUnit(match[2] ?? '');
-  const dimension = unit ? dimensionOf(unit) : undefined;
-  const propertyName = dimension ? DIMENSION_PROPERTY[dimension] : undefined;
-  if (!unit || !propertyName) return { amount, property: flowProperty('Number of items') };
+  const parsed = parseDeclaredUnit(declaredUnit);
+  const propertyName = parsed ? DIMENSION_PROPERTY[parsed.dimension] : undefined;
+  if (!parsed || !propertyName) return { amount: parsed?.amount ?? 1, property: flowProperty('Number of items') };
   const property = flowProperty(propertyName);
-  const referenceUnit = canonicalUnit(property.unitGroup.unit) ?? (dimension === 'count' ? 'piece' : property.unitGroup.unit);
-  return { amount: amount * conversionFactor(unit, referenceUnit), property };
+  const referenceUnit = canonicalUnit(property.unitGroup.unit) ?? (parsed.dimension === 'count' ? 'piece' : property.unitGroup.unit);
+  return { amount: parsed.amount * conversionFactor(parsed.unit, referenceUnit), property };
 }
 
 /** The datasets of one declaration that every product's archive shares, by path. */

@@ -104,6 +104,9 @@ const cases: Case[] = [
     plant: (d) => editFile(at(d, 'declaration.json'), (t) => t.replace('"status": "draft"', '"status": "verified"')),
     expected: { file: 'declaration.json', line: 12, column: 'verification.verifier' },
   },
+  // products.csv line 4: KV-CU-BB10, declared per 1 kg of 1.0 kg.
+  { code: 'DECLARED_UNIT_UNKNOWN', plant: (d) => editLine(at(d, 'products.csv'), 4, ',1 kg,', ',1 busbar,'), expected: { file: 'products.csv', line: 4, column: 'declared_unit', value: '1 busbar', severity: 'warning' } },
+  { code: 'DECLARED_UNIT_MASS', plant: (d) => editLine(at(d, 'products.csv'), 4, ',1 kg,', ',1 t,'), expected: { file: 'products.csv', line: 4, column: 'unit_mass_kg', value: '1.0', severity: 'warning' } },
   {
     code: 'VERIFICATION_UNSIGNED',
     plant: async (d) => {

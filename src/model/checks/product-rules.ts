@@ -1,8 +1,37 @@
 import type { CheckContext } from './context.ts';
 import { formatFixed, formatInput } from '../../format.ts';
+import { conversionFactor, parseDeclaredUnit, type Dimension } from '../../reference/units.ts';
+import type { Row } from '../../schema/table.ts';
+import type { Product } from '../rows.ts';
 
 /** EN 15804+A2 declares per declared unit: the BOM must add up to it. */
 const UNIT_MASS_TOLERANCE = 0.01;
+
+/** The flow properties a declared unit may be measured in, in the exchange format declarations are published in (ILCD+EPD). */
+const MEASURABLE: readonly Dimension[] = ['mass', 'length', 'area', 'volume', 'count'];
+
+/**
+ * A declared unit names an amount of a unit loopsheet knows (the ILCD+EPD archive declares it
+ * as an amount of a flow property; text it cannot read is declared as items), and a declared
+ * unit of mass is the product's mass: "1 t" of 900 kg declares one thing and weighs another.
+ */
+function declaredUnitRules(ctx: CheckContext, row: Row<Product>): void {
+  const p = ctx.project;
+  const product = row.value;
+  const parsed = parseDeclaredUnit(product.declared_unit);
+  if (!parsed || !MEASURABLE.includes(parsed.dimension)) {
+    ctx.at(p.products, row.line, row.raw, 'declared_unit', 'warning', 'DECLARED_UNIT_UNKNOWN',
+      parsed ? `is a quantity of ${parsed.dimension}, which a declared unit is not measured in; the ILCD+EPD archive declares the product per item` : 'names no unit loopsheet knows; the ILCD+EPD archive declares the product per item',
+      { expected: 'an amount and a unit of mass, length, area, volume or items, e.g. "1 kg", "1 t", "1 m", "1 m2", "1 piece"' });
+    return;
+  }
+  if (parsed.dimension === 'mass') {
+    const kg = parsed.amount * conversionFactor(parsed.unit, 'kg');
+    if (Math.abs(kg - product.unit_mass_kg) > UNIT_MASS_TOLERANCE * kg) {
+      ctx.at(p.products, row.line, row.raw, 'unit_mass_kg', 'warning', 'DECLARED_UNIT_MASS', `is not the mass of the declared unit ${product.declared_unit} (${formatInput(kg)} kg)`, { expected: `${formatInput(kg)} (within 1 %)` });
+    }
+  }
+}
 
 export function productRules(ctx: CheckContext): void {
   const p = ctx.project;
@@ -26,6 +55,7 @@ export function productRules(ctx: CheckContext): void {
 
   for (const productRow of p.products.rows) {
     const product = productRow.value;
+    declaredUnitRules(ctx, productRow);
     const lines = validLines.get(product.product_id) ?? [];
     const complete = lines.length === (writtenLines.get(product.product_id) ?? 0);
     const productLines = lines.filter((line) => line.value.role === 'product');
