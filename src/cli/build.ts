@@ -57,7 +57,7 @@ export async function runBuild(options: BuildOptions, io: Io, loaded?: ProjectLo
   let missingPdfs: string[] = [];
   let summary = '';
   await withStagedOutput(options.out, async (staging) => {
-    const inputs = await hashInputs(project.dir, [...project.suppliers.values()].map((supplier) => supplier.file), verificationFiles(project));
+    const inputs = await hashInputs(project.dir, [...[...project.suppliers.values()].map((supplier) => supplier.file), ...verificationFiles(project)]);
     await copyInputs(project.dir, staging, inputs);
     progress.phase(previous ? 'compare inputs, then calculate and render the changed products' : 'calculate and render');
     const built = await buildSite(project, problems, staging, {

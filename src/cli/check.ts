@@ -23,10 +23,9 @@ export async function runCheck(options: { data: string; json: boolean }, io: Io)
  * or a draft and why (the build also compares each results.json with the one verified).
  */
 export function verificationLines(project: Project): string[] {
-  const { state, current } = project.verification;
-  if (state.kind === 'none') return [];
+  if (project.verification.state.kind === 'none') return [];
   return rowsByProduct(project).map((rows) => {
-    const status = productStatus(project, state, current, rows);
+    const status = productStatus(project, rows);
     const id = rows.product.value.product_id;
     return status.status === 'verified' ? `verification: ${id} verified by ${status.verifier} on ${status.date}` : `verification: ${id} draft: ${status.reasons.join('; ')}`;
   });

@@ -10,7 +10,6 @@ import { checkOutputDir, recoverInterrupted, withStagedOutput } from '../render/
 import { readShardRecords } from '../render/shards.ts';
 import { VERIFICATION_DIR } from '../files.ts';
 import { CSV_FILES, DECLARATION_FILE } from '../schema/index.ts';
-import { RECORD_FILE } from '../model/verification-record.ts';
 import { copyInputs, hashInputs, writeManifest, type HashedFile } from '../render/verification.ts';
 import { EXIT, UsageError, type Io } from './io.ts';
 import { printProblems } from './report-problems.ts';
@@ -26,12 +25,9 @@ export async function runMerge(options: { dirs: string[]; out: string }, io: Io)
   for (const record of records) if (path.resolve(record.dir) === out) throw new UsageError(`--out ${options.out} is one of the shards; merge into a new folder`);
   // Every shard carries a copy of the inputs; the first one's is the project the catalogue is made from.
   const inputsDir = path.join(records[0]!.dir, VERIFICATION_DIR, 'inputs');
-  // The supplier datasets the shards copied are listed in their record.
+  // The other files the shards copied (supplier datasets, the verifier's record and key) are listed in their record.
   const known = new Set([DECLARATION_FILE, ...CSV_FILES.map((schema) => schema.file)]);
-  const listed = records[0]!.inputs.map((input) => input.file).filter((file) => !known.has(file));
-  // The verifier's record and public key come last, as the build lists them.
-  const verification = listed.filter((file) => file === RECORD_FILE || file.endsWith('.pem'));
-  const inputs = await hashInputs(inputsDir, listed.filter((file) => !verification.includes(file)), verification);
+  const inputs = await hashInputs(inputsDir, records[0]!.inputs.map((input) => input.file).filter((file) => !known.has(file)));
   if (JSON.stringify(inputs) !== JSON.stringify(records[0]!.inputs)) throw new UsageError(`${inputsDir}: the input copies no longer match the shard's record`);
   for (const line of recoverInterrupted(options.out)) io.err(line);
   await checkOutputDir(options.out, inputsDir);

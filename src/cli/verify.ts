@@ -4,7 +4,7 @@ import { mkdir, readFile, realpath, writeFile } from 'node:fs/promises';
 import path from 'node:path';
 import { rowsByProduct } from '../model/by-product.ts';
 import { loadProject } from '../model/project.ts';
-import { canonicalJson, keyFingerprint, PUBLIC_KEY_FILE, RECORD_FILE, sha256, type VerificationRecord } from '../model/verification-record.ts';
+import { canonicalJson, hashCurrentInputs, keyFingerprint, PUBLIC_KEY_FILE, RECORD_FILE, sha256, type VerificationRecord } from '../model/verification-record.ts';
 import { productStamps } from '../model/verification-status.ts';
 import { hasErrors } from '../problems.ts';
 import { formatCounted } from '../format.ts';
@@ -66,7 +66,7 @@ export async function verificationRecord(options: Omit<VerifyOptions, 'key'>, to
   if (!project || hasErrors(problems)) throw new UsageError(`${options.data} has errors: run loopsheet check, fix them, build and check the build before verifying`);
   const manifest = JSON.parse(await readFile(path.join(options.out, VERIFICATION_DIR, MANIFEST_FILE), 'utf8').catch(() => 'null')) as { tool?: { version: string }; inputs?: Array<{ file: string; sha256: string }> } | null;
   if (!manifest?.inputs) throw new UsageError(`${options.out} is not a build (no ${VERIFICATION_DIR}/${MANIFEST_FILE}); verify the build you checked`);
-  const current = project.verification.current;
+  const current = await hashCurrentInputs(options.data, DECLARATION_FILE, [...project.suppliers.values()].map((supplier) => supplier.file));
   const now = new Map([[DECLARATION_FILE, current.configuration], ...current.inputs]);
   // The record and key of an earlier verification are in the pack too; they are not what is verified.
   const verifiedFiles = manifest.inputs.filter((input) => input.file !== RECORD_FILE && input.file !== (project.declaration.verification.public_key ?? PUBLIC_KEY_FILE));

@@ -6,7 +6,7 @@ import { readCsvText } from '../load/csv.ts';
 import { readText } from '../load/text.ts';
 import { RESULTS_FORMAT, type ResultsJson, type ResultsSummary } from '../report/results.ts';
 import { GraphReader, type GraphJson, type WrittenCell } from '../trace/graph-json.ts';
-import { CSV_FILES } from '../schema/index.ts';
+import { CSV_FILES, DECLARATION_FILE } from '../schema/index.ts';
 import { MANIFEST_FILE, RESULTS_JSON, VERIFICATION_DIR } from '../files.ts';
 import { readCatalogueSummaries } from '../report/catalogue-results.ts';
 import type { RowKeyOf } from './attribute.ts';
@@ -105,7 +105,10 @@ export async function readResultsSet(label: string): Promise<ResultsSet> {
     const json = (await readJson(manifestFile)) as { tool: { version: string }; inputs: Array<{ file: string; sha256: string }> };
     manifest = { toolVersion: json.tool.version, inputs: new Map(json.inputs.map((input) => [input.file, input.sha256])) };
   }
-  const state = await readRecord(path.join(root, VERIFICATION_DIR, 'inputs'), undefined);
+  // The record and the key as the build's pack copied them (the key where declaration.json names one).
+  const copies = path.join(root, VERIFICATION_DIR, 'inputs');
+  const declared = (await readFile(path.join(copies, DECLARATION_FILE), 'utf8').then((text) => JSON.parse(text) as { verification?: { public_key?: unknown } }).catch(() => undefined))?.verification?.public_key;
+  const state = await readRecord(copies, typeof declared === 'string' ? declared : undefined);
   return { label, products, graph, rowKey: inputs.rowKey, manifest, root, ...(state.kind === 'valid' ? { record: state.record } : {}) };
 }
 

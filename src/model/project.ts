@@ -19,7 +19,7 @@ import { nearestName } from '../reference/nearest.ts';
 import { crossFileChecks } from './checks/index.ts';
 import { foldIdKnockOns } from './checks/root-causes.ts';
 import { readSupplierDatasets } from './supplier-datasets.ts';
-import { hashCurrentInputs, readRecord, RECORD_FILE, type RecordState } from './verification-record.ts';
+import { hashCurrentInputs, NO_INPUTS, readRecord, RECORD_FILE, type RecordState } from './verification-record.ts';
 
 export * from './types.ts';
 import type { Project } from './types.ts';
@@ -121,7 +121,9 @@ export async function loadProject(dirArgument: string): Promise<ProjectLoad> {
     // Cross-file rules run even when declaration.json is broken, so one run shows every problem.
     problems.push(...crossFileChecks({ ...tables, declaration, declarationFile }));
     // The verifier's record: a declaration is verified only by a record whose signature checks.
-    const verification = { state: await readRecord(dir, declaration?.verification.public_key), current: await hashCurrentInputs(dir, DECLARATION_FILE, [...suppliers.values()].map((s) => s.file)) };
+    // The input files are hashed again only where there is a record to compare them with.
+    const state = await readRecord(dir, declaration?.verification.public_key);
+    const verification = { state, current: state.kind === 'none' ? NO_INPUTS : await hashCurrentInputs(dir, DECLARATION_FILE, [...suppliers.values()].map((s) => s.file)) };
     if (declaration?.verification.status === 'verified' && verification.state.kind !== 'valid' && declarationFile) problems.push(unsignedVerified(declarationFile, verification.state));
     const sorted = sortProblems(foldIdKnockOns(problems));
     if (declaration && declarationFile && !sorted.some((p) => p.severity === 'error')) {

@@ -236,3 +236,10 @@ function convert(dataset: EpdDataset, rowUnit: string): { perUnit: number; text:
   }
   return { problem: `declares its product per ${amountText}, which cannot be converted to ${rowUnit}${dimension === 'mass' ? ' (the dataset gives no size per kg)' : ''}`, where: property };
 }
+
+/** The supplier datasets whose factors.csv rows a product reaches (its reach: file → start lines), in factor-row order. */
+export function suppliersReached(project: { suppliers: ReadonlyMap<string, SupplierFactor>; factors: { file: string }; lookups: { factors: ReadonlyMap<string, { line: number }> } }, reach: ReadonlyMap<string, ReadonlySet<number>>): SupplierFactor[] {
+  const lines = reach.get(project.factors.file);
+  if (!lines || project.suppliers.size === 0) return [];
+  return [...project.suppliers.values()].filter((supplier) => lines.has(project.lookups.factors.get(supplier.factorId)?.line ?? -1));
+}

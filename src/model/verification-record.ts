@@ -98,7 +98,10 @@ export interface CurrentInputs {
   inputs: ReadonlyMap<string, string>;
 }
 
-/** What a project knows of its verification: the record as read and checked, and its input files' hashes now. */
+/** The hashes of a project without a record: nothing to compare. */
+export const NO_INPUTS: CurrentInputs = { configuration: '', inputs: new Map() };
+
+/** What a project knows of its verification: the record as read and checked, and (where there is a record) its input files' hashes now. */
 export interface ProjectVerification {
   state: RecordState;
   current: CurrentInputs;

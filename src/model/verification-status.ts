@@ -5,7 +5,8 @@ import { TOOL_VERSION } from '../reference/tool.ts';
 import { CSV_FILES } from '../schema/index.ts';
 import type { Row, Table } from '../schema/table.ts';
 import { physicalLines } from '../load/lines.ts';
-import { sha256, type RecordState, type RowStamp, type CurrentInputs } from './verification-record.ts';
+import { sha256, type RecordState, type RowStamp } from './verification-record.ts';
+import { suppliersReached } from './supplier-datasets.ts';
 
 /**
  * A declaration's status against its verifier's record (src/model/verification-record.ts):
@@ -31,10 +32,10 @@ function rowKey(table: Table<unknown>, row: { line: number; raw: Record<string, 
 }
 
 /** Every input row a product reads (its reach, as its input key counts it), each with its key and the SHA-256 of its text as written. */
-export function productStamps(project: Project, rows: ProductRows): RowStamp[] {
+export function productStamps(project: Project, rows: ProductRows, reach: ReadonlyMap<string, ReadonlySet<number>> = productReach(project, rows)): RowStamp[] {
   const tables = inputTables(project);
   const stamps: RowStamp[] = [];
-  for (const [file, lines] of [...productReach(project, rows)].sort(([a], [b]) => (a < b ? -1 : 1))) {
+  for (const [file, lines] of [...reach].sort(([a], [b]) => (a < b ? -1 : 1))) {
     const table = tables.get(file);
     if (!table) continue;
     const byLine = new Map<number, Row<unknown>>(table.rows.map((row) => [row.line, row]));
@@ -50,10 +51,12 @@ export function productStamps(project: Project, rows: ProductRows): RowStamp[] {
 
 /**
  * The status of a product: verified while the record is valid, covers it, was made with this
- * tool version, and every row it reads, the configuration and every supplier dataset are as
- * recorded (results.json is compared by the build, which has it: `resultsChanged`).
+ * tool version, and every row it reads, the configuration and every supplier dataset it reads
+ * are as recorded (results.json is compared by the build, which has it: `resultsChanged`).
+ * `reach` is the product's reach where the caller has found it already.
  */
-export function productStatus(project: Project, state: RecordState, current: CurrentInputs, rows: ProductRows): VerificationStatus {
+export function productStatus(project: Project, rows: ProductRows, reach?: ReadonlyMap<string, ReadonlySet<number>>): VerificationStatus {
+  const { state, current } = project.verification;
   const id = rows.product.value.product_id;
   if (state.kind === 'none') return DRAFT_NO_RECORD;
   if (state.kind === 'invalid') return { status: 'draft', ...(state.date ? { date: state.date } : {}), reasons: [state.reason] };
@@ -64,7 +67,8 @@ export function productStatus(project: Project, state: RecordState, current: Cur
   if (record.configuration.sha256 !== current.configuration) changes.push(record.configuration.file);
   const before = new Map((record.rows[id] ?? []).map((stamp) => [`${stamp.file}\u0000${stamp.key}`, stamp]));
   const seen = new Set<string>();
-  for (const stamp of productStamps(project, rows)) {
+  const reached = reach ?? productReach(project, rows);
+  for (const stamp of productStamps(project, rows, reached)) {
     const key = `${stamp.file}\u0000${stamp.key}`;
     seen.add(key);
     const old = before.get(key);
@@ -72,7 +76,7 @@ export function productStatus(project: Project, state: RecordState, current: Cur
     else if (old.sha256 !== stamp.sha256) changes.push(`${stamp.file} line ${stamp.line} (${stamp.key})`);
   }
   for (const [key, old] of before) if (!seen.has(key)) changes.push(`${old.file} line ${old.line} (${old.key}, removed)`);
-  for (const supplier of project.suppliers.values()) {
+  for (const supplier of suppliersReached(project, reached)) {
     const recorded = record.inputs.find((input) => input.file === supplier.file);
     if (recorded && recorded.sha256 !== current.inputs.get(supplier.file)) changes.push(supplier.file);
   }

@@ -4,7 +4,8 @@ import type { Project } from '../model/types.ts';
 import { TOOL_VERSION } from '../reference/tool.ts';
 import type { CatalogueEntry } from '../report/site-view.ts';
 import { physicalLines } from '../load/lines.ts';
-import { contextChanges, suppliersReached, type InputKey } from './input-key.ts';
+import { contextChanges, type InputKey } from './input-key.ts';
+import { suppliersReached } from '../model/supplier-datasets.ts';
 import { inputTables } from '../model/reach.ts';
 
 export { CACHE_FILE };

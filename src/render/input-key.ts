@@ -1,7 +1,7 @@
 import { createHash } from 'node:crypto';
 import type { ProductRows } from '../model/by-product.ts';
 import type { Project } from '../model/types.ts';
-import type { SupplierFactor } from '../model/supplier-datasets.ts';
+import { suppliersReached } from '../model/supplier-datasets.ts';
 import { siteContext } from '../report/site-view.ts';
 import { inputTables, productReach } from '../model/reach.ts';
 import { physicalLines } from '../load/lines.ts';
@@ -66,13 +66,6 @@ function recordEnd(table: Table<unknown>, line: number): number {
   let ends = recordEnds.get(table);
   if (!ends) recordEnds.set(table, (ends = new Map(table.rows.map((row) => [row.line, row.lineEnd]))));
   return ends.get(line) ?? line;
-}
-
-/** The supplier datasets whose factors.csv rows a product reaches, in factor-row order. */
-export function suppliersReached(project: Project, reach: ReadonlyMap<string, ReadonlySet<number>>): SupplierFactor[] {
-  const lines = reach.get(project.factors.file);
-  if (!lines || project.suppliers.size === 0) return [];
-  return [...project.suppliers.values()].filter((supplier) => lines.has(project.lookups.factors.get(supplier.factorId)?.line ?? -1));
 }
 
 /**

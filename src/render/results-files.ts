@@ -12,7 +12,8 @@ import type { ProductReport } from '../report/site-view.ts';
 import { auditHtml } from './audit-html.ts';
 import { hashBytes, hashText, type HashedFile } from './verification.ts';
 import { ilcdArchive } from './ilcd-archive.ts';
-import { ilcdDatasets, productExport } from '../report/ilcd-export.ts';
+import { ilcdDatasets } from '../report/ilcd-export.ts';
+import { productExport } from '../report/ilcd-declaration.ts';
 import { renderChartSvg } from './charts.ts';
 import { productInputKey, readsOutside } from './input-key.ts';
 import { productReach } from '../model/reach.ts';
@@ -49,16 +50,15 @@ export class ResultsWriter {
     const csv = resultsCsv([summary]);
     await writeFile(path.join(dir, RESULTS_JSON), json);
     await writeFile(path.join(dir, RESULTS_CSV), csv);
-    const { state, current } = ctx.project.verification;
-    const verification = resultsChanged(state, `${summary.product_id}/${RESULTS_JSON}`, json, productStatus(ctx.project, state, current, rows));
+    // The reach, found once: the verification status, the check against the figure graph and the input key read it.
+    const reach = productReach(ctx.project, rows);
+    const verification = resultsChanged(ctx.project.verification.state, `${summary.product_id}/${RESULTS_JSON}`, json, productStatus(ctx.project, rows, reach));
     const archive = ilcdArchive(ilcdDatasets(ctx.project.declaration, productExport(rows.product.value, summary, verification)));
     await writeFile(path.join(dir, DECLARATION_ILCD), archive);
     // Hashed as written, for the verification manifest.
     const hashes = [hashText(`${summary.product_id}/results.json`, json), hashText(`${summary.product_id}/results.csv`, csv), hashBytes(`${summary.product_id}/${DECLARATION_ILCD}`, archive)];
     const view = declarationResultsView(ctx, rows, product, summary);
     for (const chart of [...view.charts, ...(view.sensitivity?.scopes.flatMap((scope) => scope.charts) ?? [])]) chart.svg = await renderChartSvg(chart);
-    // The reach, found once: checked against the figure graph, then hashed into the input key.
-    const reach = productReach(ctx.project, rows);
     const outside = readsOutside(ctx.project, reach, product.graph);
     // A row the key does not cover would let `build --changed` keep a stale product: stop instead.
     if (outside) throw new ToolError('internal', `figure ${outside.figure} of ${summary.product_id} reads ${outside.file} line ${outside.line}, which its input key does not cover (src/model/reach.ts productReach); please report this`);

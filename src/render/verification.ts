@@ -28,17 +28,15 @@ export const hashBytes = (file: string, bytes: Uint8Array): HashedFile => ({ fil
 
 /**
  * The input files, in contract order, with their checksums (declaration.json first: it is
- * also the configuration), then the supplier datasets factors.csv names (`extra`, paths
- * relative to the data folder), in path order, then the verifier's record and key where the
- * data folder has them (`optionalExtra`).
+ * also the configuration), then the other files the project reads (`extra`, paths relative to
+ * the data folder: the supplier datasets factors.csv names, the verifier's record and public
+ * key), in path order; an extra file that is not there is not part of the pack.
  */
-export async function hashInputs(dataDir: string, extra: readonly string[] = [], optionalExtra: readonly string[] = []): Promise<HashedFile[]> {
+export async function hashInputs(dataDir: string, extra: readonly string[] = []): Promise<HashedFile[]> {
   const files = [
     { file: DECLARATION_FILE, optional: false },
     ...CSV_FILES.map((schema) => ({ file: schema.file, optional: schema.optional })),
-    ...[...new Set(extra)].sort().map((file) => ({ file, optional: false })),
-    // The verifier's record and public key, where there are (an invalid record too: the pack shows what was there).
-    ...[...new Set(optionalExtra)].map((file) => ({ file, optional: true })),
+    ...[...new Set(extra)].sort().map((file) => ({ file, optional: true })),
   ];
   const hashed = await Promise.all(
     files.map(async ({ file, optional }): Promise<HashedFile | undefined> => {

@@ -1,75 +1,32 @@
-import { XMLBuilder } from 'fast-xml-parser';
 import type { Declaration } from '../schema/declaration.ts';
 import { findIndicator } from '../reference/indicators.ts';
 import {
   BIOGENIC_CARBON,
   BIOGENIC_CARBON_PACKAGING,
-  DIMENSION_PROPERTY,
   EPD_FORMAT_VERSION,
-  ILCD_VERSION,
   MASS,
   NS,
   SOURCES,
   datasetUuid,
   exchangeDirection,
-  flowProperty,
   isImpactIndicator,
   type FlowProperty,
   type Reference,
   type UnitGroup,
 } from '../reference/ilcd.ts';
-import { canonicalUnit, conversionFactor, parseDeclaredUnit } from '../reference/units.ts';
 import { TOOL_NAME, TOOL_VERSION } from '../reference/tool.ts';
-import type { IndicatorValues, ResultsSummary } from './results.ts';
-import type { FamilyResults } from './families.ts';
+import type { IndicatorValues } from './results.ts';
 import { processUuidOf } from './ilcd-link.ts';
-import type { Product } from '../model/rows.ts';
+import { declaredQuantity, type ExportedDeclaration } from './ilcd-declaration.ts';
+import { Doc, double, el, lang, sentence, type Node } from './ilcd-xml.ts';
 
 /**
  * A declaration as an ILCD+EPD archive's datasets: the process dataset of type EPD, its
  * reference product flow, the owner (and verifier) as contacts, the PCR, the background data and
  * the verification as sources, and the flow properties and unit groups it uses (published
- * UUIDs). Each dataset is one XML document built with fast-xml-parser's XMLBuilder (text escaped by the
- * library); the caller zips them (src/render/ilcd-archive.ts). Field by field, what is written
+ * UUIDs). Each dataset is one XML document (src/report/ilcd-xml.ts); the caller zips them (src/render/ilcd-archive.ts). Field by field, what is written
  * and where it comes from is listed in DEVELOPERS.md ("The ILCD+EPD export").
  */
-
-/** What the export reads of one product or family declaration. */
-export interface ExportedDeclaration {
-  kind: 'product' | 'family';
-  /** product_id or family_id. */
-  id: string;
-  name: string;
-  description: string;
-  /** As products.csv writes it ("1 m", "1 kg", "1 piece"). */
-  declaredUnit: string;
-  /** kg of product per declared unit (a family: the members' weighted mean). */
-  unitMassKg: number;
-  /** Indicators reported, in reporting order. */
-  indicators: ReadonlyArray<{ code: string; unit: string; name: string }>;
-  /** Cut-off results by declared module (EN 15804+A2), A1, A2, A3 and A1-A3 among them. */
-  modules: Readonly<Record<string, IndicatorValues>>;
-  /** kg C per declared unit; null where not available. */
-  biogenicCarbonKg: { product: number | null; packaging: number | null };
-  /** The end-of-life scenario of C1–C4 and D, with the shares of the product's mass per route. */
-  endOfLife: EndOfLifeScenario | undefined;
-  /** A family's members (ids and shares of the weighted mean). */
-  members?: ReadonlyArray<{ id: string; share: number }>;
-  /** Its verification: verified only by a verifier's valid record (src/model/verification-record.ts); a draft otherwise. */
-  verification: { status: 'verified' | 'draft'; verifier?: string | undefined; date?: string | undefined };
-}
-
-export interface EndOfLifeScenario {
-  name: string;
-  /** Shares of the end-of-life mass. */
-  separate: number;
-  withMixedWaste: number;
-  reuse: number;
-  recycling: number;
-  energyRecovery: number;
-  incineration: number;
-  landfill: number;
-}
 
 /** One dataset of the archive: its path inside the archive (ILCD/<folder>/<uuid>.xml) and its text. */
 export interface IlcdFile {
@@ -93,66 +50,6 @@ interface Ref {
   text: string;
 }
 
-/** Text from the inputs, ready for the writer (which escapes it): characters XML 1.0 does not allow (§2.2) replaced, so any input makes a well-formed document. */
-// eslint-disable-next-line no-control-regex
-const clean = (text: string): string => text.replace(/[\u0000-\u0008\u000B\u000C\u000E-\u001F\uFFFE\uFFFF]/g, '\uFFFD');
-
-/** Text as a sentence: ends with a full stop (none added to empty text). */
-const sentence = (text: string): string => (text.trim() === '' || /[.!?]$/.test(text.trim()) ? text.trim() : `${text.trim()}.`);
-
-/** xs:double text that reads back to the same number (shortest round trip). */
-const double = (value: number): string => (Number.isInteger(value) && Math.abs(value) < 1e21 ? value.toFixed(1) : String(value));
-
-/** An element of a dataset, gathered in document order and then written by the XML writer (`Doc.text`). */
-interface Node {
-  /** Namespace URI and qualified name. */
-  ns: string;
-  name: string;
-  attrs: Record<string, string>;
-  text: string | undefined;
-  children: Node[];
-}
-
-/**
- * One dataset: a small tree of elements, serialised by fast-xml-parser's XMLBuilder, which
- * escapes every text and attribute value (&, <, >, quotes) and writes the declaration and the
- * indentation. (xmlbuilder2 was tried first: its DOM builder took about 7 ms for one product's
- * process dataset and its streaming writer 28 ms; this takes well under 1 ms.)
- */
-class Doc {
-  readonly root: Node;
-  constructor(ns: string, name: string, extraNs: Record<string, string> = {}) {
-    const attrs: Record<string, string> = { xmlns: ns, 'xmlns:common': NS.common };
-    for (const [prefix, uri] of Object.entries(extraNs)) attrs[`xmlns:${prefix}`] = uri;
-    this.root = { ns, name, attrs: { ...attrs, version: ILCD_VERSION }, text: undefined, children: [] };
-  }
-  text(): string {
-    type Ordered = Record<string, unknown>;
-    const ordered = (node: Node): Ordered => {
-      const children: Ordered[] = node.text === undefined ? [] : [{ '#text': node.text }];
-      for (const child of node.children) children.push(ordered(child));
-      const attrs = Object.fromEntries(Object.entries(node.attrs).map(([key, value]) => [`@_${key}`, value]));
-      return Object.keys(attrs).length ? { [node.name]: children, ':@': attrs } : { [node.name]: children };
-    };
-    const declaration = { '?xml': [{ '#text': '' }], ':@': { '@_version': '1.0', '@_encoding': 'UTF-8' } };
-    return `${WRITER.build([declaration, ordered(this.root)]).replace(/^\n/, '')}\n`;
-  }
-}
-
-/** The writer every dataset shares: element order kept (preserveOrder), attributes with a prefix of their own, values escaped, two-space indentation. */
-const WRITER = new XMLBuilder({ preserveOrder: true, ignoreAttributes: false, attributeNamePrefix: '@_', format: true, indentBy: '  ', suppressEmptyNode: true, processEntities: true });
-
-/** A child element in the namespace of its prefix (none: the parent's); text and attribute values from the inputs cleaned, then escaped by the writer. */
-function el(parent: Node, name: string, text?: string | number, attrs: Record<string, string> = {}): Node {
-  const prefix = name.includes(':') ? (name.slice(0, name.indexOf(':')) as keyof typeof NS) : undefined;
-  const cleaned: Record<string, string> = {};
-  for (const [key, value] of Object.entries(attrs)) cleaned[key] = clean(value);
-  const child: Node = { ns: prefix ? NS[prefix] : parent.ns, name, attrs: cleaned, text: text === undefined ? undefined : typeof text === 'number' ? double(text) : clean(text), children: [] };
-  parent.children.push(child);
-  return child;
-}
-const lang = (parent: Node, name: string, text: string): Node => el(parent, name, text, { 'xml:lang': 'en' });
-
 /** A global reference (GlobalReferenceType): type, refObjectId, version, uri, and a short description. */
 function reference(parent: Node, name: string, ref: Ref): Node {
   const node = el(parent, name, undefined, { type: ref.type, refObjectId: ref.uuid, ...(ref.version ? { version: ref.version } : {}), ...(ref.folder ? { uri: `../${ref.folder}/${ref.uuid}.xml` } : {}) });
@@ -173,16 +70,6 @@ function administrative(parent: Node, declaration: Declaration, owner?: Ref): vo
   const publication = el(admin, 'publicationAndOwnership');
   el(publication, 'common:dataSetVersion', DATASET_VERSION);
   if (owner) reference(publication, 'common:referenceToOwnershipOfDataSet', owner);
-}
-
-/** The declared unit as an amount of a published flow property: "1 m" → 1 of Length (m); "1 t" → 1000 of Mass (kg). Text that names no known unit counts as items. */
-export function declaredQuantity(declaredUnit: string): { amount: number; property: FlowProperty } {
-  const parsed = parseDeclaredUnit(declaredUnit);
-  const propertyName = parsed ? DIMENSION_PROPERTY[parsed.dimension] : undefined;
-  if (!parsed || !propertyName) return { amount: parsed?.amount ?? 1, property: flowProperty('Number of items') };
-  const property = flowProperty(propertyName);
-  const referenceUnit = canonicalUnit(property.unitGroup.unit) ?? (parsed.dimension === 'count' ? 'piece' : property.unitGroup.unit);
-  return { amount: parsed.amount * conversionFactor(parsed.unit, referenceUnit), property };
 }
 
 /** The datasets of one declaration that every product's archive shares, by path. */
@@ -453,80 +340,4 @@ function processDataset(declaration: Declaration, exported: ExportedDeclaration,
     }
   }
   return doc;
-}
-
-/** The shares of a product's end-of-life mass per route, from its scenario rows of C1–C4 (results.json `scenarios.end_of_life`). */
-export function endOfLifeShares(name: string, rows: NonNullable<ResultsSummary['scenarios']>['end_of_life']): EndOfLifeScenario | undefined {
-  const own = rows.filter((row) => row.stage === 'C1-C4');
-  const mass = own.reduce((sum, row) => sum + row.mass_kg, 0);
-  if (!(mass > 0)) return undefined;
-  const share = (key: 'collected_separately_kg' | 'collected_with_mixed_waste_kg' | 'reuse_kg' | 'recycling_kg' | 'energy_recovery_kg' | 'incineration_kg' | 'landfill_kg') => own.reduce((sum, row) => sum + row[key], 0) / mass;
-  return {
-    name,
-    separate: share('collected_separately_kg'),
-    withMixedWaste: share('collected_with_mixed_waste_kg'),
-    reuse: share('reuse_kg'),
-    recycling: share('recycling_kg'),
-    energyRecovery: share('energy_recovery_kg'),
-    incineration: share('incineration_kg'),
-    landfill: share('landfill_kg'),
-  };
-}
-
-/** A product's declaration as the export reads it: its products.csv row and its results. */
-export function productExport(product: Product, summary: ResultsSummary, verification: ExportedDeclaration['verification']): ExportedDeclaration {
-  return {
-    verification,
-    kind: 'product',
-    id: product.product_id,
-    name: product.name,
-    description: product.description ?? '',
-    declaredUnit: product.declared_unit,
-    unitMassKg: product.unit_mass_kg,
-    indicators: summary.indicators,
-    modules: summary.methods.cutoff.modules,
-    biogenicCarbonKg: summary.flows.biogenic_carbon_kg,
-    endOfLife: summary.scenarios ? endOfLifeShares(product.eol_scenario, summary.scenarios.end_of_life) : undefined,
-  };
-}
-
-/**
- * A family's declaration as the export reads it: the family's weighted means (families/<id>/
- * results.json), and, weighted by the same shares, the members' mass per declared unit,
- * biogenic carbon and end-of-life shares (a value not available for a member leaves the
- * family's not available). The scenario is named after the members' scenarios.
- */
-export function familyExport(results: FamilyResults, members: ReadonlyArray<{ product: Product; summary: ResultsSummary }>, verification: ExportedDeclaration['verification']): ExportedDeclaration {
-  const byId = new Map(members.map((m) => [m.product.product_id, m]));
-  const weighted = (value: (m: { product: Product; summary: ResultsSummary }) => number | null | undefined): number | null => {
-    let sum = 0;
-    for (const member of results.members) {
-      const found = byId.get(member.product_id);
-      const v = found ? value(found) : undefined;
-      if (v === null || v === undefined) return null;
-      sum += member.share * v;
-    }
-    return sum;
-  };
-  const modules: Record<string, IndicatorValues> = {};
-  for (const [module, values] of Object.entries(results.methods.cutoff.modules)) modules[module] = Object.fromEntries(Object.entries(values).map(([code, stat]) => [code, stat.mean]));
-  const scenarioNames = [...new Set(members.map((m) => m.product.eol_scenario))].sort();
-  const shares = members.map((m) => ({ id: m.product.product_id, eol: m.summary.scenarios ? endOfLifeShares(m.product.eol_scenario, m.summary.scenarios.end_of_life) : undefined }));
-  const eolShare = (key: keyof Omit<EndOfLifeScenario, 'name'>) => weighted((m) => shares.find((s) => s.id === m.product.product_id)?.eol?.[key]);
-  const keys = ['separate', 'withMixedWaste', 'reuse', 'recycling', 'energyRecovery', 'incineration', 'landfill'] as const;
-  const eolValues = Object.fromEntries(keys.map((key) => [key, eolShare(key)]));
-  return {
-    verification,
-    kind: 'family',
-    id: results.family_id,
-    name: results.name,
-    description: '',
-    declaredUnit: results.declared_unit,
-    unitMassKg: weighted((m) => m.product.unit_mass_kg) ?? NaN,
-    indicators: results.indicators,
-    modules,
-    biogenicCarbonKg: { product: weighted((m) => m.summary.flows.biogenic_carbon_kg.product), packaging: weighted((m) => m.summary.flows.biogenic_carbon_kg.packaging) },
-    endOfLife: keys.every((key) => eolValues[key] !== null) ? ({ name: scenarioNames.join(' + '), ...eolValues } as EndOfLifeScenario) : undefined,
-    members: results.members.map((m) => ({ id: m.product_id, share: m.share })),
-  };
 }

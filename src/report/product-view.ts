@@ -29,8 +29,6 @@ export interface ProductReport {
   verification: VerificationStatus;
 }
 
-
-
 export interface ProductView {
   id: string;
   name: string;
@@ -241,6 +239,6 @@ export function productView(project: Project, rows: ProductRows, report: Product
     families: project.families.filter((family) => family.members.some((m) => m.productId === product.product_id)).map((family) => ({ id: family.id, name: family.name, url: `../${familyDir(family.id)}/index.html` })),
     resultsJson: RESULTS_JSON,
     resultsCsv: RESULTS_CSV,
-    verification: verificationView(report?.verification ?? productStatus(project, project.verification.state, project.verification.current, rows)),
+    verification: verificationView(report?.verification ?? productStatus(project, rows)),
   };
 }

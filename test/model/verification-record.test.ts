@@ -3,6 +3,7 @@ import { spawnSync } from 'node:child_process';
 import { createPublicKey, verify } from 'node:crypto';
 import { cp, readFile, writeFile } from 'node:fs/promises';
 import path from 'node:path';
+import { unzipSync, zipSync } from 'fflate';
 import { loadProject } from '../../src/model/project.ts';
 import { canonicalJson, type VerificationRecord } from '../../src/model/verification-record.ts';
 import { productStatus } from '../../src/model/verification-status.ts';
@@ -24,7 +25,7 @@ let data: string;
 let out: string;
 const statuses = async (dir: string) => {
   const { project } = await loadProject(dir);
-  return Object.fromEntries(rowsByProduct(project!).map((rows) => [rows.product.value.product_id, productStatus(project!, project!.verification.state, project!.verification.current, rows)]));
+  return Object.fromEntries(rowsByProduct(project!).map((rows) => [rows.product.value.product_id, productStatus(project!, rows)]));
 };
 const pageStatus = async (site: string, id: string) => /Verification<\/dt><dd>([^<]*)/.exec(await readFile(path.join(site, id, 'index.html'), 'utf8'))![1]!;
 
@@ -108,7 +109,7 @@ describe('loopsheet verify and build', () => {
     expect(other.stdout).toMatch(/The old build is not the one verified on 2026-11-30: `KV-BR-40\/results.json` differ/);
   }, 60_000);
 
-  it('turns the products back to draft for a changed tool version, a tampered record, a wrong key, and a declaration.json changed after signing', async () => {
+  it('turns the products back to draft for a changed tool version, a tampered record, a wrong key, a changed supplier dataset (only the product that reads it) and a declaration.json changed after signing', async () => {
     const copy = await tempDir();
     dirs.push(copy);
     const at = path.join(copy, 'data');
@@ -133,9 +134,19 @@ describe('loopsheet verify and build', () => {
     await cp(path.join(other, 'other.pub.pem'), path.join(at, 'verifier.pub.pem'));
     expect((await statuses(at))['KV-CU-BB10']).toMatchObject({ status: 'draft', reasons: ['signature does not match the verifier’s key'] });
 
-    // The right key again, and declaration.json edited after signing.
+    // The right key again.
     await cp(path.join(keys, 'test.pub.pem'), path.join(at, 'verifier.pub.pem'));
     expect((await statuses(at))['KV-CU-BB10']!.status).toBe('verified');
+
+    // The supplier's dataset as other bytes (the same datasets zipped again): only the product that reads it is a draft.
+    const archive = path.join(at, 'suppliers', 'KV-S-0117.ilcd.zip');
+    await writeFile(archive, zipSync(unzipSync(await readFile(archive)), { level: 1 }));
+    const afterSupplier = await statuses(at);
+    expect(afterSupplier['KV-EXT-6060-T22']).toMatchObject({ status: 'draft', reasons: ['changed since verification on 2026-11-30: suppliers/KV-S-0117.ilcd.zip'] });
+    expect(afterSupplier['KV-EXT-6060']!.status).toBe('verified');
+    await cp(path.join(data, 'suppliers', 'KV-S-0117.ilcd.zip'), archive);
+
+    // declaration.json edited after signing.
     await writeFile(path.join(at, 'declaration.json'), (await readFile(path.join(at, 'declaration.json'), 'utf8')).replace('"gwp_set": "AR6"', '"gwp_set": "AR5"'));
     expect((await statuses(at))['KV-CU-BB10']).toMatchObject({ status: 'draft', reasons: ['changed since verification on 2026-11-30: declaration.json'] });
   }, 60_000);

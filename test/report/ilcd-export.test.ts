@@ -6,7 +6,8 @@ import { parse } from 'csv-parse/sync';
 import { unzipSync } from 'fflate';
 import { readEpdFile } from '../../src/load/ilcd.ts';
 import { parseXml, childOf } from '../../src/load/xml.ts';
-import { declaredQuantity, ilcdDatasets, type ExportedDeclaration } from '../../src/report/ilcd-export.ts';
+import { ilcdDatasets } from '../../src/report/ilcd-export.ts';
+import { declaredQuantity, type ExportedDeclaration } from '../../src/report/ilcd-declaration.ts';
 import { declarationSchema } from '../../src/schema/declaration.ts';
 import { ROOT, buildFresh, hasCommand, missingTool, removeDir } from '../helpers.ts';
 
